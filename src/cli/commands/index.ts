@@ -1,0 +1,9 @@
+import type { Command } from "commander";
+
+/** A CLI verb: adds itself (options, help with examples, action) to the program. */
+export interface CommandModule {
+  register(program: Command): void;
+}
+
+// Each verb's module is listed here once; order = order in `lightfold --help`.
+export const commandModules: CommandModule[] = [];

@@ -1,0 +1,63 @@
+/**
+ * The angular response matrix: where the light goes, per incidence direction and wavelength.
+ * One flat row-major array per statistic, index order [theta][phi][lambda][channel].
+ */
+export const RESPONSE_FORMAT = "lightfold.response";
+export const RESPONSE_FORMAT_VERSION = 1;
+
+/** Fixed channel names every stack has; others are per layer/film (see DEVELOPERS.md). */
+export const CH_REFLECTANCE = "R";
+export const CH_TRANSMITTANCE = "T";
+export const CH_ABSORBER = "A_absorber";
+export const CH_UNRESOLVED = "unresolved";
+
+/**
+ * How the phi axis is to be read: "list" = the listed azimuths as they are; "averaged" = one entry
+ * (phiDeg = [0]) holding the azimuth average; "square" = texture with square (C4v) symmetry, listed
+ * azimuths cover 0..45° and any azimuth folds into that range.
+ */
+export type PhiMode = "list" | "averaged" | "square";
+
+export interface ResponseMatrix {
+  format: typeof RESPONSE_FORMAT;
+  formatVersion: number;
+  toolVersion: string;
+  studyName: string;
+  /** sha256 (hex) of the canonical study (after parameter substitution of this combination). */
+  studyHash: string;
+  seed: number;
+  /** Parameter-sweep values of this matrix (field path -> value); {} when the study has no sweep. */
+  combo: Record<string, number>;
+  thetaDeg: number[];
+  phiDeg: number[];
+  phiMode: PhiMode;
+  wavelengthNm: number[];
+  channels: string[];
+  /** Mean fraction of incident power per channel, [theta][phi][lambda][channel]. */
+  mean: Float64Array;
+  /** Monte Carlo standard error of the mean, same layout. */
+  stderr: Float64Array;
+  /** Rays traced per point, [theta][phi][lambda]. */
+  nRays: Float64Array;
+  /** Mean optical path in the absorber divided by its thickness, per point ([theta][phi][lambda]). */
+  pathRatio: Float64Array;
+  /** True when written from an incomplete set of shards (explicitly requested). */
+  partial?: boolean;
+}
+
+/** Flat index of (theta, phi, lambda, channel). */
+export function matrixIndex(m: ResponseMatrix, it: number, ip: number, il: number, ic: number): number {
+  return ((it * m.phiDeg.length + ip) * m.wavelengthNm.length + il) * m.channels.length + ic;
+}
+
+/** Flat index of a point (theta, phi, lambda) into nRays / pathRatio. */
+export function pointIndex(m: ResponseMatrix, it: number, ip: number, il: number): number {
+  return (it * m.phiDeg.length + ip) * m.wavelengthNm.length + il;
+}
+
+/** Channel index by name; throws naming the channels present. */
+export function channelIndex(m: ResponseMatrix, name: string): number {
+  const i = m.channels.indexOf(name);
+  if (i < 0) throw new Error(`response matrix has no channel "${name}" (has ${m.channels.join(", ")})`);
+  return i;
+}
