@@ -1,0 +1,329 @@
+import { readFileSync } from "node:fs";
+import { resolve } from "node:path";
+import { InputError } from "../util/errors.js";
+import { parseHeightMapCsv } from "../geometry/heightMapCsv.js";
+import {
+  DEFAULT_FACET_ANGLE_DEG,
+  type BoundaryKind,
+  type FilmSpec,
+  type FrontSpec,
+  type LayerSpec,
+  type RearSpec,
+  type StackSpec,
+  type TextureSpec,
+} from "./stackTypes.js";
+
+/** Anything with a `get(name)` that throws InputError on unknown materials (MaterialRegistry). */
+export interface MaterialLookup {
+  get(name: string): unknown;
+}
+
+export interface ValidateStackOptions {
+  /** Directory of the study file; relative height-map paths resolve against it. */
+  baseDir?: string;
+  /** Reads a file as text (default: fs.readFileSync utf8). Used for height maps only. */
+  readText?: (absPath: string) => string;
+}
+
+type Raw = Record<string, unknown>;
+
+/**
+ * Validates the raw "stack" JSON of a study file into a StackSpec: defaults applied, unknown fields
+ * rejected with a did-you-mean hint, every error an InputError naming the field path. With a
+ * registry, material names are checked too. Height maps are read (relative to options.baseDir) when
+ * a base directory or a reader is given; otherwise `grid` stays unset.
+ */
+export function validateStack(
+  raw: unknown,
+  path: string,
+  registry?: MaterialLookup,
+  options: ValidateStackOptions = {},
+): StackSpec {
+  const ctx: Ctx = { registry, options };
+  const o = object(raw, path);
+  known(o, path, ["incidence", "layers", "front", "absorber", "rear", "boundary"]);
+  const incidence = material(ctx, o.incidence ?? "air", `${path}.incidence`);
+  const layers = layerList(ctx, o.layers, `${path}.layers`);
+  const front = frontSpec(ctx, required(o, "front", path), `${path}.front`);
+  const a = object(required(o, "absorber", path), `${path}.absorber`);
+  known(a, `${path}.absorber`, ["material", "thicknessUm"]);
+  const absorber = {
+    material: material(ctx, a.material ?? "Si", `${path}.absorber.material`),
+    thicknessUm: positive(required(a, "thicknessUm", `${path}.absorber`), `${path}.absorber.thicknessUm`),
+  };
+  const rear = rearSpec(ctx, required(o, "rear", path), `${path}.rear`);
+  const boundary = oneOf(o.boundary ?? "periodic", `${path}.boundary`, ["periodic", "mirror"]) as BoundaryKind;
+  return { incidence, layers, front, absorber, rear, boundary };
+}
+
+interface Ctx {
+  registry: MaterialLookup | undefined;
+  options: ValidateStackOptions;
+}
+
+function layerList(ctx: Ctx, raw: unknown, path: string): LayerSpec[] {
+  if (raw === undefined) return [];
+  if (!Array.isArray(raw)) throw new InputError(`${path}: expected a list of layers, got ${describe(raw)}`);
+  const names = new Set<string>();
+  return raw.map((item, i) => {
+    const p = `${path}[${i}]`;
+    const o = object(item, p);
+    known(o, p, ["name", "material", "thicknessUm", "topFilms"]);
+    const mat = material(ctx, required(o, "material", p), `${p}.material`);
+    const name = o.name === undefined ? mat : str(o.name, `${p}.name`);
+    if (names.has(name)) {
+      throw new InputError(`${p}.name: layer name ${JSON.stringify(name)} is used twice`, "give each layer its own name");
+    }
+    names.add(name);
+    return {
+      name,
+      material: mat,
+      thicknessUm: positive(required(o, "thicknessUm", p), `${p}.thicknessUm`),
+      topFilms: filmList(ctx, o.topFilms, `${p}.topFilms`),
+    };
+  });
+}
+
+function frontSpec(ctx: Ctx, raw: unknown, path: string): FrontSpec {
+  const o = object(raw, path);
+  known(o, path, ["texture", "films"]);
+  return {
+    texture: texture(ctx, o.texture ?? { type: "planar" }, `${path}.texture`),
+    films: filmList(ctx, o.films, `${path}.films`),
+  };
+}
+
+function rearSpec(ctx: Ctx, raw: unknown, path: string): RearSpec {
+  const o = object(raw, path);
+  if (o.ideal !== undefined) {
+    known(o, path, ["ideal"]);
+    const p = `${path}.ideal`;
+    const ideal = object(o.ideal, p);
+    known(ideal, p, ["kind", "reflectance"]);
+    const kind = oneOf(required(ideal, "kind", p), `${p}.kind`, ["mirror", "lambertian"]) as "mirror" | "lambertian";
+    const reflectance = num(ideal.reflectance ?? 1, `${p}.reflectance`);
+    if (!(reflectance >= 0 && reflectance <= 1)) {
+      throw new InputError(`${p}.reflectance: expected a number in [0, 1], got ${reflectance}`);
+    }
+    return { ideal: { kind, reflectance } };
+  }
+  known(o, path, ["texture", "films", "exit", "ideal"]);
+  return {
+    texture: texture(ctx, o.texture ?? { type: "planar" }, `${path}.texture`),
+    films: filmList(ctx, o.films, `${path}.films`),
+    exit: material(ctx, required(o, "exit", path), `${path}.exit`),
+  };
+}
+
+function filmList(ctx: Ctx, raw: unknown, path: string): FilmSpec[] {
+  if (raw === undefined) return [];
+  if (!Array.isArray(raw)) throw new InputError(`${path}: expected a list of films, got ${describe(raw)}`);
+  return raw.map((item, i) => {
+    const p = `${path}[${i}]`;
+    const o = object(item, p);
+    known(o, p, ["material", "thicknessNm"]);
+    return {
+      material: material(ctx, required(o, "material", p), `${p}.material`),
+      thicknessNm: positive(required(o, "thicknessNm", p), `${p}.thicknessNm`),
+    };
+  });
+}
+
+const TEXTURE_FIELDS: Record<TextureSpec["type"], string[]> = {
+  planar: [],
+  "upright-pyramids": ["baseUm", "facetAngleDeg"],
+  "inverted-pyramids": ["baseUm", "facetAngleDeg"],
+  "random-pyramids": ["meanBaseUm", "sizeSpread", "count", "tileUm", "facetAngleDeg", "seed"],
+  grooves: ["periodUm", "facetAngleDeg", "orientationDeg"],
+  "spherical-caps": ["radiusUm", "periodUm", "depthUm", "inverted"],
+  "height-map": ["csv", "pitchUm"],
+};
+
+function texture(ctx: Ctx, raw: unknown, path: string): TextureSpec {
+  const o = object(raw, path);
+  const type = oneOf(required(o, "type", path), `${path}.type`, Object.keys(TEXTURE_FIELDS)) as TextureSpec["type"];
+  known(o, path, ["type", ...TEXTURE_FIELDS[type]]);
+  const facet = (): number => facetAngle(o.facetAngleDeg ?? DEFAULT_FACET_ANGLE_DEG, `${path}.facetAngleDeg`);
+  const pos = (key: string): number => positive(required(o, key, path), `${path}.${key}`);
+  switch (type) {
+    case "planar":
+      return { type };
+    case "upright-pyramids":
+    case "inverted-pyramids":
+      return { type, baseUm: pos("baseUm"), facetAngleDeg: facet() };
+    case "random-pyramids": {
+      const meanBaseUm = pos("meanBaseUm");
+      const sizeSpread = num(o.sizeSpread ?? 0.3, `${path}.sizeSpread`);
+      if (!(sizeSpread >= 0 && sizeSpread < 1)) {
+        throw new InputError(`${path}.sizeSpread: expected a relative standard deviation in [0, 1), got ${sizeSpread}`);
+      }
+      const count = integer(o.count ?? 20, `${path}.count`, 1, 10000);
+      const tileUm = o.tileUm === undefined ? meanBaseUm * Math.sqrt(count) : positive(o.tileUm, `${path}.tileUm`);
+      const seed = integer(o.seed ?? 1, `${path}.seed`, 0, 2 ** 31);
+      return { type, meanBaseUm, sizeSpread, count, tileUm, facetAngleDeg: facet(), seed };
+    }
+    case "grooves":
+      return {
+        type,
+        periodUm: pos("periodUm"),
+        facetAngleDeg: facet(),
+        orientationDeg: num(o.orientationDeg ?? 0, `${path}.orientationDeg`),
+      };
+    case "spherical-caps": {
+      const radiusUm = pos("radiusUm");
+      const periodUm = pos("periodUm");
+      const depthUm = pos("depthUm");
+      if (depthUm > radiusUm) {
+        throw new InputError(`${path}.depthUm: expected at most radiusUm (${radiusUm}), got ${depthUm}`);
+      }
+      const chordUm = 2 * Math.sqrt(depthUm * (2 * radiusUm - depthUm));
+      if (chordUm > periodUm * Math.SQRT2 + 1e-9) {
+        throw new InputError(
+          `${path}.depthUm: a cap of radius ${radiusUm} µm and depth ${depthUm} µm is ${chordUm.toFixed(3)} µm wide, ` +
+            `more than the cell diagonal ${(periodUm * Math.SQRT2).toFixed(3)} µm`,
+          "lower depthUm or raise periodUm",
+        );
+      }
+      const inverted = o.inverted ?? false;
+      if (typeof inverted !== "boolean") throw new InputError(`${path}.inverted: expected true or false, got ${describe(inverted)}`);
+      return { type, radiusUm, periodUm, depthUm, inverted };
+    }
+    case "height-map": {
+      const csv = str(required(o, "csv", path), `${path}.csv`);
+      const pitchUm = pos("pitchUm");
+      const spec: TextureSpec = { type, csv, pitchUm };
+      const { baseDir, readText } = ctx.options;
+      if (baseDir !== undefined || readText !== undefined) {
+        const abs = resolve(baseDir ?? ".", csv);
+        let text: string;
+        try {
+          text = (readText ?? ((p: string) => readFileSync(p, "utf8")))(abs);
+        } catch (err) {
+          throw new InputError(`${path}.csv: cannot read height map ${abs}: ${(err as Error).message}`);
+        }
+        spec.grid = parseHeightMapCsv(text, abs);
+      }
+      return spec;
+    }
+  }
+}
+
+// ---- primitive checks -------------------------------------------------------------------------
+
+function object(raw: unknown, path: string): Raw {
+  if (raw === null || typeof raw !== "object" || Array.isArray(raw)) {
+    throw new InputError(`${path}: expected an object, got ${describe(raw)}`);
+  }
+  return raw as Raw;
+}
+
+function required(o: Raw, key: string, path: string): unknown {
+  if (o[key] === undefined) throw new InputError(`${path}.${key}: required field is missing`);
+  return o[key];
+}
+
+function known(o: Raw, path: string, allowed: string[]): void {
+  for (const key of Object.keys(o)) {
+    if (!allowed.includes(key)) {
+      const near = nearest(key, allowed);
+      throw new InputError(
+        `${path}.${key}: unknown field`,
+        near !== undefined ? `did you mean "${near}"?` : `allowed fields: ${allowed.join(", ") || "(none)"}`,
+      );
+    }
+  }
+}
+
+function num(raw: unknown, path: string): number {
+  if (typeof raw !== "number" || !Number.isFinite(raw)) throw new InputError(`${path}: expected a number, got ${describe(raw)}`);
+  return raw;
+}
+
+function positive(raw: unknown, path: string): number {
+  if (typeof raw !== "number" || !Number.isFinite(raw) || raw <= 0) {
+    throw new InputError(`${path}: expected a positive number, got ${describe(raw)}`);
+  }
+  return raw;
+}
+
+function integer(raw: unknown, path: string, min: number, max: number): number {
+  if (typeof raw !== "number" || !Number.isInteger(raw) || raw < min || raw > max) {
+    throw new InputError(`${path}: expected an integer in [${min}, ${max}], got ${describe(raw)}`);
+  }
+  return raw;
+}
+
+function facetAngle(raw: unknown, path: string): number {
+  if (typeof raw !== "number" || !Number.isFinite(raw) || raw <= 0 || raw >= 90) {
+    throw new InputError(`${path}: expected a number in (0, 90), got ${describe(raw)}`);
+  }
+  return raw;
+}
+
+function str(raw: unknown, path: string): string {
+  if (typeof raw !== "string" || raw === "") throw new InputError(`${path}: expected a non-empty string, got ${describe(raw)}`);
+  return raw;
+}
+
+function oneOf(raw: unknown, path: string, allowed: string[]): string {
+  if (typeof raw !== "string" || !allowed.includes(raw)) {
+    const near = typeof raw === "string" ? nearest(raw, allowed) : undefined;
+    throw new InputError(
+      `${path}: expected one of ${allowed.map((a) => JSON.stringify(a)).join(", ")}, got ${describe(raw)}`,
+      near !== undefined ? `did you mean "${near}"?` : undefined,
+    );
+  }
+  return raw;
+}
+
+function material(ctx: Ctx, raw: unknown, path: string): string {
+  const name = str(raw, path);
+  if (ctx.registry !== undefined) {
+    try {
+      ctx.registry.get(name);
+    } catch (err) {
+      if (err instanceof InputError) throw new InputError(`${path}: ${err.message}`, err.hint);
+      throw err;
+    }
+  }
+  return name;
+}
+
+function describe(raw: unknown): string {
+  if (raw === undefined) return "nothing";
+  if (typeof raw === "string") return JSON.stringify(raw);
+  if (Array.isArray(raw)) return "a list";
+  if (raw === null) return "null";
+  if (typeof raw === "object") return "an object";
+  return String(raw);
+}
+
+/** Closest allowed word by edit distance (at most a third of its length), for did-you-mean hints. */
+function nearest(word: string, allowed: string[]): string | undefined {
+  let best: string | undefined;
+  let bestD = Infinity;
+  const lw = word.toLowerCase();
+  for (const a of allowed) {
+    const d = editDistance(lw, a.toLowerCase());
+    if (d < bestD) {
+      bestD = d;
+      best = a;
+    }
+  }
+  return best !== undefined && bestD <= Math.max(2, Math.floor(best.length / 3)) ? best : undefined;
+}
+
+function editDistance(a: string, b: string): number {
+  const prev = new Array<number>(b.length + 1);
+  for (let j = 0; j <= b.length; j++) prev[j] = j;
+  for (let i = 1; i <= a.length; i++) {
+    let diag = prev[0];
+    prev[0] = i;
+    for (let j = 1; j <= b.length; j++) {
+      const tmp = prev[j];
+      prev[j] = Math.min(prev[j] + 1, prev[j - 1] + 1, diag + (a[i - 1] === b[j - 1] ? 0 : 1));
+      diag = tmp;
+    }
+  }
+  return prev[b.length];
+}
