@@ -1,4 +1,5 @@
 import type { Command } from "commander";
+import * as exportCmd from "./export.js";
 
 /** A CLI verb: adds itself (options, help with examples, action) to the program. */
 export interface CommandModule {
@@ -6,4 +7,4 @@ export interface CommandModule {
 }
 
 // Each verb's module is listed here once; order = order in `lightfold --help`.
-export const commandModules: CommandModule[] = [];
+export const commandModules: CommandModule[] = [exportCmd];

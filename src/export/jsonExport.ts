@@ -1,0 +1,68 @@
+import { matrixIndex, pointIndex, type ResponseMatrix } from "../response/responseMatrix.js";
+
+/** Format tag of the nested-array JSON export (distinct from the flat `*.matrix.json` file). */
+export const JSON_EXPORT_FORMAT = "lightfold.response.export";
+export const JSON_EXPORT_VERSION = 1;
+
+/** Axis names, outermost first; `mean[it][ip][il][ic]` belongs to thetaDeg[it], phiDeg[ip], … */
+export const EXPORT_DIMS = ["theta_deg", "phi_deg", "wavelength_nm", "channel"] as const;
+
+export interface MatrixJsonExport {
+  format: typeof JSON_EXPORT_FORMAT;
+  formatVersion: number;
+  toolVersion: string;
+  studyName: string;
+  studyHash: string;
+  seed: number;
+  combo: Record<string, number>;
+  phiMode: ResponseMatrix["phiMode"];
+  partial: boolean;
+  dims: string[];
+  axes: { theta_deg: number[]; phi_deg: number[]; wavelength_nm: number[]; channel: string[] };
+  /** Fractions of incident power, nested [theta][phi][wavelength][channel]. */
+  mean: number[][][][];
+  /** Monte Carlo standard errors, same nesting. */
+  stderr: number[][][][];
+  /** Rays per point, nested [theta][phi][wavelength]. */
+  nRays: number[][][];
+  /** Mean absorber path / thickness per point, nested [theta][phi][wavelength]. */
+  pathRatio: number[][][];
+}
+
+function nest4(m: ResponseMatrix, flat: Float64Array): number[][][][] {
+  return m.thetaDeg.map((_, it) =>
+    m.phiDeg.map((_, ip) =>
+      m.wavelengthNm.map((_, il) => m.channels.map((_, ic) => flat[matrixIndex(m, it, ip, il, ic)])),
+    ),
+  );
+}
+
+function nest3(m: ResponseMatrix, flat: Float64Array): number[][][] {
+  return m.thetaDeg.map((_, it) => m.phiDeg.map((_, ip) => m.wavelengthNm.map((_, il) => flat[pointIndex(m, it, ip, il)])));
+}
+
+/** The matrix as nested arrays with named axes (for tools that do not want to compute flat indices). */
+export function matrixToExportObject(m: ResponseMatrix): MatrixJsonExport {
+  return {
+    format: JSON_EXPORT_FORMAT,
+    formatVersion: JSON_EXPORT_VERSION,
+    toolVersion: m.toolVersion,
+    studyName: m.studyName,
+    studyHash: m.studyHash,
+    seed: m.seed,
+    combo: m.combo,
+    phiMode: m.phiMode,
+    partial: m.partial === true,
+    dims: [...EXPORT_DIMS],
+    axes: { theta_deg: m.thetaDeg, phi_deg: m.phiDeg, wavelength_nm: m.wavelengthNm, channel: m.channels },
+    mean: nest4(m, m.mean),
+    stderr: nest4(m, m.stderr),
+    nRays: nest3(m, m.nRays),
+    pathRatio: nest3(m, m.pathRatio),
+  };
+}
+
+/** JSON text of the export (JSON numbers round-trip doubles exactly). */
+export function matrixToExportJson(m: ResponseMatrix): string {
+  return JSON.stringify(matrixToExportObject(m));
+}

@@ -1,0 +1,80 @@
+import type { ResponseMatrix } from "../response/responseMatrix.js";
+import { encodeNpyFloat64 } from "./npy.js";
+
+export const NPY_SIDECAR_FORMAT = "lightfold.response.npy";
+export const NPY_SIDECAR_VERSION = 1;
+
+export interface NpyArrayEntry {
+  /** File name relative to the sidecar's folder. */
+  file: string;
+  dtype: "<f8";
+  dims: string[];
+  shape: number[];
+  description: string;
+}
+
+export interface NpySidecar {
+  format: typeof NPY_SIDECAR_FORMAT;
+  formatVersion: number;
+  toolVersion: string;
+  studyName: string;
+  studyHash: string;
+  seed: number;
+  combo: Record<string, number>;
+  phiMode: ResponseMatrix["phiMode"];
+  partial: boolean;
+  axes: { theta_deg: number[]; phi_deg: number[]; wavelength_nm: number[]; channels: string[] };
+  arrays: { mean: NpyArrayEntry; stderr: NpyArrayEntry; nRays: NpyArrayEntry; pathRatio: NpyArrayEntry };
+}
+
+export interface NpyExport {
+  sidecar: NpySidecar;
+  /** File name → complete .npy bytes. */
+  files: Map<string, Uint8Array>;
+}
+
+/**
+ * The matrix as four .npy arrays plus a JSON sidecar naming axes, shapes and files. `prefix` is the
+ * file-name stem (no folder): arrays become `<prefix>_mean.npy`, `<prefix>_stderr.npy`,
+ * `<prefix>_nrays.npy`, `<prefix>_path_ratio.npy`.
+ */
+export function matrixToNpy(m: ResponseMatrix, prefix: string): NpyExport {
+  const nT = m.thetaDeg.length;
+  const nP = m.phiDeg.length;
+  const nL = m.wavelengthNm.length;
+  const nC = m.channels.length;
+  const dims4 = ["theta_deg", "phi_deg", "wavelength_nm", "channel"];
+  const dims3 = ["theta_deg", "phi_deg", "wavelength_nm"];
+  const entry = (suffix: string, dims: string[], shape: number[], description: string): NpyArrayEntry => ({
+    file: `${prefix}_${suffix}.npy`,
+    dtype: "<f8",
+    dims,
+    shape,
+    description,
+  });
+  const arrays = {
+    mean: entry("mean", dims4, [nT, nP, nL, nC], "mean fraction of incident power per channel"),
+    stderr: entry("stderr", dims4, [nT, nP, nL, nC], "Monte Carlo standard error of mean"),
+    nRays: entry("nrays", dims3, [nT, nP, nL], "rays traced per point"),
+    pathRatio: entry("path_ratio", dims3, [nT, nP, nL], "mean optical path in the absorber / absorber thickness"),
+  };
+  const files = new Map<string, Uint8Array>();
+  files.set(arrays.mean.file, encodeNpyFloat64(arrays.mean.shape, m.mean));
+  files.set(arrays.stderr.file, encodeNpyFloat64(arrays.stderr.shape, m.stderr));
+  files.set(arrays.nRays.file, encodeNpyFloat64(arrays.nRays.shape, m.nRays));
+  files.set(arrays.pathRatio.file, encodeNpyFloat64(arrays.pathRatio.shape, m.pathRatio));
+  const sidecar: NpySidecar = {
+    format: NPY_SIDECAR_FORMAT,
+    formatVersion: NPY_SIDECAR_VERSION,
+    toolVersion: m.toolVersion,
+    studyName: m.studyName,
+    studyHash: m.studyHash,
+    seed: m.seed,
+    combo: m.combo,
+    phiMode: m.phiMode,
+    partial: m.partial === true,
+    axes: { theta_deg: m.thetaDeg, phi_deg: m.phiDeg, wavelength_nm: m.wavelengthNm, channels: m.channels },
+    arrays,
+  };
+  return { sidecar, files };
+}
