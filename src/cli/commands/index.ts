@@ -1,5 +1,6 @@
 import type { Command } from "commander";
 import * as exportCmd from "./export.js";
+import * as spectralCmd from "./spectral.js";
 import * as materialsCmd from "./materials.js";
 
 /** A CLI verb: adds itself (options, help with examples, action) to the program. */
@@ -8,4 +9,4 @@ export interface CommandModule {
 }
 
 // Each verb's module is listed here once; order = order in `lightfold --help`.
-export const commandModules: CommandModule[] = [materialsCmd, exportCmd];
+export const commandModules: CommandModule[] = [materialsCmd, exportCmd, spectralCmd];
