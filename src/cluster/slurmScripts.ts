@@ -40,8 +40,9 @@ export function buildSlurmScripts(input: SlurmScriptInput): SlurmScriptSet {
   const arrayPath = join(input.scriptDir, ARRAY_SCRIPT_NAME);
   const mergePath = join(input.scriptDir, MERGE_SCRIPT_NAME);
   const submitPath = join(input.scriptDir, SUBMIT_SCRIPT_NAME);
-  const lastShard = job.shards - 1;
-  const arraySpec = `0-${lastShard}${job.maxRunning !== undefined ? `%${job.maxRunning}` : ""}`;
+  // Array index = shard number (1..N, as `--shard K/N` and the shard folders count), so the numbers
+  // in merge's list of missing shards are the ones to re-submit with --array.
+  const arraySpec = `1-${job.shards}${job.maxRunning !== undefined ? `%${job.maxRunning}` : ""}`;
   const header = [
     `# lightfold ${input.toolVersion}: study "${oneLine(input.studyName)}" (hash ${input.studyHash.slice(0, 16)})`,
     `# study file: ${oneLine(input.studyPath)}`,
@@ -65,8 +66,8 @@ export function buildSlurmScripts(input: SlurmScriptInput): SlurmScriptSet {
     `#SBATCH --error=${join(logDir, "%x_%A_%a.err")}`,
     ...passThrough,
     ...header,
-    `# One array task = one shard of ${job.shards}. A task that failed, ran out of time or was cancelled`,
-    "# is re-run alone (sbatch --array=K this-script, or submit.sh K) and resumes from its journal.",
+    `# Array task K = shard K of ${job.shards}. A task that failed, ran out of time or was cancelled is`,
+    "# re-run alone (submit.sh K, or sbatch --array=K this script) and resumes from its journal.",
     "set -euo pipefail",
     "",
     "# The shard index comes from Slurm; the shard count is fixed here because a re-submitted",
@@ -101,7 +102,7 @@ export function buildSlurmScripts(input: SlurmScriptInput): SlurmScriptSet {
     `# Submits the ${job.shards}-shard array and a merge job that starts only when every array task of`,
     "# that submission succeeded (--dependency=afterok).",
     "#",
-    `#   ${SUBMIT_SCRIPT_NAME}             all shards 0-${lastShard}`,
+    `#   ${SUBMIT_SCRIPT_NAME}             all shards 1-${job.shards}`,
     `#   ${SUBMIT_SCRIPT_NAME} 2           only shard 2 (e.g. after it failed); others already done are kept`,
     `#   ${SUBMIT_SCRIPT_NAME} 1,5-7       a Slurm index list of shards`,
     "#",
@@ -121,7 +122,7 @@ export function buildSlurmScripts(input: SlurmScriptInput): SlurmScriptSet {
     '  for part in ${list//,/ }; do',
     '    part=${part%%\\%*}',
     '    for n in ${part//-/ }; do',
-    '      if (( 10#$n >= shards )); then echo "submit.sh: shard $n does not exist (shards 0-$((shards - 1)))" >&2; exit 2; fi',
+      '      if (( 10#$n < 1 || 10#$n > shards )); then echo "submit.sh: shard $n does not exist (shards 1-$shards)" >&2; exit 2; fi',
     "    done",
     "  done",
     '  array_opt=(--array="$list")',
@@ -132,7 +133,7 @@ export function buildSlurmScripts(input: SlurmScriptInput): SlurmScriptSet {
     "array_job=${array_job%%;*}",
     'merge_job=$(sbatch --parsable --dependency="afterok:${array_job}" "$@" "$merge_script")',
     "merge_job=${merge_job%%;*}",
-    `echo "submitted shard array job \${array_job} (shards \${list:-0-${lastShard}} of ${job.shards}) and merge job \${merge_job} (runs after they all succeed)"`,
+    `echo "submitted shard array job \${array_job} (shards \${list:-1-${job.shards}} of ${job.shards}) and merge job \${merge_job} (runs after they all succeed)"`,
     'echo "follow with: squeue -j ${array_job},${merge_job}"',
     "",
   ].join("\n");

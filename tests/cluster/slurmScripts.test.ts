@@ -94,7 +94,7 @@ describe("generated batch scripts", () => {
     const logs = join(work, "run", "slurm", "logs");
     expect(sbatchDirectives(set.arrayScript)).toEqual([
       "--job-name=lf-demo",
-      "--array=0-3%2",
+      "--array=1-4%2",
       "--ntasks=1",
       "--cpus-per-task=2",
       "--time=02:00:00",
@@ -123,7 +123,7 @@ describe("generated batch scripts", () => {
     const set = buildSlurmScripts(input());
     const all = [...sbatchDirectives(set.arrayScript), ...sbatchDirectives(set.mergeScript)];
     expect(all.some((d) => /^--(partition|account|qos)/.test(d))).toBe(false);
-    expect(sbatchDirectives(set.arrayScript)).toContain("--array=0-3");
+    expect(sbatchDirectives(set.arrayScript)).toContain("--array=1-4");
   });
 
   it("is valid bash (bash -n) and runs the sweep of the task's shard, the merge into <out>/merged", () => {
@@ -135,7 +135,7 @@ describe("generated batch scripts", () => {
       expect(check.stderr).toBe("");
       expect(check.status).toBe(0);
     }
-    const env = { ...process.env, SLURM_ARRAY_TASK_ID: "2", SLURM_ARRAY_TASK_COUNT: "1", SLURM_CPUS_PER_TASK: "2" };
+    const env = { ...process.env, SLURM_ARRAY_TASK_ID: "2", SLURM_ARRAY_TASK_COUNT: "1", SLURM_ARRAY_TASK_MIN: "2", SLURM_CPUS_PER_TASK: "2" };
     const task = execFileSync("bash", [join(work, "a.sh")], { encoding: "utf8", env });
     // A re-submitted single task sees SLURM_ARRAY_TASK_COUNT=1; the shard count must still be 4.
     expect(task.trim().split("\n").at(-1)).toBe(`lightfold sweep /shared/studies/demo.study.json --out ${join(work, "run")} --shard 2/4`);
@@ -159,7 +159,7 @@ describe("generated batch scripts", () => {
     const env = { ...process.env, PATH: `${bin}:${process.env.PATH ?? ""}` };
 
     const first = execFileSync("bash", [submit], { encoding: "utf8", env });
-    expect(first).toMatch(/shard array job 101 \(shards 0-3 of 4\) and merge job 102/);
+    expect(first).toMatch(/shard array job 101 \(shards 1-4 of 4\) and merge job 102/);
     const again = execFileSync("bash", [submit, "2", "--qos=high"], { encoding: "utf8", env });
     expect(again).toMatch(/shard array job 103 \(shards 2 of 4\) and merge job 104/);
     expect(readFileSync(calls, "utf8").trim().split("\n")).toEqual([
@@ -168,9 +168,9 @@ describe("generated batch scripts", () => {
       `--parsable --array=2 --qos=high ${set.arrayPath}`,
       `--parsable --dependency=afterok:103 --qos=high ${set.mergePath}`,
     ]);
-    const bad = spawnSync("bash", [submit, "1,4"], { encoding: "utf8", env });
+    const bad = spawnSync("bash", [submit, "0,4"], { encoding: "utf8", env });
     expect(bad.status).toBe(2);
-    expect(bad.stderr).toMatch(/shard 4 does not exist \(shards 0-3\)/);
+    expect(bad.stderr).toMatch(/shard 0 does not exist \(shards 1-4\)/);
     expect(readFileSync(calls, "utf8").trim().split("\n")).toHaveLength(4);
   });
 });
