@@ -2,6 +2,7 @@ import type { Command } from "commander";
 import * as exportCmd from "./export.js";
 import * as spectralCmd from "./spectral.js";
 import * as materialsCmd from "./materials.js";
+import * as clusterCmd from "./cluster.js";
 
 /** A CLI verb: adds itself (options, help with examples, action) to the program. */
 export interface CommandModule {
@@ -9,4 +10,4 @@ export interface CommandModule {
 }
 
 // Each verb's module is listed here once; order = order in `lightfold --help`.
-export const commandModules: CommandModule[] = [materialsCmd, exportCmd, spectralCmd];
+export const commandModules: CommandModule[] = [materialsCmd, exportCmd, spectralCmd, clusterCmd];
