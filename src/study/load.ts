@@ -1,0 +1,135 @@
+import { readFileSync } from "node:fs";
+import { dirname, resolve } from "node:path";
+import { InputError } from "../util/errors.js";
+import type { MaterialRegistry } from "../materials/registry.js";
+import { canonicalJson, studyHash } from "./canonical.js";
+import { resolveStudyDocument } from "./resolveStudy.js";
+import type { SweepSpec } from "./sweepCombos.js";
+import type { RaysPlan, Study, StudyCombo } from "./studyTypes.js";
+import { buildMaterialRegistry } from "./userMaterials.js";
+
+/** A study file read, validated and resolved; everything a sweep needs. */
+export interface LoadedStudy {
+  /** Absolute path of the study file ("(inline)" for documents built in code). */
+  path: string;
+  /** Directory relative file names in the study resolve against. */
+  baseDir: string;
+  name: string;
+  /** sha256 (hex) of the whole resolved study (all combinations) + referenced file contents. */
+  hash: string;
+  sweep: SweepSpec;
+  combos: StudyCombo[];
+  registry: MaterialRegistry;
+  /** Contents of the files the study refers to, by name as written. */
+  files: Record<string, string>;
+}
+
+/** Reads, validates and resolves a study file (JSON). Throws InputError naming the field path. */
+export function loadStudy(path: string): LoadedStudy {
+  const abs = resolve(path);
+  let text: string;
+  try {
+    text = readFileSync(abs, "utf8");
+  } catch (err) {
+    throw new InputError(`cannot read study file ${path}: ${(err as NodeJS.ErrnoException).code ?? (err as Error).message}`);
+  }
+  let doc: unknown;
+  try {
+    doc = JSON.parse(text);
+  } catch (err) {
+    throw new InputError(`${path}: not valid JSON: ${jsonErrorWhere(text, err as Error)}`);
+  }
+  try {
+    return loadStudyFromDocument(doc, { baseDir: dirname(abs), path: abs });
+  } catch (err) {
+    if (err instanceof InputError) throw new InputError(`${path}: ${err.message}`, err.hint);
+    throw err;
+  }
+}
+
+/** Same as loadStudy for a document already parsed (relative files resolve against baseDir). */
+export function loadStudyFromDocument(doc: unknown, options: { baseDir: string; path?: string }): LoadedStudy {
+  const baseDir = resolve(options.baseDir);
+  const files = referencedFiles(doc, baseDir);
+  const materials = doc !== null && typeof doc === "object" ? (doc as Record<string, unknown>).materials : undefined;
+  const registry = buildMaterialRegistry(Array.isArray(materials) ? materials : [], baseDir);
+  const readText = (p: string): string => readFileSync(p, "utf8");
+  const resolved = resolveStudyDocument(doc, registry, { baseDir, readText });
+  return assemble(resolved.studies, resolved.comboValues, resolved.sweep, {
+    path: options.path ?? "(inline)",
+    baseDir,
+    registry,
+    files,
+  });
+}
+
+/**
+ * The same study with another seed or ray plan (used for convergence runs and reference runs);
+ * hashes are recomputed, so journals and matrices of the two never mix.
+ */
+export function withOverrides(loaded: LoadedStudy, overrides: { seed?: number; rays?: RaysPlan }): LoadedStudy {
+  const studies = loaded.combos.map((c) => ({
+    ...c.study,
+    ...(overrides.seed !== undefined ? { seed: overrides.seed } : {}),
+    ...(overrides.rays !== undefined ? { rays: overrides.rays } : {}),
+  }));
+  return assemble(studies, loaded.combos.map((c) => c.values), loaded.sweep, loaded);
+}
+
+function assemble(
+  studies: Study[],
+  comboValues: Record<string, number>[],
+  sweep: SweepSpec,
+  base: { path: string; baseDir: string; registry: MaterialRegistry; files: Record<string, string> },
+): LoadedStudy {
+  const hasSweep = Object.keys(sweep).length > 0;
+  const combos: StudyCombo[] = studies.map((study, index) => ({
+    index,
+    label: hasSweep ? `p${index}` : "base",
+    values: comboValues[index],
+    study,
+    hash: studyHash(study, base.files),
+  }));
+  const hash = studyHash({ combos: combos.map((c) => ({ values: c.values, study: c.study })), sweep }, base.files);
+  return { ...base, name: studies[0].name, hash, sweep, combos };
+}
+
+/** Contents of every file named by a "csv" field anywhere in the document (for the study hash). */
+function referencedFiles(doc: unknown, baseDir: string): Record<string, string> {
+  const files: Record<string, string> = {};
+  const visit = (node: unknown, path: string): void => {
+    if (Array.isArray(node)) node.forEach((v, i) => visit(v, `${path}[${i}]`));
+    else if (node !== null && typeof node === "object") {
+      for (const [k, v] of Object.entries(node as Record<string, unknown>)) {
+        const p = path === "" ? k : `${path}.${k}`;
+        if (k === "csv" && typeof v === "string" && v !== "") {
+          if (files[v] === undefined) {
+            try {
+              files[v] = readFileSync(resolve(baseDir, v), "utf8");
+            } catch (err) {
+              throw new InputError(`${p}: cannot read ${resolve(baseDir, v)} (${(err as NodeJS.ErrnoException).code ?? (err as Error).message})`);
+            }
+          }
+        } else visit(v, p);
+      }
+    }
+  };
+  visit(doc, "");
+  return files;
+}
+
+/** "line L, column C (…message…)" for a JSON.parse error. */
+function jsonErrorWhere(text: string, err: Error): string {
+  const m = /position (\d+)/.exec(err.message);
+  if (m === null) return err.message;
+  const pos = Number(m[1]);
+  const before = text.slice(0, pos);
+  const line = before.split("\n").length;
+  const col = pos - before.lastIndexOf("\n");
+  return `line ${line}, column ${col} (${err.message})`;
+}
+
+/** Canonical text of a combination's study (what its hash covers, without file contents). */
+export function canonicalStudyText(study: Study): string {
+  return canonicalJson(study);
+}

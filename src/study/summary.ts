@@ -1,0 +1,70 @@
+import type { LoadedStudy } from "./load.js";
+import type { RaysPlan } from "./studyTypes.js";
+
+/** Size of a study's work, for `check` and progress estimates. */
+export interface StudySummary {
+  name: string;
+  hash: string;
+  combos: { label: string; values: Record<string, number> }[];
+  nTheta: number;
+  nPhi: number;
+  phiMode: string;
+  nWavelength: number;
+  pointsPerCombo: number;
+  points: number;
+  rays: RaysPlan;
+  /** Batches (tasks) and rays: exact in fixed mode, the minimum and maximum in target-error mode. */
+  tasksMin: number;
+  tasksMax: number;
+  raysMin: number;
+  raysMax: number;
+}
+
+export function summarizeStudy(s: LoadedStudy): StudySummary {
+  const st = s.combos[0].study;
+  const g = st.grid;
+  const pointsPerCombo = g.thetaDeg.length * g.phiDeg.length * g.wavelengthNm.length;
+  const points = pointsPerCombo * s.combos.length;
+  const r = st.rays;
+  const perMin = r.mode === "fixed" ? r.perPoint : Math.min(r.maxPerPoint, Math.ceil(r.minPerPoint / r.batch) * r.batch);
+  const perMax = r.mode === "fixed" ? r.perPoint : r.maxPerPoint;
+  return {
+    name: s.name,
+    hash: s.hash,
+    combos: s.combos.map((c) => ({ label: c.label, values: c.values })),
+    nTheta: g.thetaDeg.length,
+    nPhi: g.phiDeg.length,
+    phiMode: g.phiMode,
+    nWavelength: g.wavelengthNm.length,
+    pointsPerCombo,
+    points,
+    rays: r,
+    tasksMin: points * Math.ceil(perMin / r.batch),
+    tasksMax: points * Math.ceil(perMax / r.batch),
+    raysMin: points * perMin,
+    raysMax: points * perMax,
+  };
+}
+
+/** Human-readable lines of a summary. */
+export function formatStudySummary(s: LoadedStudy, sum: StudySummary): string[] {
+  const g = s.combos[0].study.grid;
+  const range = (v: number[], unit: string): string => (v.length === 1 ? `${v[0]}${unit}` : `${v[0]}–${v[v.length - 1]}${unit}`);
+  const lines = [
+    `study      ${sum.name}`,
+    `hash       ${sum.hash.slice(0, 16)}`,
+    `grid       θ ${sum.nTheta} (${range(g.thetaDeg, "°")}) × φ ${sum.phiMode === "averaged" ? "averaged" : `${sum.nPhi} (${range(g.phiDeg, "°")}${sum.phiMode === "square" ? ", square-folded" : ""})`} × λ ${sum.nWavelength} (${range(g.wavelengthNm, " nm")}) = ${sum.pointsPerCombo} points`,
+  ];
+  if (sum.combos.length > 1) {
+    lines.push(`combos     ${sum.combos.length}: ${Object.entries(s.sweep).map(([k, v]) => `${k} ∈ {${v.join(", ")}}`).join(" × ")}`);
+  }
+  const r = sum.rays;
+  if (r.mode === "fixed") {
+    lines.push(`rays       ${r.perPoint} per point in batches of ${r.batch}`);
+    lines.push(`work       ${sum.points} points, ${sum.tasksMin} tasks, ${sum.raysMin.toExponential(3)} rays`);
+  } else {
+    lines.push(`rays       until SE(${r.channels.join(", ")}) < ${r.targetStdErr}, ${r.minPerPoint}–${r.maxPerPoint} per point in batches of ${r.batch}`);
+    lines.push(`work       ${sum.points} points, ${sum.tasksMin}–${sum.tasksMax} tasks, ${sum.raysMin.toExponential(3)}–${sum.raysMax.toExponential(3)} rays`);
+  }
+  return lines;
+}

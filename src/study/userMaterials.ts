@@ -1,0 +1,8 @@
+import { MaterialRegistry, registerStudyMaterials } from "../materials/registry.js";
+
+/** The builtin catalogue plus a study's own material entries (file paths relative to baseDir). */
+export function buildMaterialRegistry(materialSpecs: unknown[], baseDir: string): MaterialRegistry {
+  const registry = MaterialRegistry.withBuiltins();
+  registerStudyMaterials(registry, materialSpecs, baseDir, "materials");
+  return registry;
+}
