@@ -206,6 +206,20 @@ export function builtinMaterials(): CatalogMaterial[] {
       265.2,
       5577,
     ),
+    // Malitson & Dodge 1972 sapphire (ordinary ray): B = 1.4313493, 0.65054713, 5.3414021; C = 0.0726631, 0.1193242, 18.028251 µm.
+    sellmeier(
+      {
+        name: "Al2O3-sapphire-MalitsonDodge1972",
+        description: "synthetic sapphire, ordinary ray, 20 °C, Sellmeier formula, lossless (k = 0)",
+        source:
+          "I. H. Malitson, M. J. Dodge, J. Opt. Soc. Am. 62, 1405 (1972) (abstract); formula: M. J. Dodge, Handbook of Laser Science and Technology, Vol. IV, Part 2, CRC Press (1986), p. 30",
+        shortSource: "Malitson & Dodge 1972",
+      },
+      [1.4313493, 0.65054713, 5.3414021],
+      [0.0726631, 0.1193242, 18.028251],
+      200,
+      5000,
+    ),
     table(
       {
         name: "Ag-JohnsonChristy1972",
@@ -225,6 +239,16 @@ export function builtinMaterials(): CatalogMaterial[] {
         shortSource: "Jiang 2016",
       },
       "ag_jiang2016.csv",
+    ),
+    table(
+      {
+        name: "Ag-Ciesielski2017",
+        description: "silver, 20 nm film on SiO2 (no data between 1347.8 and 1441.9 nm: interpolated across)",
+        source:
+          "A. Ciesielski, L. Skowronski, M. Trzinski (spelling as in the data file), T. Szoplik, Controlling the optical parameters of self-assembled silver films with wetting layers and annealing, Appl. Surf. Sci. 421B, 349-356 (2017), doi:10.1016/j.apsusc.2017.01.039",
+        shortSource: "Ciesielski 2017",
+      },
+      "ag_ciesielski2017.csv",
     ),
     table(
       {
