@@ -15,6 +15,10 @@ export interface AxisSpec {
   ticks?: number[];
   /** Start a linear axis at zero even when all data are positive. */
   includeZero?: boolean;
+  /** Use the data extent as it is (no widening to nice values). */
+  tight?: boolean;
+  /** Extra room above the data, as a fraction of the span (for labels over the highest point). */
+  headroom?: number;
 }
 
 export interface LegendItem {
@@ -56,7 +60,7 @@ export interface Chart {
 const TICK_FONT = 12;
 const LABEL_FONT = 13;
 const TITLE_FONT = 15;
-const MAX_LEGEND_CHARS = 30;
+const MAX_LEGEND_CHARS = 36;
 
 function legendLabel(label: string): string {
   return label.length > MAX_LEGEND_CHARS ? `${label.slice(0, MAX_LEGEND_CHARS - 1)}…` : label;
@@ -78,7 +82,8 @@ function numericScale(axis: AxisSpec, extent: [number, number], range: [number, 
     lo = Math.min(lo, 0);
     hi = Math.max(hi, 0);
   }
-  const d = axis.domain ?? niceDomain(lo, hi);
+  if (axis.headroom) hi += axis.headroom * (hi - lo || Math.abs(hi) || 1);
+  const d = axis.domain ?? (axis.tight && hi > lo ? ([lo, hi] as [number, number]) : niceDomain(lo, hi));
   return linearScale(d, range);
 }
 
@@ -172,7 +177,8 @@ function legend(c: Chart): string {
   items.forEach((item, i) => {
     const y = c.top + 8 + i * 20;
     if (item.shape === "box") out += el("rect", { x: x0, y: y - 6, width: 18, height: 12, fill: item.colour, stroke: INK, "stroke-width": 0.5 });
-    else if (item.shape === "marker") out += el("circle", { cx: x0 + 9, cy: y, r: 4.5, fill: item.colour, stroke: "#fff", "stroke-width": 1 });
+    else if (item.shape === "marker")
+      out += el("line", { x1: x0, y1: y, x2: x0 + 18, y2: y, stroke: item.colour, "stroke-width": 2 }) + el("circle", { cx: x0 + 9, cy: y, r: 4, fill: item.colour, stroke: "#fff", "stroke-width": 1 });
     else out += el("line", { x1: x0, y1: y, x2: x0 + 18, y2: y, stroke: item.colour, "stroke-width": 2.5, "stroke-dasharray": item.shape === "dashed" ? "6 4" : undefined });
     out += el("text", { x: x0 + 25, y: y + 4, "font-size": TICK_FONT, fill: INK }, `${el("title", {}, escapeText(item.label))}${escapeText(legendLabel(item.label))}`);
   });
@@ -193,9 +199,14 @@ export function renderChart(c: Chart, body: string, overlay = ""): string {
   const head =
     el("title", {}, escapeText(spec.title)) +
     el("defs", {}, el("clipPath", { id: clipId(c) }, el("rect", { x: c.left, y: c.top, width: c.right - c.left, height: c.bottom - c.top })));
+  // approximate glyph widths of the title (15 px bold) and subtitle (12 px) fonts
+  const fit = (t: string, pxPerChar: number) => {
+    const max = Math.floor((c.width - c.left - 8) / pxPerChar);
+    return t.length > max ? `${t.slice(0, Math.max(1, max - 1))}…` : t;
+  };
   const titles =
-    text(c.left, 24, spec.title, { "font-size": TITLE_FONT, "font-weight": "bold", fill: INK, class: "plot-title" }) +
-    (spec.subtitle ? text(c.left, 43, spec.subtitle, { "font-size": TICK_FONT, fill: INK_SOFT }) : "");
+    text(c.left, 24, fit(spec.title, 9), { "font-size": TITLE_FONT, "font-weight": "bold", fill: INK, class: "plot-title" }) +
+    (spec.subtitle ? text(c.left, 43, fit(spec.subtitle, 6.9), { "font-size": TICK_FONT, fill: INK_SOFT }) : "");
   return el(
     "svg",
     {

@@ -12,6 +12,8 @@ export interface HeatMapSpec extends Omit<ChartSpec, "legend" | "extraRight"> {
   zLabel: string;
   /** Colour-bar range; default: data extent widened to nice values. */
   zDomain?: [number, number];
+  /** Clamp the outer cell edges of y (e.g. [0, 90] for incidence angles). */
+  yLimits?: [number, number];
 }
 
 /** Cell edges: midpoints between grid values, half a step beyond the ends. */
@@ -39,6 +41,10 @@ export function heatMap(spec: HeatMapSpec): string {
   const ny = spec.yValues.length;
   const ex = cellEdges(spec.xValues);
   const ey = cellEdges(spec.yValues);
+  if (spec.yLimits && ny > 0) {
+    ey[0] = Math.max(spec.yLimits[0], ey[0]!);
+    ey[ny] = Math.min(spec.yLimits[1], ey[ny]!);
+  }
   let zMin = Infinity;
   let zMax = -Infinity;
   for (let i = 0; i < nx * ny; i++) {

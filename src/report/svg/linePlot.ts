@@ -83,14 +83,15 @@ export function linePlot(spec: LinePlotSpec): string {
     const cy = chart.y(m.y);
     if (!Number.isFinite(cx) || !Number.isFinite(cy)) continue;
     const colour = m.colour ?? INK;
-    const anchorEnd = cx > (chart.left + chart.right) / 2;
-    const ty = Math.max(chart.top + 12, cy - 12);
+    // label centred above the mark (a best point is a maximum: the curve is below it)
+    const ty = cy - 13 < chart.top + 4 ? cy + 22 : cy - 13;
+    const tx = Math.min(chart.right - 30, Math.max(chart.left + 30, cx));
     overlay += el(
       "g",
       { class: "mark" },
       el("circle", { cx, cy, r: 7, fill: "none", stroke: colour, "stroke-width": 2 }) +
         el("circle", { cx, cy, r: 2.5, fill: colour }) +
-        text(anchorEnd ? cx - 10 : cx + 10, ty, m.label, { "font-size": 12, "font-weight": "bold", fill: colour, "text-anchor": anchorEnd ? "end" : "start" }),
+        text(tx, ty, m.label, { "font-size": 12, "font-weight": "bold", fill: colour, "text-anchor": "middle", stroke: "#FFFFFF", "stroke-width": 3, "paint-order": "stroke" }),
     );
   }
   return renderChart(chart, body, overlay);

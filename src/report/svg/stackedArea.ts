@@ -34,7 +34,7 @@ export function stackedArea(spec: StackedAreaSpec): string {
     xMin = Math.min(xMin, spec.xValues[i]!);
     xMax = Math.max(xMax, spec.xValues[i]!);
   }
-  const chart = layoutChart({ ...spec, legend }, n ? [xMin, xMax] : [0, 1], [0, Math.max(top, 1e-12)]);
+  const chart = layoutChart({ ...spec, legend, x: { tight: true, ...spec.x } }, n ? [xMin, xMax] : [0, 1], [0, Math.max(top, 1e-12)]);
   let body = "";
   spec.layers.forEach((layer, k) => {
     const lo = bounds[k]!;

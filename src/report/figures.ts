@@ -1,0 +1,229 @@
+/** Builds every plot of the report from its typed inputs (pure: strings of SVG). */
+import { CH_ABSORBER } from "../response/responseMatrix.js";
+import { channelGroup, channelLabel } from "./channels.js";
+import type { ConvergenceSeries, StackEntry, TiltSweep, YieldEntry } from "./inputs.js";
+import { channelMap, channelSpectra, thetaIndex } from "./spectralBreakdown.js";
+import { barChart } from "./svg/barChart.js";
+import { heatMap } from "./svg/heatMap.js";
+import { linePlot, type LineSeries, type PointMark } from "./svg/linePlot.js";
+import { CHANNEL_COLOURS, INK_SOFT, parasiticColour, seriesColour } from "./svg/palette.js";
+import { stackedArea, type AreaLayer } from "./svg/stackedArea.js";
+
+export interface Figure {
+  /** File-safe id: the SVG is written as <id>.svg. */
+  id: string;
+  title: string;
+  svg: string;
+}
+
+/** Lower-case ASCII slug for file names (user text never reaches a path unfiltered). */
+export function slug(text: string): string {
+  const s = text.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 40);
+  return s || "x";
+}
+
+export function stackId(stack: StackEntry, index: number): string {
+  return `${index + 1}-${slug(stack.label)}`;
+}
+
+/** Where the light goes vs wavelength at one incidence angle (stacked, bottom: absorber). */
+export function spectralFigure(stack: StackEntry, index: number, angleDeg: number): Figure {
+  const m = stack.matrix;
+  const it = thetaIndex(m, angleDeg, stack.matrixPath);
+  const spectra = channelSpectra(m, it);
+  const layers: AreaLayer[] = [];
+  const add = (ic: number, colour: string) => layers.push({ label: channelLabel(m.channels[ic]!), values: spectra[ic]!, colour });
+  const order: { group: string; ic: number }[] = m.channels.map((c, ic) => ({ group: channelGroup(c), ic }));
+  // bottom-up: absorber, parasitic absorbers (in channel order), unresolved, rear escape, front reflection
+  for (const o of order) if (o.group === "absorber") add(o.ic, CHANNEL_COLOURS.absorber);
+  let k = 0;
+  for (const o of order) if (o.group === "parasitic") add(o.ic, parasiticColour(k++));
+  for (const o of order) if (o.group === "unresolved") add(o.ic, CHANNEL_COLOURS.unresolved);
+  for (const o of order) if (o.group === "rearEscape") add(o.ic, CHANNEL_COLOURS.rearEscape);
+  for (const o of order) if (o.group === "frontReflection") add(o.ic, CHANNEL_COLOURS.frontReflection);
+  const id = `spectral-${stackId(stack, index)}`;
+  const title = `Where the light goes at θ = ${angleDeg}°`;
+  const phiNote = m.phiMode === "averaged" ? "azimuth-averaged" : `mean over φ = ${m.phiDeg.join(", ")}°`;
+  return {
+    id,
+    title,
+    svg: stackedArea({
+      id,
+      title,
+      subtitle: `${stack.label} · ${phiNote}`,
+      width: 660,
+      x: { label: "wavelength (nm)" },
+      y: { label: "fraction of incident power", domain: [0, 1] },
+      xValues: m.wavelengthNm,
+      layers,
+    }),
+  };
+}
+
+/** θ × λ map of absorber absorptance. */
+export function responseMapFigure(stack: StackEntry, index: number): Figure {
+  const m = stack.matrix;
+  const id = `response-map-${stackId(stack, index)}`;
+  const title = "Absorber absorptance over angle and wavelength";
+  return {
+    id,
+    title,
+    svg: heatMap({
+      id,
+      title,
+      subtitle: `${stack.label} · ${m.phiMode === "averaged" ? "azimuth-averaged" : `mean over φ = ${m.phiDeg.join(", ")}°`}`,
+      width: 560,
+      height: 380,
+      x: { label: "wavelength (nm)" },
+      y: { label: "incidence angle θ (°)" },
+      xValues: m.wavelengthNm,
+      yValues: m.thetaDeg,
+      z: channelMap(m, CH_ABSORBER),
+      zLabel: "absorber absorptance",
+      zDomain: [0, 1],
+      yLimits: [0, 90],
+    }),
+  };
+}
+
+/** Angular modifier J(θ)/J(0) of every stack that has a photocurrent summary; null when none has. */
+export function iamFigure(stacks: StackEntry[]): Figure | null {
+  const series: LineSeries[] = [];
+  stacks.forEach((s, i) => {
+    const iam = s.photocurrent?.iam;
+    if (!iam || iam.thetaDeg.length === 0) return;
+    series.push({ label: s.label, x: iam.thetaDeg, y: iam.modifier, yErr: iam.stderr, markers: true, colour: seriesColour(i) });
+  });
+  if (series.length === 0) return null;
+  const id = "angular-modifier";
+  const title = "Angular modifier of the absorber photocurrent";
+  return {
+    id,
+    title,
+    svg: linePlot({
+      id,
+      title,
+      subtitle: "J(θ) / J(0); whiskers ±1 standard error",
+      width: 560,
+      height: 380,
+      x: { label: "incidence angle θ (°)", domain: [0, 90], ticks: [0, 15, 30, 45, 60, 75, 90] },
+      y: { label: "J(θ) / J(0)", domain: [0, 1.05], ticks: [0, 0.2, 0.4, 0.6, 0.8, 1] },
+      series,
+    }),
+  };
+}
+
+/** Standard error (and deviation from a reference, when present) vs rays, log–log, with 1/√N. */
+export function convergenceFigure(all: ConvergenceSeries[]): Figure | null {
+  const usable = all.filter((c) => c.steps.length > 0);
+  if (usable.length === 0) return null;
+  const sameUnit = usable.every((c) => c.unit === usable[0]!.unit);
+  const scale = (c: ConvergenceSeries, v: number) => (sameUnit ? v : v / Math.abs(c.steps[c.steps.length - 1]!.value || 1));
+  const series: LineSeries[] = [];
+  let guideAnchor: { n: number; e: number } | null = null;
+  let nMin = Infinity;
+  let nMax = 0;
+  const prefix = (c: ConvergenceSeries) => (usable.length > 1 ? `${c.label}: ` : "");
+  usable.forEach((c, i) => {
+    const n = c.steps.map((s) => s.nRays);
+    nMin = Math.min(nMin, ...n);
+    nMax = Math.max(nMax, ...n);
+    const colour = seriesColour(i);
+    const slope = c.slope !== undefined ? `, slope ${c.slope.toFixed(2)}` : "";
+    series.push({ label: `${prefix(c)}standard error${slope}`, x: n, y: c.steps.map((s) => scale(c, s.stderr)), markers: true, colour });
+    if (c.steps.some((s) => s.rmsError !== undefined)) {
+      series.push({ label: `${prefix(c)}RMS error vs reference`, x: n, y: c.steps.map((s) => (s.rmsError === undefined ? NaN : scale(c, s.rmsError))), colour, dashed: true, markers: true });
+    } else if (c.steps.some((s) => s.deviation !== undefined)) {
+      series.push({ label: `${prefix(c)}|deviation from reference|`, x: n, y: c.steps.map((s) => (s.deviation === undefined ? NaN : scale(c, Math.abs(s.deviation)))), colour, dashed: true, markers: true });
+    }
+    if (!guideAnchor) guideAnchor = { n: n[0]!, e: scale(c, c.steps[0]!.stderr) };
+  });
+  const anchor = guideAnchor as { n: number; e: number } | null;
+  if (anchor && anchor.e > 0) {
+    // plain Monte Carlo: standard error ∝ 1/√N (central limit theorem)
+    const xs = [nMin, nMax];
+    series.push({ label: "1/√N guide", x: xs, y: xs.map((n) => anchor.e * Math.sqrt(anchor.n / n)), colour: INK_SOFT, dashed: true });
+  }
+  const id = "convergence";
+  const title = "Monte Carlo convergence";
+  const unit = sameUnit ? usable[0]!.unit : "relative";
+  return {
+    id,
+    title,
+    svg: linePlot({
+      id,
+      title,
+      subtitle: usable.length === 1 ? `${usable[0]!.quantity} — ${usable[0]!.label}` : usable.map((c) => c.quantity).filter((q, i, a) => a.indexOf(q) === i).join("; "),
+      x: { label: "rays per point N", kind: "log" },
+      y: { label: sameUnit ? `error (${unit})` : "relative error", kind: "log" },
+      series,
+    }),
+  };
+}
+
+const MONTHS = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
+
+/** Long names are shortened so the tilt and site stay visible in legends. */
+export function shortName(name: string, max = 22): string {
+  return name.length > max ? `${name.slice(0, max - 1)}…` : name;
+}
+
+export function yieldLabel(y: YieldEntry, all: YieldEntry[], short = false): string {
+  const sites = new Set(all.map((e) => e.siteName));
+  const site = sites.size > 1 ? `, ${short ? shortName(y.siteName, 14) : y.siteName}` : "";
+  return `${short ? shortName(y.stackLabel) : y.stackLabel}, tilt ${y.tiltDeg}°${site}`;
+}
+
+/** Monthly absorbed charge, one bar group per stack × tilt. */
+export function monthlyFigure(yields: YieldEntry[]): Figure | null {
+  const shown = yields.filter((y) => y.monthlyAhM2.length === 12);
+  if (shown.length === 0) return null;
+  const id = "monthly-yield";
+  const title = "Monthly absorbed photon charge";
+  const sites = [...new Set(shown.map((y) => y.siteName))];
+  return {
+    id,
+    title,
+    svg: barChart({
+      id,
+      title,
+      subtitle: `site: ${sites.join(", ")}`,
+      xLabel: "month",
+      y: { label: "charge per area (A·h/m²)" },
+      categories: MONTHS,
+      groups: shown.map((y) => ({ label: yieldLabel(y, shown, true), values: y.monthlyAhM2 })),
+      width: 820,
+    }),
+  };
+}
+
+/** Yearly charge vs tilt, best tilt marked on each curve. */
+export function tiltFigure(sweeps: TiltSweep[]): Figure | null {
+  const shown = sweeps.filter((s) => s.tiltDeg.length > 1);
+  if (shown.length === 0) return null;
+  const sites = new Set(shown.map((s) => s.siteName));
+  const series: LineSeries[] = shown.map((s, i) => ({
+    label: sites.size > 1 ? `${s.stackLabel}, ${s.siteName}` : s.stackLabel,
+    x: s.tiltDeg,
+    y: s.annualAhM2,
+    markers: true,
+    colour: seriesColour(i),
+  }));
+  const marks: PointMark[] = shown.map((s, i) => ({ x: s.bestTiltDeg, y: s.bestAnnualAhM2, label: `best ${s.bestTiltDeg}°`, colour: seriesColour(i) }));
+  const id = "tilt-sweep";
+  const title = "Yearly absorbed charge vs module tilt";
+  return {
+    id,
+    title,
+    svg: linePlot({
+      id,
+      title,
+      subtitle: `azimuth ${[...new Set(shown.map((s) => s.azimuthDeg))].join(", ")}° (180° = facing south); site: ${[...sites].join(", ")}`,
+      width: 660,
+      x: { label: "tilt (°)", tight: true },
+      y: { label: "yearly charge per area (A·h/m²)", headroom: 0.08 },
+      series,
+      marks,
+    }),
+  };
+}

@@ -1,0 +1,126 @@
+/**
+ * Typed inputs of the report: what the page shows, already read from the run directory and checked.
+ * The page and plots are pure functions of these; `loadRunDir.ts` builds them from files.
+ */
+import type { ResponseMatrix } from "../response/responseMatrix.js";
+
+/** One entry of the loss breakdown in current units. */
+export interface CurrentShare {
+  /** Channel name in the matrix (`R`, `T`, `A_layer:…`, `A_film:…`, `A_rear`, `unresolved`, `A_absorber`). */
+  channel: string;
+  currentMaCm2: number;
+  stderrMaCm2: number;
+}
+
+/** Spectrally weighted photocurrent of one stack at one incidence angle. */
+export interface AnglePhotocurrent {
+  thetaDeg: number;
+  /** Absorber photocurrent (optical Jsc) in mA/cm². */
+  absorberMaCm2: number;
+  absorberStderrMaCm2: number;
+  /** Every channel other than the absorber, as current lost there. */
+  losses: CurrentShare[];
+}
+
+/** Photocurrent summary of one response matrix (from photocurrent.json). */
+export interface PhotocurrentSummary {
+  spectrumName: string;
+  /** Current if every photon in the wavelength range were absorbed, in mA/cm² (when known). */
+  incidentMaCm2?: number;
+  perAngle: AnglePhotocurrent[];
+  /** Angular modifier of the absorber current, J(θ)/J(0). */
+  iam: { thetaDeg: number[]; modifier: number[]; stderr?: number[] };
+}
+
+/** One stack (one sweep combination of one study) in the report. */
+export interface StackEntry {
+  /** Display label, e.g. the study name, plus the combination when the study sweeps parameters. */
+  label: string;
+  studyName: string;
+  /** Combination folder ("base", "p0", …). */
+  comboKey: string;
+  combo: Record<string, number>;
+  /** Path of the matrix file as given (displayed, escaped). */
+  matrixPath: string;
+  matrix: ResponseMatrix;
+  photocurrent?: PhotocurrentSummary;
+}
+
+/** One step of a convergence study. */
+export interface ConvergenceStep {
+  nRays: number;
+  value: number;
+  stderr: number;
+  /** |value − reference| from an independent high-ray run, when one was made. */
+  deviation?: number;
+  /** RMS deviation of independent replicas from the reference, when replicas were run. */
+  rmsError?: number;
+}
+
+export interface ConvergenceSeries {
+  label: string;
+  /** Quantity and unit, e.g. "absorber photocurrent" / "mA/cm²". */
+  quantity: string;
+  unit: string;
+  steps: ConvergenceStep[];
+  /** Fitted log–log slope of stderr vs N (≈ −0.5 for plain Monte Carlo). */
+  slope?: number;
+}
+
+/** Yearly optical yield of one stack at one site, tilt and azimuth. */
+export interface YieldEntry {
+  stackLabel: string;
+  siteName: string;
+  tiltDeg: number;
+  azimuthDeg: number;
+  /** Absorbed photon charge per area per month (12 values), in A·h/m². */
+  monthlyAhM2: number[];
+  annualAhM2: number;
+  /** Plane-of-array insolation in kWh/m² (when known). */
+  poaKwhM2?: number;
+  /** Year-average current relative to normal incidence at the same insolation (angular/spectral loss). */
+  relativeToNormal?: number;
+}
+
+/** Yearly charge over a tilt sweep, with its best tilt. */
+export interface TiltSweep {
+  stackLabel: string;
+  siteName: string;
+  azimuthDeg: number;
+  tiltDeg: number[];
+  annualAhM2: number[];
+  bestTiltDeg: number;
+  bestAnnualAhM2: number;
+}
+
+/** One row of the texture-benefit table: yearly charge of A relative to B. */
+export interface BenefitRow {
+  siteName: string;
+  tiltDeg: number;
+  azimuthDeg: number;
+  stackA: string;
+  stackB: string;
+  annualAhM2A: number;
+  annualAhM2B: number;
+  /** (A − B)/B in %. */
+  benefitPct: number;
+  /** Monte Carlo standard error of benefitPct. */
+  stderrPct: number;
+}
+
+export interface ReportInput {
+  /** Page title (study names joined); escaped. */
+  title: string;
+  /** Run directories as given on the command line (escaped when shown). */
+  runDirs: string[];
+  toolVersion: string;
+  /** Incidence angle of the spectral plot. */
+  angleDeg: number;
+  stacks: StackEntry[];
+  convergence: ConvergenceSeries[];
+  yields: YieldEntry[];
+  tiltSweeps: TiltSweep[];
+  benefit: BenefitRow[];
+  /** Remarks about what was read or skipped (e.g. a malformed optional file); shown at the top. */
+  notes: string[];
+}

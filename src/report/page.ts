@@ -1,0 +1,184 @@
+/** The report page: self-contained HTML with inline SVG and CSS. Pure: input → { html, figures }. */
+import { channelGroup, channelLabel } from "./channels.js";
+import { html, escapeText } from "./escape.js";
+import {
+  convergenceFigure,
+  iamFigure,
+  monthlyFigure,
+  responseMapFigure,
+  spectralFigure,
+  tiltFigure,
+  yieldLabel,
+  type Figure,
+} from "./figures.js";
+import type { BenefitRow, ReportInput, StackEntry } from "./inputs.js";
+import { CHANNEL_COLOURS, parasiticColour } from "./svg/palette.js";
+import { REPORT_CSS } from "./style.js";
+
+export interface RenderedReport {
+  html: string;
+  figures: Figure[];
+}
+
+/** At most this many stacks get their own spectral plot and map (a sweep can have hundreds). */
+export const MAX_STACK_SECTIONS = 12;
+
+function fmt(v: number | undefined, digits = 2): string {
+  return v === undefined || !Number.isFinite(v) ? "–" : v.toFixed(digits);
+}
+
+function figureHtml(f: Figure): string {
+  const width = /^<svg[^>]* width="(\d+(?:\.\d+)?)"/.exec(f.svg)?.[1] ?? "720";
+  return `<figure data-figure="${escapeText(f.id)}" style="width:${width}px">${f.svg}<figcaption>${html`${f.title} — `}<a href="${escapeText(f.id)}.svg">${escapeText(f.id)}.svg</a></figcaption></figure>`;
+}
+
+function note(text: string): string {
+  return html`<p class="note">${text}</p>`;
+}
+
+function swatchColour(stack: StackEntry, channel: string): string {
+  const g = channelGroup(channel);
+  if (g === "absorber") return CHANNEL_COLOURS.absorber;
+  if (g === "frontReflection") return CHANNEL_COLOURS.frontReflection;
+  if (g === "rearEscape") return CHANNEL_COLOURS.rearEscape;
+  if (g === "unresolved") return CHANNEL_COLOURS.unresolved;
+  const parasitic = stack.matrix.channels.filter((c) => channelGroup(c) === "parasitic");
+  return parasiticColour(Math.max(0, parasitic.indexOf(channel)));
+}
+
+/** Photocurrent and loss breakdown (mA/cm²) of one stack at the chosen angle. */
+function breakdownTable(stack: StackEntry, angleDeg: number): string {
+  const pc = stack.photocurrent;
+  if (!pc) return note("No photocurrent summary for this stack (photocurrent.json missing), so no breakdown in mA/cm².");
+  const at = pc.perAngle.find((a) => Math.abs(a.thetaDeg - angleDeg) < 1e-6);
+  if (!at) return note(`The photocurrent summary has no entry at θ = ${angleDeg}°.`);
+  const rows = [{ channel: "A_absorber", currentMaCm2: at.absorberMaCm2, stderrMaCm2: at.absorberStderrMaCm2 }, ...at.losses];
+  const total = rows.reduce((s, r) => s + r.currentMaCm2, 0);
+  let body = "";
+  for (const r of rows) {
+    const share = total > 0 ? (100 * r.currentMaCm2) / total : NaN;
+    body += `<tr><td class="text"><span class="swatch" style="background:${swatchColour(stack, r.channel)}"></span>${escapeText(channelLabel(r.channel))}</td><td>${fmt(r.currentMaCm2)}</td><td>${fmt(r.stderrMaCm2, 3)}</td><td>${fmt(share, 1)}</td></tr>`;
+  }
+  body += `<tr class="total"><td class="text">total${pc.incidentMaCm2 !== undefined ? html` (incident ${fmt(pc.incidentMaCm2)})` : ""}</td><td>${fmt(total)}</td><td></td><td>100.0</td></tr>`;
+  return `<table class="breakdown" data-stack="${escapeText(stack.label)}"><caption>${html`Photocurrent at θ = ${angleDeg}°, ${pc.spectrumName}`}</caption><thead><tr><th class="text">where the photons go</th><th>mA/cm²</th><th>± s.e.</th><th>%</th></tr></thead><tbody>${body}</tbody></table>`;
+}
+
+function summaryTable(input: ReportInput): string {
+  let body = "";
+  for (const s of input.stacks) {
+    const m = s.matrix;
+    const pc = s.photocurrent;
+    const j0 = pc?.perAngle.find((a) => Math.abs(a.thetaDeg) < 1e-6);
+    const ja = pc?.perAngle.find((a) => Math.abs(a.thetaDeg - input.angleDeg) < 1e-6);
+    const rays = m.nRays.length ? m.nRays.reduce((a, b) => a + b, 0) : 0;
+    body += html`<tr><td class="text">${s.label}</td><td class="text"><code>${s.matrixPath}</code></td><td>${m.thetaDeg.length} × ${m.phiDeg.length} × ${m.wavelengthNm.length}</td><td>${rays.toExponential(2)}</td>`;
+    body += `<td>${j0 ? `${fmt(j0.absorberMaCm2)} ± ${fmt(j0.absorberStderrMaCm2, 3)}` : "–"}</td>`;
+    body += input.angleDeg !== 0 ? `<td>${ja ? `${fmt(ja.absorberMaCm2)} ± ${fmt(ja.absorberStderrMaCm2, 3)}` : "–"}</td>` : "";
+    body += "</tr>";
+  }
+  const angleHead = input.angleDeg !== 0 ? html`<th>J at ${input.angleDeg}° (mA/cm²)</th>` : "";
+  return `<table class="summary"><thead><tr><th class="text">stack</th><th class="text">matrix file</th><th>θ × φ × λ points</th><th>rays traced</th><th>J at 0° (mA/cm²)</th>${angleHead}</tr></thead><tbody>${body}</tbody></table>`;
+}
+
+function benefitTable(rows: BenefitRow[]): string {
+  let body = "";
+  for (const r of rows) {
+    body += html`<tr><td class="text">${r.siteName}</td><td>${fmt(r.tiltDeg, 0)}</td><td>${fmt(r.azimuthDeg, 0)}</td><td class="text">${r.stackA}</td><td class="text">${r.stackB}</td><td>${fmt(r.annualAhM2A, 1)}</td><td>${fmt(r.annualAhM2B, 1)}</td>`;
+    body += `<td><strong>${r.benefitPct >= 0 ? "+" : ""}${fmt(r.benefitPct)}</strong></td><td>${fmt(r.stderrPct, 2)}</td></tr>`;
+  }
+  return `<table class="benefit"><thead><tr><th class="text">site</th><th>tilt (°)</th><th>azimuth (°)</th><th class="text">stack A</th><th class="text">stack B</th><th>A (A·h/m²)</th><th>B (A·h/m²)</th><th>A vs B (%)</th><th>± s.e. (%)</th></tr></thead><tbody>${body}</tbody></table>`;
+}
+
+function yieldTable(input: ReportInput): string {
+  let body = "";
+  for (const y of input.yields) {
+    body += html`<tr><td class="text">${yieldLabel(y, input.yields)}</td><td>${fmt(y.annualAhM2, 1)}</td><td>${fmt(y.poaKwhM2, 0)}</td><td>${fmt(y.relativeToNormal === undefined ? undefined : 100 * y.relativeToNormal, 1)}</td></tr>`;
+  }
+  return `<table class="yield"><thead><tr><th class="text">stack, tilt</th><th>year (A·h/m²)</th><th>plane-of-array (kWh/m²)</th><th>vs normal incidence (%)</th></tr></thead><tbody>${body}</tbody></table>`;
+}
+
+/** Renders the whole page and returns it with the figures (each also written as its own SVG). */
+export function renderReport(input: ReportInput): RenderedReport {
+  const figures: Figure[] = [];
+  const use = (f: Figure) => {
+    figures.push(f);
+    return figureHtml(f);
+  };
+  let sections = "";
+
+  // Overview
+  sections += `<section id="overview"><h2>Stacks</h2>`;
+  for (const n of input.notes) sections += note(n);
+  sections += input.stacks.length ? summaryTable(input) : note("No response matrix was found in the run directory.");
+  sections += `</section>`;
+
+  // Where the light goes
+  sections += `<section id="spectral"><h2>Where the light goes</h2>`;
+  sections += html`<p class="lead">Fraction of the incident power reflected at the front, absorbed in the absorber and in each parasitic layer, and escaping at the rear, vs wavelength at θ = ${input.angleDeg}°; the table weights the same channels with the spectrum.</p>`;
+  const shown = input.stacks.slice(0, MAX_STACK_SECTIONS);
+  if (shown.length === 0) sections += note("Omitted: no response matrix.");
+  shown.forEach((s, i) => {
+    sections += html`<h3>${s.label}</h3>`;
+    sections += `<div class="row">${use(spectralFigure(s, i, input.angleDeg))}${breakdownTable(s, input.angleDeg)}</div>`;
+  });
+  if (input.stacks.length > shown.length) sections += note(`Only the first ${MAX_STACK_SECTIONS} of ${input.stacks.length} stacks are plotted.`);
+  sections += `</section>`;
+
+  // Angular response
+  sections += `<section id="angular"><h2>Angular response</h2>`;
+  sections += `<p class="lead">Absorber absorptance over incidence angle and wavelength, and the angular modifier of the absorber photocurrent.</p>`;
+  sections += `<div class="row">`;
+  shown.forEach((s, i) => {
+    sections += use(responseMapFigure(s, i));
+  });
+  const iam = iamFigure(input.stacks.slice(0, MAX_STACK_SECTIONS));
+  sections += iam ? use(iam) : note("Angular modifier omitted: no photocurrent summary (photocurrent.json) in the run.");
+  sections += `</div>`;
+  sections += `</section>`;
+
+  // Convergence
+  sections += `<section id="convergence"><h2>Monte Carlo convergence</h2>`;
+  const conv = convergenceFigure(input.convergence);
+  if (conv) {
+    sections += `<p class="lead">Standard error of the estimate (and, dashed, its deviation from an independent high-ray reference) vs rays per point; plain Monte Carlo follows the 1/√N guide.</p>`;
+    sections += use(conv);
+  } else sections += note("Omitted: no convergence.json in the run (made by the convergence command).");
+  sections += `</section>`;
+
+  // Yield
+  sections += `<section id="yield"><h2>Yearly optical yield</h2>`;
+  const monthly = monthlyFigure(input.yields);
+  const tilt = tiltFigure(input.tiltSweeps);
+  if (!monthly && !tilt && input.yields.length === 0) sections += note("Omitted: no yield results in the run (yield/*.json).");
+  if (input.yields.length) sections += yieldTable(input);
+  sections += `<div class="row">`;
+  if (monthly) sections += use(monthly);
+  if (tilt) sections += use(tilt);
+  sections += `</div>`;
+  if (!tilt && input.yields.length) sections += note("Tilt sweep omitted: no yield result covers more than one tilt.");
+  sections += `</section>`;
+
+  // Texture benefit
+  sections += `<section id="benefit"><h2>Texture benefit</h2>`;
+  if (input.benefit.length) {
+    sections += `<p class="lead">Yearly absorbed charge of stack A relative to stack B, with the Monte Carlo standard error of the difference propagated from both matrices.</p>`;
+    sections += benefitTable(input.benefit);
+  } else sections += note("Omitted: no comparison in the run (yield/compare*.json).");
+  sections += `</section>`;
+
+  const page = `<!DOCTYPE html>
+<html lang="en"><head><meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<meta http-equiv="Content-Security-Policy" content="default-src 'none'; style-src 'unsafe-inline'; img-src data:">
+<title>${html`lightfold report — ${input.title}`}</title>
+<style>${REPORT_CSS}</style></head>
+<body>
+<header><h1>${html`lightfold report — ${input.title}`}</h1>
+${input.runDirs.map((d) => html`<p>run directory: <code>${d}</code></p>`).join("")}
+<p>${html`lightfold ${input.toolVersion}; optical estimates only (not an electrical or bankable energy yield).`}</p></header>
+<main>${sections}
+<footer>${html`Made by lightfold ${input.toolVersion}. Every plot is also saved as an SVG file next to this page.`}</footer>
+</main></body></html>
+`;
+  return { html: page, figures };
+}
