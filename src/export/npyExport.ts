@@ -54,7 +54,7 @@ export function matrixToNpy(m: ResponseMatrix, prefix: string): NpyExport {
   });
   const arrays = {
     mean: entry("mean", dims4, [nT, nP, nL, nC], "mean fraction of incident power per channel"),
-    stderr: entry("stderr", dims4, [nT, nP, nL, nC], "Monte Carlo standard error of mean"),
+    stderr: entry("stderr", dims4, [nT, nP, nL, nC], "Monte Carlo standard error of the mean"),
     nRays: entry("nrays", dims3, [nT, nP, nL], "rays traced per point"),
     pathRatio: entry("path_ratio", dims3, [nT, nP, nL], "mean optical path in the absorber / absorber thickness"),
   };

@@ -2,6 +2,7 @@ import { basename, dirname, join } from "node:path";
 import type { ResponseMatrix } from "../response/responseMatrix.js";
 import { writeFileAtomic } from "../util/atomicWrite.js";
 import { InputError } from "../util/errors.js";
+import { compactJson } from "./compactJson.js";
 import { matrixToCsv } from "./csvExport.js";
 import { matrixToExportJson } from "./jsonExport.js";
 import { matrixToNpy } from "./npyExport.js";
@@ -51,7 +52,7 @@ export function writeExport(m: ResponseMatrix, format: ExportFormat, outPath: st
     throw new InputError(`--out: for --format npy give the sidecar path ending in ".json" (e.g. matrix.npy.json), got "${outPath}"`);
   }
   const { sidecar, files } = matrixToNpy(m, prefix);
-  const sidecarText = JSON.stringify(sidecar, null, 2) + "\n";
+  const sidecarText = compactJson(sidecar);
   const written: string[] = [];
   for (const [name, bytes] of files) {
     const p = join(dir, name);
