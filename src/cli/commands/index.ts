@@ -1,4 +1,7 @@
 import type { Command } from "commander";
+import * as checkCmd from "./check.js";
+import * as sweepCmd from "./sweep.js";
+import * as mergeCmd from "./merge.js";
 import * as exportCmd from "./export.js";
 import * as spectralCmd from "./spectral.js";
 import * as materialsCmd from "./materials.js";
@@ -11,4 +14,4 @@ export interface CommandModule {
 }
 
 // Each verb's module is listed here once; order = order in `lightfold --help`.
-export const commandModules: CommandModule[] = [materialsCmd, exportCmd, spectralCmd, clusterCmd, reportCmd];
+export const commandModules: CommandModule[] = [checkCmd, sweepCmd, mergeCmd, materialsCmd, exportCmd, spectralCmd, clusterCmd, reportCmd];

@@ -1,0 +1,127 @@
+import { basename, join } from "node:path";
+import type { Command } from "commander";
+import { loadStudy, withOverrides } from "../../study/load.js";
+import { InputError } from "../../util/errors.js";
+import { createProgressReporter } from "../../sweep/progressReporter.js";
+import { runSweep } from "../../sweep/runSweep.js";
+import { resolveShard } from "../../sweep/shardSource.js";
+import { journalPath } from "../../sweep/sweepPaths.js";
+import { existsSync } from "node:fs";
+
+interface SweepFlags {
+  out?: string;
+  workers?: string;
+  resume?: boolean;
+  fresh?: boolean;
+  shard?: string;
+  quiet?: boolean;
+  json?: boolean;
+  targetError?: string;
+  channels?: string;
+  maxRays?: string;
+}
+
+/** Default run directory: runs/<study file name without .study.json>. */
+export function defaultOutDir(studyPath: string): string {
+  return join("runs", basename(studyPath).replace(/\.study\.json$|\.json$/, ""));
+}
+
+function positiveInt(text: string, flag: string): number {
+  const n = Number(text);
+  if (!Number.isInteger(n) || n < 1) throw new InputError(`${flag}: expected a positive integer, got ${JSON.stringify(text)}`);
+  return n;
+}
+
+export function register(program: Command): void {
+  program
+    .command("sweep")
+    .description("trace a study's grid on a worker-thread pool into response matrices (journaled, resumable, shardable)")
+    .argument("<study>", "study file (JSON)")
+    .option("--out <dir>", "run directory (default: runs/<study name>)")
+    .option("--workers <n>", "worker threads (default: SLURM_CPUS_PER_TASK when set, else all available cores)")
+    .option("--resume", "resume from the run directory's journal (also automatic when the journal matches the study)")
+    .option("--fresh", "set an existing journal aside and start again")
+    .option("--shard <K/N>", "run shard K of N (default: from SLURM_ARRAY_TASK_ID/SLURM_ARRAY_TASK_COUNT inside a Slurm array)")
+    .option("--target-error <se>", "per point, add batches until the standard error of each --channels entry is below <se>")
+    .option("--channels <list>", "channels for --target-error, comma-separated (default: A_absorber)")
+    .option("--max-rays <n>", "most rays per point with --target-error (default: 200000)")
+    .option("--quiet", "no progress output")
+    .option("--json", "print the final summary as JSON")
+    .addHelpText(
+      "after",
+      `
+Examples:
+  lightfold sweep configs/demo-random-pyramids.study.json
+  lightfold sweep configs/bench-pyramids.study.json --out runs/bench --workers 8
+  lightfold sweep my.study.json --out /scratch/run1 --shard 3/16     then: lightfold merge /scratch/run1 --out /scratch/run1/merged
+  lightfold sweep my.study.json --target-error 0.002 --channels A_absorber,R
+
+Interrupted runs (Ctrl-C, kill -9, a pre-empted job) resume from <out>/journal.jsonl when started again
+with the same study; a changed study sets the old journal aside and starts afresh.`,
+    )
+    .action(async (studyPath: string, flags: SweepFlags) => {
+      let study = loadStudy(studyPath);
+      if (flags.targetError !== undefined) {
+        const se = Number(flags.targetError);
+        if (!(se > 0 && se < 0.5)) throw new InputError(`--target-error: expected a standard error in (0, 0.5), got ${JSON.stringify(flags.targetError)}`);
+        const base = study.combos[0].study.rays;
+        const maxPerPoint = flags.maxRays === undefined ? 200_000 : positiveInt(flags.maxRays, "--max-rays");
+        const channels = (flags.channels ?? (base.mode === "target" ? base.channels.join(",") : "A_absorber")).split(",").map((c) => c.trim()).filter((c) => c !== "");
+        study = withOverrides(study, {
+          rays: { mode: "target", targetStdErr: se, channels, maxPerPoint, minPerPoint: Math.min(2 * base.batch, maxPerPoint), batch: base.batch },
+        });
+      } else if (flags.channels !== undefined || flags.maxRays !== undefined) {
+        throw new InputError("--channels and --max-rays go with --target-error");
+      }
+      const outDir = flags.out ?? defaultOutDir(studyPath);
+      const shard = resolveShard(flags.shard);
+      const workers = flags.workers === undefined ? undefined : positiveInt(flags.workers, "--workers");
+      if (flags.resume === true && flags.fresh === true) throw new InputError("--resume and --fresh exclude each other");
+      const say = (line: string): void => {
+        if (flags.quiet !== true) process.stderr.write(`lightfold sweep: ${line}\n`);
+      };
+      if (flags.resume === true && !existsSync(journalPath(outDir, shard))) say(`no journal in ${outDir} to resume from; starting`);
+      if (shard !== null) say(`shard ${shard.index} of ${shard.count}`);
+      const reporter = createProgressReporter(flags.quiet === true ? "quiet" : "auto");
+      let result;
+      try {
+        result = await runSweep({
+          study,
+          outDir,
+          workers,
+          shard,
+          fresh: flags.fresh === true,
+          onProgress: (p) => reporter.update(p),
+          onNotice: (m) => {
+            // Journal notices are worth seeing even when quiet.
+            process.stderr.write(`lightfold sweep: ${m}\n`);
+          },
+        });
+      } finally {
+        reporter.stop();
+      }
+      const summary = {
+        study: study.name,
+        studyHash: study.hash,
+        outDir,
+        shard,
+        workers: result.workers,
+        wallS: result.wallS,
+        raysTraced: result.raysTraced,
+        raysResumed: result.raysResumed,
+        raysPerS: result.wallS > 0 ? result.raysTraced / result.wallS : 0,
+        damagedJournalLines: result.damagedJournalLines,
+        files: result.files,
+      };
+      if (flags.json === true) {
+        process.stdout.write(JSON.stringify(summary, null, 2) + "\n");
+        return;
+      }
+      const lines = [
+        `${study.name}: ${result.raysTraced.toExponential(3)} rays traced${result.raysResumed > 0 ? ` (+${result.raysResumed.toExponential(3)} from the journal)` : ""} in ${result.wallS.toFixed(1)} s on ${result.workers} worker(s), ${Math.round(summary.raysPerS)} rays/s`,
+        ...result.files.map((f) => `  wrote ${f}`),
+      ];
+      if (shard !== null) lines.push(`  shard ${shard.index}/${shard.count} done; when all shards are done: lightfold merge ${outDir} --out <dir>`);
+      process.stdout.write(lines.join("\n") + "\n");
+    });
+}

@@ -1,0 +1,55 @@
+import type { ComboPlan, SweepPlan } from "../sweep/plan.js";
+import { pointsPerCombo } from "../sweep/plan.js";
+import { channelMean, channelStdErr } from "../sweep/tally.js";
+import { RESPONSE_FORMAT, RESPONSE_FORMAT_VERSION, type ResponseMatrix } from "./responseMatrix.js";
+
+/**
+ * The response matrix of one combination from its merged point tallies (global point order, see
+ * sweep/plan.ts). A missing point (partial result) has nRays 0 and zeros elsewhere.
+ */
+export function matrixFromTallies(
+  plan: SweepPlan,
+  comboIndex: number,
+  tallyOf: (p: number) => Float64Array | undefined,
+  partial: boolean,
+): ResponseMatrix {
+  const combo: ComboPlan = plan.combos[comboIndex];
+  const nCh = combo.channels.length;
+  const nPts = pointsPerCombo(plan.grid);
+  const mean = new Float64Array(nPts * nCh);
+  const stderr = new Float64Array(nPts * nCh);
+  const nRays = new Float64Array(nPts);
+  const pathRatio = new Float64Array(nPts);
+  for (let q = 0; q < nPts; q++) {
+    const t = tallyOf(comboIndex * nPts + q);
+    if (t === undefined) continue;
+    for (let c = 0; c < nCh; c++) {
+      mean[q * nCh + c] = channelMean(t, nCh, c);
+      stderr[q * nCh + c] = channelStdErr(t, nCh, c);
+    }
+    const n = t[2 * nCh];
+    nRays[q] = n;
+    // pathSum is the summed optical path in the absorber in µm per ray.
+    pathRatio[q] = n > 0 ? t[2 * nCh + 1] / n / combo.absorberThicknessUm : 0;
+  }
+  const m: ResponseMatrix = {
+    format: RESPONSE_FORMAT,
+    formatVersion: RESPONSE_FORMAT_VERSION,
+    toolVersion: plan.toolVersion,
+    studyName: plan.studyName,
+    studyHash: combo.hash,
+    seed: plan.seed,
+    combo: { ...combo.values },
+    thetaDeg: [...plan.grid.thetaDeg],
+    phiDeg: [...plan.grid.phiDeg],
+    phiMode: plan.grid.phiMode,
+    wavelengthNm: [...plan.grid.wavelengthNm],
+    channels: [...combo.channels],
+    mean,
+    stderr,
+    nRays,
+    pathRatio,
+  };
+  if (partial) m.partial = true;
+  return m;
+}

@@ -1,0 +1,462 @@
+import { existsSync, mkdirSync } from "node:fs";
+import { dirname } from "node:path";
+import { writeResponseMatrix } from "../response/matrixFile.js";
+import { matrixFromTallies } from "../response/fromTallies.js";
+import type { ResponseMatrix } from "../response/responseMatrix.js";
+import type { LoadedStudy } from "../study/load.js";
+import type { StudyCombo } from "../study/studyTypes.js";
+import { writeFileAtomic } from "../util/atomicWrite.js";
+import { InputError } from "../util/errors.js";
+import { toolVersion } from "../util/version.js";
+import { defaultWorkerCount, TracePool } from "../workers/pool.js";
+import { loadTracer, type TracerModule } from "../workers/tracerModule.js";
+import type { WorkerSetup } from "../workers/traceTask.js";
+import { INPUT_ERROR_TAG, type TraceItem, type TraceMessage } from "../workers/traceTask.js";
+import { comboChannels } from "./channels.js";
+import { JournalWriter, readJournal, setJournalAside, type JournalEntry } from "./journal.js";
+import {
+  batchRays,
+  initialBatches,
+  inShard,
+  plannedBatches,
+  pointCoords,
+  totalPoints,
+  type ShardSpec,
+  type SweepPlan,
+} from "./plan.js";
+import { writeShardPartial } from "./shardFile.js";
+import { journalPath, matrixPath, runJsonPath, shardPartialPath } from "./sweepPaths.js";
+import { sumTallies, tallyLength } from "./tally.js";
+
+export interface SweepProgress {
+  /** Rays in finished batches, including those taken from a journal. */
+  raysDone: number;
+  /** Rays planned so far (grows in target-error mode as points ask for more). */
+  raysPlanned: number;
+  /** Rays traced by this process (for a rate). */
+  raysTracedNow: number;
+  pointsDone: number;
+  pointsTotal: number;
+  elapsedS: number;
+}
+
+export interface SweepOptions {
+  study: LoadedStudy;
+  /** Run directory: journal, matrices, run.json (or the shard's partial). Omit to keep results in memory. */
+  outDir?: string;
+  /** Worker threads (default: Slurm's grant or all cores). Ignored when `pool` is given. */
+  workers?: number;
+  /** An open pool for this study, reused across calls (the caller closes it). */
+  pool?: TracePool;
+  shard?: ShardSpec | null;
+  /** Set an existing matching journal aside instead of resuming from it. */
+  fresh?: boolean;
+  /** Rays per task message (default: chosen from the grid and worker count). */
+  raysPerMessage?: number;
+  /** Sends task messages in an order shuffled with this seed (for tests: order must not matter). */
+  shuffleSeed?: number;
+  onProgress?: (p: SweepProgress) => void;
+  /** Called with each combination's finished matrix (not in a shard run). */
+  onMatrix?: (combo: StudyCombo, m: ResponseMatrix) => void;
+  /** Messages about the journal (resumed, damaged lines, set aside). */
+  onNotice?: (message: string) => void;
+  /** A tracer module file instead of lightfold's own (tests only). */
+  tracerModule?: string;
+}
+
+export interface SweepResult {
+  plan: SweepPlan;
+  /** One per combination; empty for a shard run (merge builds them). */
+  matrices: ResponseMatrix[];
+  /** Merged tally of each point of this run (global point number -> tally). */
+  pointTallies: Map<number, Float64Array>;
+  raysTraced: number;
+  raysResumed: number;
+  /** Journal lines found damaged (their tasks were traced again). */
+  damagedJournalLines: number[];
+  wallS: number;
+  workers: number;
+  /** Files written (run.json, matrices or the shard partial). */
+  files: string[];
+}
+
+interface PointState {
+  planned: number;
+  requested: number;
+  batches: (Float64Array | undefined)[];
+  nDone: number;
+  merged?: Float64Array;
+}
+
+interface QueuedRun {
+  p: number;
+  b0: number;
+  b1: number;
+}
+
+/** The plan of a loaded study: grid, rays, combos with their channel names. */
+export function sweepPlanOf(study: LoadedStudy, tracer: TracerModule): SweepPlan {
+  const first = study.combos[0].study;
+  return {
+    studyName: study.name,
+    studyHash: study.hash,
+    toolVersion: toolVersion(),
+    seed: first.seed,
+    grid: first.grid,
+    rays: first.rays,
+    combos: study.combos.map((c) => ({
+      label: c.label,
+      values: c.values,
+      hash: c.hash,
+      channels: comboChannels(c.study, study.registry, tracer),
+      absorberThicknessUm: c.study.stack.absorber.thicknessUm,
+    })),
+  };
+}
+
+/**
+ * Runs (or resumes) a sweep: every point of every combination (or of one shard), traced in batches
+ * on the worker pool, tallies merged per point in batch order. The result is the same, bit for bit,
+ * for any worker count, message grouping, order, resume or shard split.
+ */
+export async function runSweep(options: SweepOptions): Promise<SweepResult> {
+  const t0 = Date.now();
+  const { study } = options;
+  const shard = options.shard ?? null;
+  const tracer = await loadTracer(options.tracerModule);
+  const plan = sweepPlanOf(study, tracer);
+  const grid = plan.grid;
+  const rays = plan.rays;
+  const notice = options.onNotice ?? (() => {});
+  const nChannelsOf = (combo: number): number => plan.combos[combo].channels.length;
+  const targetIdx = plan.combos.map((c) => {
+    if (rays.mode !== "target") return [];
+    return rays.channels.map((name, i) => {
+      const k = c.channels.indexOf(name);
+      if (k < 0) throw new InputError(`rays.channels[${i}]: the stack has no channel "${name}" (it has ${c.channels.join(", ")})`);
+      return k;
+    });
+  });
+
+  // Points of this run.
+  const nTotal = totalPoints(plan);
+  const states = new Map<number, PointState>();
+  for (let p = 0; p < nTotal; p++) {
+    if (inShard(p, shard)) states.set(p, { planned: initialBatches(rays), requested: 0, batches: [], nDone: 0 });
+  }
+
+  // Journal: resume when it matches, set it aside when it does not.
+  let journal: JournalWriter | undefined;
+  let raysResumed = 0;
+  let damaged: number[] = [];
+  if (options.outDir !== undefined) {
+    const jPath = journalPath(options.outDir, shard);
+    mkdirSync(dirname(jPath), { recursive: true });
+    const header = { studyHash: plan.studyHash, toolVersion: plan.toolVersion, shard: shard === null ? null : ([shard.index, shard.count] as [number, number]) };
+    let kept: JournalEntry[] = [];
+    if (existsSync(jPath)) {
+      const old = readJournal(jPath);
+      const h = old.header;
+      const matches = h !== undefined && h.studyHash === header.studyHash && h.toolVersion === header.toolVersion &&
+        JSON.stringify(h.shard) === JSON.stringify(header.shard);
+      if (!matches || options.fresh === true) {
+        const why = options.fresh === true ? "fresh" : h === undefined ? "unreadable" : h.toolVersion !== header.toolVersion ? "other-version" : "other-study";
+        const aside = setJournalAside(jPath, why);
+        notice(
+          options.fresh === true
+            ? `journal set aside as ${aside}; starting afresh`
+            : `journal ${jPath} belongs to ${h === undefined ? "an unreadable header" : h.toolVersion !== header.toolVersion ? `lightfold ${h.toolVersion}` : "a different study (its hash differs)"}; set aside as ${aside}, starting afresh`,
+        );
+      } else {
+        damaged = old.damagedLines;
+        for (const e of old.entries) {
+          const [combo, it, ip, il, b] = e.key;
+          const p = ((combo * grid.thetaDeg.length + it) * grid.phiDeg.length + ip) * grid.wavelengthNm.length + il;
+          const st = states.get(p);
+          if (st === undefined || combo >= plan.combos.length || it >= grid.thetaDeg.length || ip >= grid.phiDeg.length || il >= grid.wavelengthNm.length) continue;
+          if (e.nRays !== batchRays(rays, b) || e.tally.length !== tallyLength(nChannelsOf(combo)) || st.batches[b] !== undefined) continue;
+          st.batches[b] = e.tally;
+          st.nDone++;
+          raysResumed += e.nRays;
+          kept.push(e);
+        }
+        notice(`resuming from ${jPath}: ${kept.length} finished tasks kept` +
+          (damaged.length > 0 ? `; ${damaged.length} damaged line(s) (line ${damaged.slice(0, 5).join(", ")}${damaged.length > 5 ? ", …" : ""}) ignored, their tasks are traced again` : ""));
+      }
+    }
+    journal = JournalWriter.start(jPath, header, kept);
+    kept = [];
+  }
+
+  // Point bookkeeping: merge when the planned batches are all in; target mode may plan more.
+  const queue: QueuedRun[] = [];
+  let pointsDone = 0;
+  let raysPlanned = 0;
+  let raysDone = raysResumed;
+  const advance = (p: number, st: PointState): void => {
+    const combo = Math.floor(p / (grid.thetaDeg.length * grid.phiDeg.length * grid.wavelengthNm.length));
+    const len = tallyLength(nChannelsOf(combo));
+    for (;;) {
+      for (let b = st.requested; b < st.planned; b++) raysPlanned += batchRays(rays, b);
+      // Queue what is missing among the planned batches (contiguous runs).
+      let b = st.requested;
+      while (b < st.planned) {
+        if (st.batches[b] !== undefined) { b++; continue; }
+        const b0 = b;
+        while (b < st.planned && st.batches[b] === undefined) b++;
+        queue.push({ p, b0, b1: b });
+      }
+      st.requested = st.planned;
+      if (st.nDone < st.planned) return;
+      const merged = sumTallies(st.batches.slice(0, st.planned) as Float64Array[], len);
+      const next = plannedBatches(rays, merged, nChannelsOf(combo), targetIdx[combo], st.planned);
+      if (next === st.planned) {
+        st.merged = merged;
+        st.batches = [];
+        pointsDone++;
+        return;
+      }
+      st.planned = next;
+    }
+  };
+  for (const [p, st] of scheduleOrder(states, plan)) advance(p, st);
+
+  // Message size: whole batches, enough messages to keep every worker busy, few enough to be cheap.
+  const ownPool = options.pool === undefined;
+  const nWorkers = options.pool?.nWorkers ?? options.workers ?? defaultWorkerCount();
+  const raysPerMessage = Math.max(rays.batch, options.raysPerMessage ?? Math.min(32_768, Math.ceil(raysPlanned / (nWorkers * 8))));
+  if (options.shuffleSeed !== undefined) shuffle(queue, options.shuffleSeed);
+
+  const progress = (): void => {
+    options.onProgress?.({ raysDone, raysPlanned, raysTracedNow: raysDone - raysResumed, pointsDone, pointsTotal: states.size, elapsedS: (Date.now() - t0) / 1000 });
+  };
+  progress();
+
+  if (queue.length > 0) {
+    const pool = options.pool ?? new TracePool(workerSetupOf(study, options.tracerModule), nWorkers);
+    try {
+      await drain(pool, nWorkers * 2);
+    } finally {
+      journal?.close();
+      if (ownPool) await pool.close();
+    }
+  } else journal?.close();
+
+  async function drain(pool: TracePool, maxInFlight: number): Promise<void> {
+    await new Promise<void>((resolve, reject) => {
+      let inFlight = 0;
+      let failed = false;
+      const pump = (): void => {
+        while (!failed && inFlight < maxInFlight && queue.length > 0) {
+          const { msg, runs } = takeMessage();
+          inFlight++;
+          pool.run(msg).then(
+            (out) => {
+              inFlight--;
+              if (failed) return;
+              try {
+                accept(runs, out);
+              } catch (err) {
+                failed = true;
+                reject(err);
+                return;
+              }
+              progress();
+              if (queue.length === 0 && inFlight === 0) resolve();
+              else pump();
+            },
+            (err: unknown) => {
+              inFlight--;
+              if (!failed) {
+                failed = true;
+                reject(describeFailure(err));
+              }
+            },
+          );
+        }
+        if (!failed && queue.length === 0 && inFlight === 0) resolve();
+      };
+      pump();
+    });
+  }
+
+  function takeMessage(): { msg: TraceMessage; runs: QueuedRun[] } {
+    const items: TraceItem[] = [];
+    const runs: QueuedRun[] = [];
+    let budget = raysPerMessage;
+    while (queue.length > 0 && budget > 0) {
+      const run = queue[0];
+      let b1 = run.b0;
+      let n = 0;
+      // Whole batches up to the budget; a message always carries at least one batch.
+      while (b1 < run.b1) {
+        const r = batchRays(rays, b1);
+        if (n + r > budget && !(items.length === 0 && n === 0)) break;
+        n += r;
+        b1++;
+      }
+      if (b1 === run.b0) break;
+      const piece = { p: run.p, b0: run.b0, b1 };
+      if (b1 === run.b1) queue.shift();
+      else run.b0 = b1;
+      runs.push(piece);
+      items.push(itemOf(piece));
+      budget -= n;
+    }
+    return { msg: { items }, runs };
+  }
+
+  function itemOf(r: QueuedRun): TraceItem {
+    const c = pointCoords(grid, r.p);
+    const sizes: number[] = [];
+    for (let b = r.b0; b < r.b1; b++) sizes.push(batchRays(rays, b));
+    return {
+      combo: c.combo, it: c.it, ip: c.ip, il: c.il,
+      thetaDeg: grid.thetaDeg[c.it],
+      phiDeg: grid.phiMode === "averaged" ? null : grid.phiDeg[c.ip],
+      wavelengthNm: grid.wavelengthNm[c.il],
+      firstBatch: r.b0,
+      batchRays: sizes,
+    };
+  }
+
+  function accept(runs: QueuedRun[], out: Float64Array): void {
+    let offset = 0;
+    const entries: JournalEntry[] = [];
+    const touched: number[] = [];
+    for (const r of runs) {
+      const c = pointCoords(grid, r.p);
+      const len = tallyLength(nChannelsOf(c.combo));
+      const st = states.get(r.p) as PointState;
+      for (let b = r.b0; b < r.b1; b++) {
+        const t = out.slice(offset, offset + len);
+        offset += len;
+        st.batches[b] = t;
+        st.nDone++;
+        raysDone += batchRays(rays, b);
+        entries.push({ key: [c.combo, c.it, c.ip, c.il, b], nRays: batchRays(rays, b), tally: t });
+      }
+      touched.push(r.p);
+    }
+    if (offset !== out.length) throw new Error(`worker returned ${out.length} tally values, expected ${offset}`);
+    journal?.append(entries);
+    for (const p of touched) advance(p, states.get(p) as PointState);
+  }
+
+  // Results.
+  const pointTallies = new Map<number, Float64Array>();
+  for (const [p, st] of states) pointTallies.set(p, st.merged as Float64Array);
+  const wallS = (Date.now() - t0) / 1000;
+  const raysTraced = raysDone - raysResumed;
+  const files: string[] = [];
+  const matrices: ResponseMatrix[] = [];
+  if (shard !== null) {
+    if (options.outDir !== undefined) {
+      const path = shardPartialPath(options.outDir, shard);
+      const points = [...pointTallies.keys()].sort((a, b) => a - b);
+      writeShardPartial(path, {
+        format: "lightfold.shard", formatVersion: 1, shard, plan, points,
+        tallies: points.map((p) => pointTallies.get(p) as Float64Array), raysTraced, wallS,
+      });
+      files.push(path);
+    }
+  } else {
+    plan.combos.forEach((_, ci) => {
+      const m = matrixFromTallies(plan, ci, (p) => pointTallies.get(p), false);
+      matrices.push(m);
+      options.onMatrix?.(study.combos[ci], m);
+    });
+    if (options.outDir !== undefined) {
+      files.push(...writeRunOutputs(options.outDir, plan, matrices, { raysTraced, raysResumed, wallS, workers: nWorkers, studyFile: study.path }));
+    }
+  }
+  return { plan, matrices, pointTallies, raysTraced, raysResumed, damagedJournalLines: damaged, wallS, workers: nWorkers, files };
+}
+
+/** What every worker thread of a study's pool is given. */
+export function workerSetupOf(study: LoadedStudy, tracerModule?: string): WorkerSetup {
+  return {
+    studies: study.combos.map((c) => c.study),
+    materials: study.combos[0].study.materials,
+    baseDir: study.baseDir,
+    ...(tracerModule !== undefined ? { tracerModule } : {}),
+  };
+}
+
+/** Writes every combination's matrix and run.json (each atomically); returns the paths. */
+export function writeRunOutputs(
+  outDir: string,
+  plan: SweepPlan,
+  matrices: ResponseMatrix[],
+  info: { raysTraced: number; raysResumed: number; wallS: number; workers?: number; studyFile?: string; shards?: number; partial?: boolean; missingShards?: number[] },
+): string[] {
+  const files: string[] = [];
+  matrices.forEach((m, i) => {
+    const path = matrixPath(outDir, plan.combos[i].label);
+    writeResponseMatrix(path, m);
+    files.push(path);
+  });
+  const run = {
+    format: "lightfold.run",
+    formatVersion: 1,
+    toolVersion: plan.toolVersion,
+    studyName: plan.studyName,
+    studyHash: plan.studyHash,
+    ...(info.studyFile !== undefined ? { studyFile: info.studyFile } : {}),
+    seed: plan.seed,
+    grid: { nTheta: plan.grid.thetaDeg.length, nPhi: plan.grid.phiDeg.length, nWavelength: plan.grid.wavelengthNm.length, phiMode: plan.grid.phiMode },
+    rays: plan.rays,
+    combos: plan.combos.map((c, i) => ({
+      label: c.label,
+      values: c.values,
+      studyHash: c.hash,
+      matrix: `${c.label}/matrix.json`,
+      rays: matrices[i].nRays.reduce((a, b) => a + b, 0),
+    })),
+    ...(info.partial === true ? { partial: true, missingShards: info.missingShards ?? [] } : {}),
+    ...(info.shards !== undefined ? { shards: info.shards } : {}),
+    timings: {
+      finishedAt: new Date().toISOString(),
+      wallS: info.wallS,
+      raysTraced: info.raysTraced,
+      raysResumed: info.raysResumed,
+      raysPerS: info.wallS > 0 ? info.raysTraced / info.wallS : 0,
+      ...(info.workers !== undefined ? { workers: info.workers } : {}),
+    },
+  };
+  const runPath = runJsonPath(outDir);
+  writeFileAtomic(runPath, JSON.stringify(run, null, 2) + "\n");
+  files.push(runPath);
+  return files;
+}
+
+/**
+ * Order in which points are queued: combination, then wavelength, then angles, so consecutive
+ * messages reuse a thread's compiled stack for that wavelength.
+ */
+function scheduleOrder(states: Map<number, PointState>, plan: SweepPlan): [number, PointState][] {
+  const g = plan.grid;
+  const entries = [...states.entries()];
+  const key = (p: number): number => {
+    const c = pointCoords(g, p);
+    return ((c.combo * g.wavelengthNm.length + c.il) * g.thetaDeg.length + c.it) * g.phiDeg.length + c.ip;
+  };
+  return entries.sort((a, b) => key(a[0]) - key(b[0]));
+}
+
+/** Fisher–Yates with a small LCG (Numerical Recipes constants): test-only reordering. */
+function shuffle<T>(a: T[], seed: number): void {
+  let s = seed >>> 0;
+  for (let i = a.length - 1; i > 0; i--) {
+    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
+    const j = s % (i + 1);
+    [a[i], a[j]] = [a[j], a[i]];
+  }
+}
+
+/** A worker's error as it crossed the thread: input problems (tagged by the worker) stay InputErrors. */
+function describeFailure(err: unknown): Error {
+  const e = err instanceof Error ? err : new Error(String(err));
+  if (e.message.startsWith(INPUT_ERROR_TAG)) return new InputError(e.message.slice(INPUT_ERROR_TAG.length));
+  return e;
+}

@@ -1,0 +1,60 @@
+/**
+ * Tally layout (docs/contracts.md, Tracer): per channel [sum, sumSq], then
+ * [nRays, pathSum, pathSumSq, events].
+ */
+export const TALLY_EXTRA = 4;
+
+export function tallyLength(nChannels: number): number {
+  return 2 * nChannels + TALLY_EXTRA;
+}
+
+export function tallyRays(t: Float64Array, nChannels: number): number {
+  return t[2 * nChannels];
+}
+
+/**
+ * Adds batch tallies in the given (task-key) order into a fresh tally. Doing the additions in one
+ * fixed order, batch by batch, is what makes results identical for any worker count or split.
+ */
+export function sumTallies(batches: readonly Float64Array[], length: number): Float64Array {
+  const acc = new Float64Array(length);
+  for (const t of batches) for (let i = 0; i < length; i++) acc[i] += t[i];
+  return acc;
+}
+
+/** Mean of channel c: sum / n. */
+export function channelMean(t: Float64Array, nChannels: number, c: number): number {
+  const n = t[2 * nChannels];
+  return n > 0 ? t[2 * c] / n : 0;
+}
+
+/**
+ * Standard error of the mean of channel c from sum and sum of squares of per-ray weights:
+ * s² = (Σw² − n·mean²)/(n − 1), SE = s/√n (textbook sample variance).
+ */
+export function channelStdErr(t: Float64Array, nChannels: number, c: number): number {
+  const n = t[2 * nChannels];
+  if (n < 2) return 0;
+  const mean = t[2 * c] / n;
+  const variance = Math.max(0, (t[2 * c + 1] - n * mean * mean) / (n - 1));
+  return Math.sqrt(variance / n);
+}
+
+/**
+ * Problem of a batch tally, or undefined when it is sound: every entry finite, ray count as asked,
+ * and the channel sums adding up to the ray count (each ray's power ends in exactly one place)
+ * within 1e-9 relative.
+ */
+export function tallyProblem(t: Float64Array, nChannels: number, nRays: number): string | undefined {
+  for (let i = 0; i < t.length; i++) {
+    if (!Number.isFinite(t[i])) return `tally entry ${i} is ${t[i]}`;
+  }
+  const n = t[2 * nChannels];
+  if (n !== nRays) return `tally counts ${n} rays, expected ${nRays}`;
+  let total = 0;
+  for (let c = 0; c < nChannels; c++) total += t[2 * c];
+  if (Math.abs(total - n) > 1e-9 * Math.max(1, n)) {
+    return `channels sum to ${total / n} of the incident power, expected 1 (difference ${(total - n) / n})`;
+  }
+  return undefined;
+}

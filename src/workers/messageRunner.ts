@@ -1,0 +1,80 @@
+import { RandomStream, streamKey } from "../random/stream.js";
+import { buildMaterialRegistry } from "../study/userMaterials.js";
+import { tallyLength, tallyProblem } from "../sweep/tally.js";
+import type { TracerModule } from "./tracerModule.js";
+import { INPUT_ERROR_TAG, type TraceItem, type TraceMessage, type WorkerSetup } from "./traceTask.js";
+
+/** Compiled stacks kept per thread; (combo, λ) pairs beyond this are evicted oldest first. */
+const STACK_CACHE_SIZE = 128;
+
+/**
+ * A function that traces task messages for one study. Stacks are compiled once per (combo, λ) and
+ * cached. Every batch tally is checked (finite, ray count, channels summing to 1); a bad one throws
+ * naming the task's coordinates so the run fails loudly instead of writing NaN.
+ */
+export function createMessageRunner(setup: WorkerSetup, tracer: TracerModule): (msg: TraceMessage) => Float64Array {
+  const { compileStack, channelNames, traceBatch } = tracer;
+  const registry = buildMaterialRegistry(setup.materials, setup.baseDir);
+  const cache = new Map<string, { cs: never; nChannels: number }>();
+
+  const compiled = (item: TraceItem): { cs: never; nChannels: number } => {
+    const key = `${item.combo}/${item.wavelengthNm}`;
+    let hit = cache.get(key);
+    if (hit === undefined) {
+      const cs = compileStack(setup.studies[item.combo], registry, item.wavelengthNm) as never;
+      hit = { cs, nChannels: channelNames(cs).length };
+      if (cache.size >= STACK_CACHE_SIZE) cache.delete(cache.keys().next().value as string);
+      cache.set(key, hit);
+    }
+    return hit;
+  };
+
+  return (msg: TraceMessage): Float64Array => {
+    let total = 0;
+    const stacks = msg.items.map((item) => {
+      const s = withCoordinates(item, item.firstBatch, () => compiled(item));
+      total += tallyLength(s.nChannels) * item.batchRays.length;
+      return s;
+    });
+    const out = new Float64Array(total);
+    let offset = 0;
+    msg.items.forEach((item, k) => {
+      const { cs, nChannels } = stacks[k];
+      const len = tallyLength(nChannels);
+      const seed = setup.studies[item.combo].seed;
+      for (let j = 0; j < item.batchRays.length; j++) {
+        const batch = item.firstBatch + j;
+        const nRays = item.batchRays[j];
+        const tally = out.subarray(offset, offset + len);
+        withCoordinates(item, batch, () => {
+          const rng = new RandomStream(streamKey(seed, item.combo, item.it, item.ip, item.il, batch));
+          traceBatch(cs, item.thetaDeg, item.phiDeg, nRays, rng, tally);
+          const problem = tallyProblem(tally, nChannels, nRays);
+          if (problem !== undefined) throw new Error(problem);
+        });
+        offset += len;
+      }
+    });
+    return out;
+  };
+}
+
+/** Runs fn; an error is re-thrown with the task's coordinates in front. */
+function withCoordinates<T>(item: TraceItem, batch: number, fn: () => T): T {
+  try {
+    return fn();
+  } catch (err) {
+    const e = err as Error;
+    const where = taskWhere(item, batch);
+    const tag = e.name === "InputError" ? INPUT_ERROR_TAG : "";
+    const wrapped = new Error(`${tag}task failed at ${where}: ${e.message}`);
+    if (e.stack) wrapped.stack = `${wrapped.message}\n${e.stack.split("\n").slice(1).join("\n")}`;
+    throw wrapped;
+  }
+}
+
+/** "combo 0, θ=30° (index 2), φ=0° (index 0), λ=500 nm (index 8), batch 3". */
+export function taskWhere(item: TraceItem, batch: number): string {
+  const phi = item.phiDeg === null ? "φ averaged" : `φ=${item.phiDeg}° (index ${item.ip})`;
+  return `combo ${item.combo}, θ=${item.thetaDeg}° (index ${item.it}), ${phi}, λ=${item.wavelengthNm} nm (index ${item.il}), batch ${batch}`;
+}

@@ -1,0 +1,47 @@
+import { availableParallelism } from "node:os";
+import { Piscina } from "piscina";
+import { InputError } from "../util/errors.js";
+import { workerFile } from "./workerPath.js";
+import type { TraceMessage, TraceResult, WorkerSetup } from "./traceTask.js";
+
+/**
+ * Threads to use by default: what Slurm grants the task (SLURM_CPUS_PER_TASK) when set, otherwise
+ * the cores this process may use (os.availableParallelism()).
+ */
+export function defaultWorkerCount(env: NodeJS.ProcessEnv = process.env): number {
+  const slurm = env.SLURM_CPUS_PER_TASK;
+  if (slurm !== undefined && slurm !== "") {
+    const n = Number(slurm);
+    if (Number.isInteger(n) && n >= 1) return n;
+    throw new InputError(`SLURM_CPUS_PER_TASK: expected a positive integer, got ${JSON.stringify(slurm)}`);
+  }
+  return Math.max(1, availableParallelism());
+}
+
+/** A fixed-size piscina pool of trace worker threads for one study. */
+export class TracePool {
+  readonly nWorkers: number;
+  private readonly pool: Piscina<TraceMessage, TraceResult>;
+
+  constructor(setup: WorkerSetup, nWorkers: number) {
+    if (!Number.isInteger(nWorkers) || nWorkers < 1) throw new InputError(`workers: expected a positive integer, got ${nWorkers}`);
+    this.nWorkers = nWorkers;
+    this.pool = new Piscina<TraceMessage, TraceResult>({
+      filename: workerFile(import.meta.url, "./traceWorker.js"),
+      minThreads: nWorkers,
+      maxThreads: nWorkers,
+      idleTimeout: 60_000,
+      workerData: setup,
+      // A thread per core, one message at a time each: the queue stays in the main thread.
+      concurrentTasksPerWorker: 1,
+    });
+  }
+
+  run(msg: TraceMessage): Promise<TraceResult> {
+    return this.pool.run(msg);
+  }
+
+  async close(): Promise<void> {
+    await this.pool.destroy();
+  }
+}

@@ -1,0 +1,45 @@
+import type { Study } from "../study/studyTypes.js";
+
+/**
+ * One point's share of a task message: consecutive batches firstBatch, firstBatch+1, ... of the
+ * point (combo, θ index, φ index, λ index). Each batch has its own random stream,
+ * streamKey(seed, combo, it, ip, il, batch), so how batches are grouped into messages never matters.
+ */
+export interface TraceItem {
+  combo: number;
+  it: number;
+  ip: number;
+  il: number;
+  thetaDeg: number;
+  /** null = random azimuth per ray ("averaged"). */
+  phiDeg: number | null;
+  wavelengthNm: number;
+  firstBatch: number;
+  /** Rays of each batch, in batch order. */
+  batchRays: number[];
+}
+
+/** A task message: several items, traced in order. */
+export interface TraceMessage {
+  items: TraceItem[];
+}
+
+/** Cloned once into every worker thread (piscina workerData). */
+export interface WorkerSetup {
+  /** One resolved study per combination (index = combo). */
+  studies: Study[];
+  /** User material entries of the study file, rebuilt into a registry in each thread. */
+  materials: unknown[];
+  baseDir: string;
+  /** A tracer module file to use instead of lightfold's own (tests only). */
+  tracerModule?: string;
+}
+
+/**
+ * The result of a message: one tally per batch, concatenated in item then batch order, moved (not
+ * copied) back to the main thread.
+ */
+export type TraceResult = Float64Array;
+
+/** Prefix of a worker error message that came from bad input (error names do not cross threads). */
+export const INPUT_ERROR_TAG = "[input] ";

@@ -1,0 +1,20 @@
+import { pathToFileURL } from "node:url";
+import type { MaterialRegistry } from "../materials/registry.js";
+import type { RandomStream } from "../random/stream.js";
+import type { Study } from "../study/studyTypes.js";
+
+/** The tracer functions the runner uses (docs/contracts.md, Tracer). */
+export interface TracerModule {
+  compileStack(study: Study, registry: MaterialRegistry, wavelengthNm: number): unknown;
+  channelNames(compiled: never): string[];
+  traceBatch(cs: never, thetaDeg: number, phiDeg: number | null, nRays: number, rng: RandomStream, tally: Float64Array): void;
+}
+
+/**
+ * The tracer: lightfold's own (src/trace) unless a module file is named, which tests use to run the
+ * pool with small stand-ins (one that throws, one whose channels do not add up).
+ */
+export async function loadTracer(modulePath?: string): Promise<TracerModule> {
+  if (modulePath === undefined) return (await import("../trace/index.js")) as unknown as TracerModule;
+  return (await import(pathToFileURL(modulePath).href)) as TracerModule;
+}
