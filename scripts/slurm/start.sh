@@ -61,6 +61,7 @@ ProctrackType=proctrack/linuxproc
 TaskPlugin=task/none
 ReturnToService=2
 SchedulerType=sched/backfill
+SchedulerParameters=bf_interval=1,sched_min_interval=0
 SelectType=select/cons_tres
 SelectTypeParameters=CR_Core
 MpiDefault=none
