@@ -1,4 +1,5 @@
 import type { Command } from "commander";
+import { basename } from "node:path";
 import { absorptionCoefficientPerCm } from "../../materials/absorption.js";
 import { formatRangeNm } from "../../materials/composedMaterial.js";
 import { MaterialRegistry } from "../../materials/registry.js";
@@ -135,7 +136,9 @@ Examples:
       const json = opts.json === true;
       if (opts.csv !== undefined) {
         if (name !== undefined) throw new InputError(`give either a material name or --csv, not both`);
-        const m = materialFromSpec({ name: "csv", csv: opts.csv, description: `table ${opts.csv}` }, process.cwd(), "--csv");
+        const stem = basename(opts.csv).replace(/\.[^.]*$/, "");
+        const label = /^[A-Za-z0-9][A-Za-z0-9_.+\-]*$/.test(stem) ? stem : "csv";
+        const m = materialFromSpec({ name: label, csv: opts.csv, description: `user table ${opts.csv}` }, process.cwd(), "--csv");
         showMaterial(m, m.name, wavelengths, json);
         return;
       }
