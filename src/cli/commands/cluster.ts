@@ -50,7 +50,7 @@ export function register(program: Command): void {
     .option("--job-name <name>", "job name (default lf-<study name>)")
     .option("--partition <name>", "sbatch --partition for both jobs")
     .option("--account <name>", "sbatch --account for both jobs")
-    .option("--max-running <n>", "run at most n shards at once (--array=0-N%n)")
+    .option("--max-running <n>", "run at most n shards at once (--array=1-N%n)")
     .option("--extra-sbatch <options>", "further sbatch options for both jobs, e.g. \"--qos=low\" (repeatable)", collect, [])
     .option("--merge-time <limit>", "wall-clock limit of the merge job", "00:30:00")
     .option("--merge-mem <size>", "memory of the merge job (default: --mem)")
