@@ -1,0 +1,27 @@
+/**
+ * `npm run bench`: the project's speed and memory figures (never asserted in unit tests).
+ * Parts: interface optics (exact vs tabulated), the tracer reference case, the sweep runner's
+ * parallel efficiency, and the yearly yield. `LIGHTFOLD_BENCH=optics,trace` picks parts.
+ */
+import { runOpticsBench } from "./optics.js";
+import { runTraceBench } from "./trace.js";
+import { runSweepBench } from "./sweep.js";
+import { runYieldBench } from "./yield.js";
+
+const parts: Record<string, () => Promise<void>> = {
+  optics: runOpticsBench,
+  trace: runTraceBench,
+  sweep: runSweepBench,
+  yield: runYieldBench,
+};
+
+const chosen = (process.env.LIGHTFOLD_BENCH ?? Object.keys(parts).join(",")).split(",").map((s) => s.trim());
+for (const name of chosen) {
+  const run = parts[name];
+  if (!run) {
+    process.stderr.write(`bench: unknown part "${name}" (have ${Object.keys(parts).join(", ")})\n`);
+    process.exit(2);
+  }
+  process.stdout.write(`\n=== ${name} ===\n`);
+  await run();
+}
