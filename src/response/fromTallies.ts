@@ -29,8 +29,8 @@ export function matrixFromTallies(
     }
     const n = t[2 * nCh];
     nRays[q] = n;
-    // pathSum is the summed optical path in the absorber in µm per ray.
-    pathRatio[q] = n > 0 ? t[2 * nCh + 1] / n / combo.absorberThicknessUm : 0;
+    // The tracer tallies each ray's path in the absorber already divided by its thickness.
+    pathRatio[q] = n > 0 ? t[2 * nCh + 1] / n : 0;
   }
   const m: ResponseMatrix = {
     format: RESPONSE_FORMAT,
