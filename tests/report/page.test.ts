@@ -1,0 +1,121 @@
+import { mkdtempSync, rmSync, writeFileSync, readFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { afterAll, describe, expect, it } from "vitest";
+import { escapeText, html } from "../../src/report/escape.js";
+import { loadReportInput } from "../../src/report/loadRunDir.js";
+import { renderReport } from "../../src/report/page.js";
+import { InputError } from "../../src/util/errors.js";
+import { LAYER_NAME, writeTinyRun, XSS_NAME } from "../fixtures/report/tinyRun.js";
+
+const tmp = mkdtempSync(join(tmpdir(), "lightfold-report-"));
+afterAll(() => rmSync(tmp, { recursive: true, force: true }));
+
+describe("escapeText / html``", () => {
+  it("escapes the five XML special characters (XML 1.0 §2.4)", () => {
+    expect(escapeText(`<a href="x" title='y'>&</a>`)).toBe("&lt;a href=&quot;x&quot; title=&#39;y&#39;&gt;&amp;&lt;/a&gt;");
+    expect(html`<p>${XSS_NAME}</p>`).toBe("<p>&lt;script&gt;alert(1)&lt;/script&gt;</p>");
+  });
+});
+
+describe("renderReport(input) with user text that looks like markup", () => {
+  const dir = writeTinyRun(join(tmp, "full"));
+  const rendered = renderReport(loadReportInput([dir], { angleDeg: 0 }));
+
+  it("never emits the study, layer or site names as markup", () => {
+    const all = [rendered.html, ...rendered.figures.map((f) => f.svg)].join("\n");
+    expect(all).not.toContain("<script");
+    expect(all).not.toContain("<b>bold</b>");
+    expect(all).not.toContain("<north>");
+    expect(rendered.html).toContain("&lt;script&gt;alert(1)&lt;/script&gt;");
+    expect(rendered.html).toContain(escapeText(LAYER_NAME));
+    // the page forbids scripts outright as a second line of defence
+    expect(rendered.html).toContain("default-src 'none'");
+  });
+
+  it("has every plot, with file-safe ids", () => {
+    const ids = rendered.figures.map((f) => f.id);
+    expect(ids).toEqual([
+      "spectral-1-script-alert-1-script",
+      "spectral-2-planar-reference",
+      "response-map-1-script-alert-1-script",
+      "response-map-2-planar-reference",
+      "angular-modifier",
+      "convergence",
+      "monthly-yield",
+      "tilt-sweep",
+    ]);
+    for (const id of ids) expect(id).toMatch(/^[a-z0-9-]+$/);
+    for (const f of rendered.figures) expect(rendered.html).toContain(`data-plot="${f.id}"`);
+  });
+
+  it("references nothing outside the page (no network, no CDN)", () => {
+    expect(rendered.html).not.toMatch(/\b(src|href)="(https?:)?\/\//);
+    expect(rendered.html).not.toMatch(/@import|url\(\s*['"]?https?:/);
+  });
+
+  it("draws one heat-map cell per (θ, λ) point", () => {
+    const map = rendered.figures.find((f) => f.id.startsWith("response-map-1"))!;
+    const marks = /<g class="marks"[^>]*>(.*?)<\/g>/s.exec(map.svg)![1]!;
+    expect(marks.match(/<rect /g)!.length).toBe(4 * 19);
+  });
+
+  it("stacks the channels of the spectral plot up to exactly 1 (channels sum to 1 per point)", () => {
+    // The top edge of the top layer lies at y(1) = the plot area top (58 px below a subtitle) at every wavelength.
+    const svg = rendered.figures[0]!.svg;
+    const paths = [...svg.matchAll(/<path d="M([^"]+)Z" fill/g)].map((m) => m[1]!);
+    const top = paths[paths.length - 1]!;
+    const upper = top.split("L").slice(0, 19).map((p) => Number(p.split(",")[1]));
+    for (const y of upper) expect(y).toBeCloseTo(58, 1);
+  });
+
+  it("lists the loss breakdown summing to the incident photocurrent", () => {
+    // Σ channels = 1 at each wavelength ⇒ Σ currents = current of all photons in the range
+    const table = /<table class="breakdown"[^>]*>(.*?)<\/table>/s.exec(rendered.html)![1]!;
+    const total = /<tr class="total"><td class="text">total \(incident ([0-9.]+)\)<\/td><td>([0-9.]+)<\/td>/.exec(table)!;
+    expect(Number(total[2])).toBeCloseTo(Number(total[1]), 1);
+  });
+});
+
+describe("sections without data", () => {
+  it("are omitted with a note, not broken", () => {
+    const dir = writeTinyRun(join(tmp, "bare"), { matricesOnly: true });
+    const r = renderReport(loadReportInput([dir], { angleDeg: 30 }));
+    expect(r.figures.map((f) => f.id)).not.toContain("convergence");
+    expect(r.figures.map((f) => f.id)).not.toContain("monthly-yield");
+    expect(r.html).toContain("Omitted: no convergence.json");
+    expect(r.html).toContain("Omitted: no yield results");
+    expect(r.html).toContain("Omitted: no comparison");
+    expect(r.html).toContain("Where the light goes at θ = 30°");
+  });
+});
+
+describe("loadReportInput errors", () => {
+  const dir = writeTinyRun(join(tmp, "errs"), { matricesOnly: true });
+  it("names a missing folder", () => {
+    expect(() => loadReportInput([join(tmp, "nope")], { angleDeg: 0 })).toThrow(InputError);
+  });
+  it("names the angle grid when --angle is off it", () => {
+    expect(() => loadReportInput([dir], { angleDeg: 45 })).toThrow(/not in the matrix grid \(θ = 0, 30, 60, 80°\)/);
+  });
+  it("names the file and field of a malformed photocurrent summary", () => {
+    const p = join(dir, "base", "photocurrent.json");
+    const good = readFileSync(p, "utf8");
+    const bad = JSON.parse(good);
+    bad.directions[1].jscMaCm2 = "lots";
+    writeFileSync(p, JSON.stringify(bad));
+    try {
+      expect(() => loadReportInput([dir], { angleDeg: 0 })).toThrow(/photocurrent\.json: field "directions\[1\]\.jscMaCm2" must be a finite number/);
+    } finally {
+      writeFileSync(p, good);
+    }
+  });
+  it("refuses a folder with no results", () => {
+    const empty = join(tmp, "empty");
+    writeTinyRun(empty, { matricesOnly: true });
+    rmSync(join(empty, "base"), { recursive: true });
+    rmSync(join(empty, "p0"), { recursive: true });
+    rmSync(join(empty, "run.json"));
+    expect(() => loadReportInput([empty], { angleDeg: 0 })).toThrow(/holds no lightfold results/);
+  });
+});
