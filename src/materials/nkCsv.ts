@@ -1,4 +1,5 @@
 import { InputError } from "../util/errors.js";
+import { C_LIGHT_MS, H_PLANCK_JS, Q_ELEMENTARY_C } from "../util/math.js";
 import { parseNumericTable, requireEach, requireStrictlyIncreasing } from "./numericTable.js";
 
 /** Columns of an n,k file; n or k absent when the file holds only the other. */
@@ -14,18 +15,23 @@ const WAVELENGTH_HEADERS: Record<string, number> = {
   "wavelength_µm": 1000,
   "wavelength_μm": 1000,
 };
+const ENERGY_HEADERS = new Set(["energy_ev", "photon_energy_ev"]);
+/** hc in eV·nm from the exact SI constants (λ[nm] = HC_EV_NM / E[eV]). */
+const HC_EV_NM = ((H_PLANCK_JS * C_LIGHT_MS) / Q_ELEMENTARY_C) * 1e9;
 
 /**
  * Parses an optical-constants CSV: '#' comment lines, a header whose first column is
- * `wavelength_nm` or `wavelength_um` (ellipsometry exports in µm) followed by `n`, `k` or both,
- * then one row per wavelength. Wavelengths strictly increasing, n > 0, k ≥ 0, at least 2 rows.
+ * `wavelength_nm`, `wavelength_um` or `energy_eV` (ellipsometry exports; "Wavelength (nm)" style
+ * headers are accepted) followed by `n`, `k` or both, then one row per point. Wavelengths strictly
+ * increasing (energies strictly monotonic, either way), n > 0, k ≥ 0, at least 2 rows.
  */
 export function parseNkCsv(text: string, label: string): NkColumns {
   const t = parseNumericTable(text, label);
   const scale = WAVELENGTH_HEADERS[t.header[0]!];
-  if (scale === undefined) {
+  const energy = ENERGY_HEADERS.has(t.header[0]!);
+  if (scale === undefined && !energy) {
     throw new InputError(
-      `${label}: first header column is "${t.header[0]}"; expected wavelength_nm or wavelength_um (header e.g. "wavelength_nm,n,k")`,
+      `${label}: first header column is "${t.header[0]}"; expected wavelength_nm, wavelength_um or energy_eV (header e.g. "wavelength_nm,n,k")`,
     );
   }
   const rest = t.header.slice(1);
@@ -36,14 +42,25 @@ export function parseNkCsv(text: string, label: string): NkColumns {
     throw new InputError(`${label}: header columns after the wavelength must be n, k or both (got "${t.header.join(",")}")`);
   }
   if (t.columns[0]!.length < 2) throw new InputError(`${label}: needs at least 2 data rows, found ${t.columns[0]!.length}`);
-  requireEach(t, 0, (v) => v > 0, "a positive wavelength");
-  requireStrictlyIncreasing(t, 0);
+  requireEach(t, 0, (v) => v > 0, energy ? "a positive photon energy" : "a positive wavelength");
   if (iN >= 0) requireEach(t, iN + 1, (v) => v > 0, "n > 0");
   if (iK >= 0) requireEach(t, iK + 1, (v) => v >= 0, "k ≥ 0");
-  const wavelengthNm = scale === 1 ? t.columns[0]! : t.columns[0]!.map((v) => v * scale);
-  return {
-    wavelengthNm,
-    n: iN >= 0 ? t.columns[iN + 1]! : null,
-    k: iK >= 0 ? t.columns[iK + 1]! : null,
-  };
+  const n = iN >= 0 ? t.columns[iN + 1]! : null;
+  const k = iK >= 0 ? t.columns[iK + 1]! : null;
+  if (!energy) {
+    requireStrictlyIncreasing(t, 0);
+    const wavelengthNm = scale === 1 ? t.columns[0]! : t.columns[0]!.map((v) => v * scale!);
+    return { wavelengthNm, n, k };
+  }
+  // Photon energies (either order, strictly monotonic) → wavelengths in increasing order.
+  const e = t.columns[0]!;
+  const falling = e[1]! < e[0]!;
+  for (let i = 1; i < e.length; i++) {
+    if (falling ? !(e[i]! < e[i - 1]!) : !(e[i]! > e[i - 1]!)) {
+      throw new InputError(`${label}:${t.lines[i]}: energy ${e[i]} eV breaks the monotonic order of line ${t.lines[i - 1]} (energies must be strictly increasing or strictly decreasing)`);
+    }
+  }
+  const order = Array.from(e, (_, i) => (falling ? i : e.length - 1 - i));
+  const pick = (col: Float64Array | null) => (col === null ? null : Float64Array.from(order, (i) => col[i]!));
+  return { wavelengthNm: Float64Array.from(order, (i) => HC_EV_NM / e[i]!), n: pick(n), k: pick(k) };
 }

@@ -12,6 +12,16 @@ export interface NumericTable {
 // Strict decimal number: optional sign, digits with optional fraction, optional exponent.
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
+/** "Wavelength (nm)" / "wavelength [nm]" / "wavelength_nm" → "wavelength_nm"; "N" → "n". */
+export function normalizeHeaderCell(cell: string): string {
+  return cell
+    .trim()
+    .replace(/^"(.*)"$/, "$1")
+    .toLowerCase()
+    .replace(/\s*[([]\s*([^)\]]*?)\s*[)\]]\s*$/, "_$1")
+    .replace(/\s+/g, "_");
+}
+
 /**
  * Parses text holding '#' comment lines, blank lines, one header line and rows of numbers.
  * Fields are separated by commas, tabs or semicolons (chosen from the header line). Every error
@@ -29,7 +39,7 @@ export function parseNumericTable(text: string, label: string): NumericTable {
     if (line === "" || line.startsWith("#")) continue;
     if (header === null) {
       sep = line.includes(",") ? /,/ : line.includes("\t") ? /\t/ : line.includes(";") ? /;/ : /\s+/;
-      header = line.split(sep).map((h) => h.trim().toLowerCase());
+      header = line.split(sep).map(normalizeHeaderCell);
       if (header.some((h) => h === "")) throw new InputError(`${label}:${lineNo}: empty column name in header "${line}"`);
       continue;
     }

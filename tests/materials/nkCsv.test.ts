@@ -30,6 +30,21 @@ describe("parseNkCsv(text, label)", () => {
     expect(t.wavelengthNm[1]).toBeCloseTo(450, 12);
   });
 
+  it('accepts "Wavelength (nm)" style headers and photon energies in eV (λ = hc/E, CODATA exact h, c, q)', () => {
+    const a = parseNkCsv('"Wavelength (nm)",N,K\n400,2.1,0.01\n500,2.0,0.005\n', "export.csv");
+    expect(Array.from(a.wavelengthNm)).toEqual([400, 500]);
+    // energies falling and rising give the same increasing-wavelength table
+    const hcEvNm = ((6.62607015e-34 * 299792458) / 1.602176634e-19) * 1e9; // 1239.84198… eV·nm
+    for (const text of ["energy_eV,n,k\n3.0,2.2,0.02\n2.0,2.0,0.001\n1.5,1.95,0\n", "Energy (eV),n,k\n1.5,1.95,0\n2.0,2.0,0.001\n3.0,2.2,0.02\n"]) {
+      const t = parseNkCsv(text, "ev.csv");
+      expect(t.wavelengthNm[0]).toBeCloseTo(hcEvNm / 3, 9);
+      expect(t.wavelengthNm[2]).toBeCloseTo(hcEvNm / 1.5, 9);
+      expect(Array.from(t.n!)).toEqual([2.2, 2.0, 1.95]);
+      expect(Array.from(t.k!)).toEqual([0.02, 0.001, 0]);
+    }
+    expect(inputErrorOf(() => parseNkCsv("energy_eV,n,k\n1.5,2,0\n2.0,2,0\n1.8,2,0\n", "m.csv"))).toContain("m.csv:4");
+  });
+
   it("accepts n-only and k-only files", () => {
     expect(parseNkCsv("wavelength_nm,n\n400,1.5\n500,1.49\n", "n.csv").k).toBeNull();
     expect(parseNkCsv("wavelength_nm,k\n400,1e-5\n500,1e-6\n", "k.csv").n).toBeNull();
