@@ -5,6 +5,7 @@ import * as mergeCmd from "./merge.js";
 import * as exportCmd from "./export.js";
 import * as spectralCmd from "./spectral.js";
 import * as materialsCmd from "./materials.js";
+import * as filmCmd from "./film.js";
 import * as clusterCmd from "./cluster.js";
 import * as reportCmd from "./report.js";
 
@@ -14,4 +15,4 @@ export interface CommandModule {
 }
 
 // Each verb's module is listed here once; order = order in `lightfold --help`.
-export const commandModules: CommandModule[] = [checkCmd, sweepCmd, mergeCmd, materialsCmd, exportCmd, spectralCmd, clusterCmd, reportCmd];
+export const commandModules: CommandModule[] = [checkCmd, sweepCmd, mergeCmd, materialsCmd, filmCmd, exportCmd, spectralCmd, clusterCmd, reportCmd];
