@@ -67,8 +67,14 @@ export interface HeightMapTexture {
   grid?: HeightGrid;
 }
 
+/** Ideal Lambertian randomiser (reference case; front only, no films): see docs/drafts/trace-DEVELOPERS.md. */
+export interface LambertianTexture {
+  type: "lambertian";
+}
+
 export type TextureSpec =
   | PlanarTexture
+  | LambertianTexture
   | UprightPyramidsTexture
   | InvertedPyramidsTexture
   | RandomPyramidsTexture

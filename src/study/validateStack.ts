@@ -87,10 +87,14 @@ function layerList(ctx: Ctx, raw: unknown, path: string): LayerSpec[] {
 function frontSpec(ctx: Ctx, raw: unknown, path: string): FrontSpec {
   const o = object(raw, path);
   known(o, path, ["texture", "films"]);
-  return {
+  const spec = {
     texture: texture(ctx, o.texture ?? { type: "planar" }, `${path}.texture`),
     films: filmList(ctx, o.films, `${path}.films`),
   };
+  if (spec.texture.type === "lambertian" && spec.films.length > 0) {
+    throw new InputError(`${path}.films: the ideal Lambertian randomiser takes no films`);
+  }
+  return spec;
 }
 
 function rearSpec(ctx: Ctx, raw: unknown, path: string): RearSpec {
@@ -131,6 +135,7 @@ function filmList(ctx: Ctx, raw: unknown, path: string): FilmSpec[] {
 
 const TEXTURE_FIELDS: Record<TextureSpec["type"], string[]> = {
   planar: [],
+  lambertian: [],
   "upright-pyramids": ["baseUm", "facetAngleDeg"],
   "inverted-pyramids": ["baseUm", "facetAngleDeg"],
   "random-pyramids": ["meanBaseUm", "sizeSpread", "count", "tileUm", "facetAngleDeg", "seed"],
@@ -147,6 +152,11 @@ function texture(ctx: Ctx, raw: unknown, path: string): TextureSpec {
   const pos = (key: string): number => positive(required(o, key, path), `${path}.${key}`);
   switch (type) {
     case "planar":
+      return { type };
+    case "lambertian":
+      if (!path.endsWith(".front.texture")) {
+        throw new InputError(`${path}.type: "lambertian" (ideal randomiser) is a front texture only`, 'use rear "ideal": { "kind": "lambertian" }');
+      }
       return { type };
     case "upright-pyramids":
     case "inverted-pyramids":

@@ -1,0 +1,91 @@
+import { MaterialRegistry } from "../src/materials/registry.js";
+import { RandomStream, streamKey } from "../src/random/stream.js";
+import type { StackSpec } from "../src/study/stackTypes.js";
+import { compileStack } from "../src/trace/compile.js";
+import type { Estimator } from "../src/trace/compiledStack.js";
+import { traceBatch } from "../src/trace/kernel.js";
+import { createTally, summarizeTally } from "../src/trace/tally.js";
+
+/**
+ * Reference case: bare regular upright 54.74° pyramids of 10 µm base on the front of 180 µm Si
+ * (from the pyramid base plane to the rear), planar rear with an ideal mirror of reflectance 0.95,
+ * Si from Green 2008, normal incidence, 10^5 rays, fixed seed.
+ */
+export const BENCH_STACK: StackSpec = {
+  incidence: "air",
+  layers: [],
+  front: { texture: { type: "upright-pyramids", baseUm: 10, facetAngleDeg: 54.74 }, films: [] },
+  absorber: { material: "Si-Green2008", thicknessUm: 180 },
+  rear: { ideal: { kind: "mirror", reflectance: 0.95 } },
+  boundary: "periodic",
+};
+
+export const BENCH_WAVELENGTHS_NM = [1000, 600, 1150];
+export const BENCH_RAYS = 100_000;
+export const BENCH_SEED = 20240601;
+
+export interface TraceBenchRow {
+  wavelengthNm: number;
+  estimator: Estimator;
+  nRays: number;
+  seconds: number;
+  raysPerSecond: number;
+  eventsPerRay: number;
+  eventsPerSecond: number;
+  R: number;
+  A: number;
+  T: number;
+  A_rear: number;
+}
+
+/** Runs the reference case once per wavelength on this thread; returns the figures. */
+export function traceBenchRows(estimator: Estimator = "expected", nRays = BENCH_RAYS): TraceBenchRow[] {
+  const registry = MaterialRegistry.withBuiltins();
+  const rows: TraceBenchRow[] = [];
+  for (const wavelengthNm of BENCH_WAVELENGTHS_NM) {
+    const cs = compileStack(BENCH_STACK, registry, wavelengthNm, { estimator });
+    // Warm-up so the timed run measures optimised code.
+    traceBatch(cs, 0, 0, 2000, new RandomStream(streamKey(BENCH_SEED, "warmup", wavelengthNm)), createTally(cs));
+    const tally = createTally(cs);
+    const rng = new RandomStream(streamKey(BENCH_SEED, "bench", wavelengthNm));
+    const t0 = process.hrtime.bigint();
+    traceBatch(cs, 0, 0, nRays, rng, tally);
+    const seconds = Number(process.hrtime.bigint() - t0) * 1e-9;
+    const s = summarizeTally(cs.channels, tally);
+    const at = (name: string): number => s.mean[cs.channels.indexOf(name)];
+    rows.push({
+      wavelengthNm,
+      estimator,
+      nRays,
+      seconds,
+      raysPerSecond: nRays / seconds,
+      eventsPerRay: s.eventsPerRay,
+      eventsPerSecond: (s.eventsPerRay * nRays) / seconds,
+      R: at("R"),
+      A: at("A_absorber"),
+      T: at("T"),
+      A_rear: at("A_rear"),
+    });
+  }
+  return rows;
+}
+
+/** Prints the tracer benchmark (called by bench/main.ts). */
+export async function runTraceBench(): Promise<void> {
+  const rows = traceBenchRows();
+  process.stdout.write(
+    "trace: upright 54.74° pyramids 10 µm, 180 µm Si (Green 2008), ideal rear mirror 0.95, normal incidence, " +
+      `${BENCH_RAYS} rays, one thread, ${rows[0].estimator}-value estimator\n`,
+  );
+  process.stdout.write("  λ (nm)   rays/s    events/ray  facet events/s      R        A_Si     A_rear     T\n");
+  for (const r of rows) {
+    process.stdout.write(
+      `  ${String(r.wavelengthNm).padStart(6)} ${fmt(r.raysPerSecond, 9, 0)} ${fmt(r.eventsPerRay, 11, 2)} ${fmt(r.eventsPerSecond, 15, 0)}` +
+        ` ${fmt(r.R, 9, 4)} ${fmt(r.A, 8, 4)} ${fmt(r.A_rear, 9, 4)} ${fmt(r.T, 7, 4)}\n`,
+    );
+  }
+}
+
+function fmt(x: number, width: number, digits: number): string {
+  return x.toFixed(digits).padStart(width);
+}

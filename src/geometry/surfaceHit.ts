@@ -1,0 +1,121 @@
+import { TRI_STRIDE, type SurfaceTile } from "./surfaceTile.js";
+
+/** Returned when the ray leaves the search range without a hit. */
+export const NO_HIT = -1;
+/** Returned when the grid walk exceeds its step budget (a ray running parallel to the base plane). */
+export const LOST = -2;
+
+const MAX_STEPS = 1 << 20;
+/** Edge tolerance relative to the tile size: rays through shared edges must not slip between triangles. */
+const EDGE_TOL_REL = 1e-10;
+
+/**
+ * Nearest hit of a ray with a mesh tile, walking the periodic uniform grid (Amanatides & Woo 1987
+ * traversal). Coordinates are the tile's own: the origin (ox, oy) must lie in [0, lx) × [0, ly); z is
+ * the height (outward positive). `fromBelow` = the ray is on the absorber side and can only hit
+ * triangles whose outward normal it travels along (n·d > 0); from above the opposite. That sign test
+ * also keeps a ray from hitting the triangle it has just left. Hits must lie within t ∈ (0, tLimit].
+ *
+ * Returns the distance t (in units of the direction vector, here µm), NO_HIT or LOST; on a hit the
+ * triangle index is written to hitTri[0].
+ */
+export function meshHit(
+  s: SurfaceTile,
+  ox: number,
+  oy: number,
+  oz: number,
+  dx: number,
+  dy: number,
+  dz: number,
+  fromBelow: boolean,
+  tLimit: number,
+  hitTri: Int32Array,
+): number {
+  const gx = s.gx;
+  const gy = s.gy;
+  const lx = s.lxUm;
+  const ly = s.lyUm;
+  const csx = lx / gx;
+  const csy = ly / gy;
+  const tri = s.tri;
+  const cellStart = s.cellStart;
+  const cellTri = s.cellTri;
+  const tol = EDGE_TOL_REL * (lx + ly);
+  const tEps = 1e-12 * (lx + ly);
+
+  let ix = Math.floor(ox / csx);
+  let iy = Math.floor(oy / csy);
+  if (ix >= gx) ix = gx - 1;
+  else if (ix < 0) ix = 0;
+  if (iy >= gy) iy = gy - 1;
+  else if (iy < 0) iy = 0;
+
+  // Offsets of the tile copy the ray is currently in (the ray origin stays fixed).
+  let offX = 0;
+  let offY = 0;
+  const stepX = dx > 0 ? 1 : -1;
+  const stepY = dy > 0 ? 1 : -1;
+  const invDx = dx !== 0 ? 1 / Math.abs(dx) : Infinity;
+  const invDy = dy !== 0 ? 1 / Math.abs(dy) : Infinity;
+  let tNextX = dx > 0 ? ((ix + 1) * csx - ox) * invDx : dx < 0 ? (ox - ix * csx) * invDx : Infinity;
+  let tNextY = dy > 0 ? ((iy + 1) * csy - oy) * invDy : dy < 0 ? (oy - iy * csy) * invDy : Infinity;
+  const tDeltaX = csx * invDx;
+  const tDeltaY = csy * invDy;
+
+  for (let step = 0; step < MAX_STEPS; step++) {
+    let tCellEnd = tNextX < tNextY ? tNextX : tNextY;
+    if (tCellEnd > tLimit) tCellEnd = tLimit;
+    // Test the cell's triangles; accept the nearest hit inside this cell's stretch of the ray.
+    let best = tCellEnd + tol;
+    let bestTri = -1;
+    const c = iy * gx + ix;
+    const px0 = ox - offX;
+    const py0 = oy - offY;
+    for (let k = cellStart[c], kEnd = cellStart[c + 1]; k < kEnd; k++) {
+      const t0 = cellTri[k];
+      const o = t0 * TRI_STRIDE;
+      const nx = tri[o];
+      const ny = tri[o + 1];
+      const nz = tri[o + 2];
+      const den = nx * dx + ny * dy + nz * dz;
+      if (fromBelow ? den <= 0 : den >= 0) continue;
+      const t = (tri[o + 3] - (nx * px0 + ny * py0 + nz * oz)) / den;
+      if (t <= tEps || t >= best) continue;
+      const hx = px0 + t * dx;
+      const hy = py0 + t * dy;
+      if (tri[o + 4] * hx + tri[o + 5] * hy + tri[o + 6] < -tol) continue;
+      if (tri[o + 7] * hx + tri[o + 8] * hy + tri[o + 9] < -tol) continue;
+      if (tri[o + 10] * hx + tri[o + 11] * hy + tri[o + 12] < -tol) continue;
+      best = t;
+      bestTri = t0;
+    }
+    if (bestTri >= 0) {
+      hitTri[0] = bestTri;
+      return best;
+    }
+    if (tCellEnd >= tLimit) return NO_HIT;
+    // Step to the next cell, wrapping into the neighbouring tile copy.
+    if (tNextX < tNextY) {
+      ix += stepX;
+      if (ix >= gx) {
+        ix = 0;
+        offX += lx;
+      } else if (ix < 0) {
+        ix = gx - 1;
+        offX -= lx;
+      }
+      tNextX += tDeltaX;
+    } else {
+      iy += stepY;
+      if (iy >= gy) {
+        iy = 0;
+        offY += ly;
+      } else if (iy < 0) {
+        iy = gy - 1;
+        offY -= ly;
+      }
+      tNextY += tDeltaY;
+    }
+  }
+  return LOST;
+}

@@ -1,0 +1,182 @@
+/**
+ * A textured interface as one periodic unit-cell tile of a height field z = h(x, y), heights in µm
+ * measured outward from the absorber (base plane z = 0). Flat surfaces are analytic; everything else
+ * is a set of triangles with a uniform grid over the tile for the hit test (surfaceHit.ts).
+ *
+ * Triangle record (TRI_STRIDE numbers): unit normal (nx, ny, nz) with nz > 0 (pointing outward,
+ * away from the absorber), plane offset d = n·v0, then three edge functions (a, b, c) of the
+ * triangle's xy projection, each normalised so that a·x + b·y + c is the signed distance (≥ 0 inside).
+ */
+export const TRI_STRIDE = 13;
+
+export const SURFACE_PLANAR = 0;
+export const SURFACE_MESH = 1;
+/** Ideal Lambertian randomiser (reference case, front only): flat, scatters every ray diffusely. */
+export const SURFACE_LAMBERTIAN = 2;
+
+export interface SurfaceTile {
+  kind: number;
+  /** Tile size in µm (the lateral period). */
+  lxUm: number;
+  lyUm: number;
+  /** Height range of the surface (µm, outward positive). */
+  zMinUm: number;
+  zMaxUm: number;
+  nTri: number;
+  tri: Float64Array;
+  /** Acceleration grid: gx × gy cells; triangles of cell c are cellTri[cellStart[c] .. cellStart[c+1]). */
+  gx: number;
+  gy: number;
+  cellStart: Int32Array;
+  cellTri: Int32Array;
+  /** Texture orientation in the plane (rotation of the tile frame against the stack frame). */
+  cosRot: number;
+  sinRot: number;
+  /** Human-readable description (for `trace` output and errors). */
+  label: string;
+}
+
+/** A flat interface; `periodUm` only sets the launch cell when it is the front. */
+export function planarTile(periodUm = 1, kind = SURFACE_PLANAR): SurfaceTile {
+  return {
+    kind,
+    lxUm: periodUm,
+    lyUm: periodUm,
+    zMinUm: 0,
+    zMaxUm: 0,
+    nTri: 0,
+    tri: new Float64Array(0),
+    gx: 1,
+    gy: 1,
+    cellStart: new Int32Array(2),
+    cellTri: new Int32Array(0),
+    cosRot: 1,
+    sinRot: 0,
+    label: kind === SURFACE_LAMBERTIAN ? "ideal Lambertian randomiser" : "planar",
+  };
+}
+
+/**
+ * Builds a mesh tile from triangles given as flat vertex coordinates (9 numbers per triangle:
+ * x0 y0 z0 x1 y1 z1 x2 y2 z2), all inside [0, lx] × [0, ly]. Triangles may come in any winding;
+ * they are oriented so the normal points to +z. Vertical or degenerate triangles are dropped (a
+ * height field has none that matter). The grid has gx × gy cells.
+ */
+export function meshTile(
+  verts: ArrayLike<number>,
+  lxUm: number,
+  lyUm: number,
+  gx: number,
+  gy: number,
+  label: string,
+  rotationDeg = 0,
+): SurfaceTile {
+  const nIn = Math.floor(verts.length / 9);
+  const tri = new Float64Array(nIn * TRI_STRIDE);
+  const keep: number[] = [];
+  let zMin = Infinity;
+  let zMax = -Infinity;
+  let nTri = 0;
+  for (let t = 0; t < nIn; t++) {
+    let ax = verts[9 * t], ay = verts[9 * t + 1], az = verts[9 * t + 2];
+    let bx = verts[9 * t + 3], by = verts[9 * t + 4], bz = verts[9 * t + 5];
+    const cx = verts[9 * t + 6], cy = verts[9 * t + 7], cz = verts[9 * t + 8];
+    // Normal (b − a) × (c − a); flip the winding when it points down.
+    let nx = (by - ay) * (cz - az) - (bz - az) * (cy - ay);
+    let ny = (bz - az) * (cx - ax) - (bx - ax) * (cz - az);
+    let nz = (bx - ax) * (cy - ay) - (by - ay) * (cx - ax);
+    const len = Math.hypot(nx, ny, nz);
+    if (!(len > 0) || Math.abs(nz) < 1e-12 * len) continue;
+    if (nz < 0) {
+      [ax, bx] = [bx, ax];
+      [ay, by] = [by, ay];
+      [az, bz] = [bz, az];
+      nx = -nx;
+      ny = -ny;
+      nz = -nz;
+    }
+    nx /= len;
+    ny /= len;
+    nz /= len;
+    const o = nTri * TRI_STRIDE;
+    tri[o] = nx;
+    tri[o + 1] = ny;
+    tri[o + 2] = nz;
+    tri[o + 3] = nx * ax + ny * ay + nz * az;
+    edge(tri, o + 4, ax, ay, bx, by);
+    edge(tri, o + 7, bx, by, cx, cy);
+    edge(tri, o + 10, cx, cy, ax, ay);
+    keep.push(Math.min(ax, bx, cx), Math.max(ax, bx, cx), Math.min(ay, by, cy), Math.max(ay, by, cy));
+    zMin = Math.min(zMin, az, bz, cz);
+    zMax = Math.max(zMax, az, bz, cz);
+    nTri++;
+  }
+  // Uniform grid: each triangle goes into every cell its xy bounding box overlaps.
+  const csx = lxUm / gx;
+  const csy = lyUm / gy;
+  const lists: number[][] = Array.from({ length: gx * gy }, () => []);
+  const slack = 1e-9 * Math.max(lxUm, lyUm);
+  for (let t = 0; t < nTri; t++) {
+    const i0 = clampInt(Math.floor((keep[4 * t] + slack) / csx), gx);
+    const i1 = clampInt(Math.ceil((keep[4 * t + 1] - slack) / csx) - 1, gx);
+    const j0 = clampInt(Math.floor((keep[4 * t + 2] + slack) / csy), gy);
+    const j1 = clampInt(Math.ceil((keep[4 * t + 3] - slack) / csy) - 1, gy);
+    for (let j = j0; j <= Math.max(j0, j1); j++) for (let i = i0; i <= Math.max(i0, i1); i++) lists[j * gx + i].push(t);
+  }
+  const cellStart = new Int32Array(gx * gy + 1);
+  for (let c = 0; c < gx * gy; c++) cellStart[c + 1] = cellStart[c] + lists[c].length;
+  const cellTri = new Int32Array(cellStart[gx * gy]);
+  for (let c = 0; c < gx * gy; c++) cellTri.set(lists[c], cellStart[c]);
+  const rot = (rotationDeg * Math.PI) / 180;
+  return {
+    kind: SURFACE_MESH,
+    lxUm,
+    lyUm,
+    zMinUm: zMin,
+    zMaxUm: zMax,
+    nTri,
+    tri: tri.slice(0, nTri * TRI_STRIDE),
+    gx,
+    gy,
+    cellStart,
+    cellTri,
+    cosRot: Math.cos(rot),
+    sinRot: Math.sin(rot),
+    label,
+  };
+}
+
+/** Edge a→b of a counter-clockwise triangle: inside is to the left; stored as a unit-normal line. */
+function edge(out: Float64Array, o: number, ax: number, ay: number, bx: number, by: number): void {
+  let a = -(by - ay);
+  let b = bx - ax;
+  const len = Math.hypot(a, b);
+  a /= len;
+  b /= len;
+  out[o] = a;
+  out[o + 1] = b;
+  out[o + 2] = -(a * ax + b * ay);
+}
+
+function clampInt(i: number, n: number): number {
+  return i < 0 ? 0 : i >= n ? n - 1 : i;
+}
+
+/**
+ * Mirror-walled cell as a periodic tile: the cell and its mirror images across x = lx and y = ly
+ * (a 2lx × 2ly tile). Tracing a periodic tile of mirror images is the same as reflecting at walls.
+ */
+export function mirroredVerts(verts: ArrayLike<number>, lxUm: number, lyUm: number): Float64Array {
+  const n = verts.length;
+  const out = new Float64Array(4 * n);
+  for (let copy = 0; copy < 4; copy++) {
+    const fx = (copy & 1) !== 0;
+    const fy = (copy & 2) !== 0;
+    for (let i = 0; i < n; i += 3) {
+      out[copy * n + i] = fx ? 2 * lxUm - verts[i] : verts[i];
+      out[copy * n + i + 1] = fy ? 2 * lyUm - verts[i + 1] : verts[i + 1];
+      out[copy * n + i + 2] = verts[i + 2];
+    }
+  }
+  return out;
+}

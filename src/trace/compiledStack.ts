@@ -1,0 +1,68 @@
+import type { InterfaceTable } from "../optics/types.js";
+import type { SurfaceTile } from "../geometry/surfaceTile.js";
+import type { StackSpec } from "../study/stackTypes.js";
+
+/** How bulk absorption is sampled (docs/drafts/trace-DEVELOPERS.md, "Estimator"). */
+export type Estimator = "analog" | "expected";
+
+export const REAR_INTERFACE = 0;
+export const REAR_IDEAL_MIRROR = 1;
+export const REAR_IDEAL_LAMBERTIAN = 2;
+
+/** One interface with its tables (films upper → lower) and the channels its films absorb into. */
+export interface CompiledInterface {
+  table: InterfaceTable;
+  /** Real indices of the upper and lower media (Snell). */
+  nUpper: number;
+  nLower: number;
+  nFilms: number;
+  /** Channel of film 0 (films i → filmChan0 + i); −1 without films. */
+  filmChan0: number;
+  /** Channel that takes light transmitted into the lower medium when it ends there (metal → A_rear, transparent exit → T); −1 when it propagates on. */
+  lowerSinkChan: number;
+}
+
+/**
+ * A stack ready for tracing at one wavelength. Media are numbered from the incidence side:
+ * 0 = incidence medium, 1..nLayers = thick layers, nLayers + 1 = absorber. World z: the front
+ * texture's base plane is z = 0, the rear base plane z = −thicknessUm; layer j's top plane is
+ * layerTopZUm[j] (the bottom layer's bottom plane is the top of the front texture).
+ */
+export interface CompiledStack {
+  stack: StackSpec;
+  wavelengthNm: number;
+  channels: string[];
+  nChannels: number;
+  nLayers: number;
+  /** Real index, extinction coefficient and absorption coefficient (1/µm) per medium. */
+  mediumN: Float64Array;
+  mediumK: Float64Array;
+  mediumAlphaPerUm: Float64Array;
+  /** Channel taking absorption in each medium (−1 for the incidence medium). */
+  mediumChan: Int32Array;
+  /** Top plane z (µm) of medium j (j ≥ 1); entry 0 unused. */
+  layerTopZUm: Float64Array;
+  /** Planar interface at the top of layer j (between media j−1 and j), index j − 1. */
+  topInterfaces: CompiledInterface[];
+  front: CompiledInterface;
+  frontTile: SurfaceTile;
+  rearKind: number;
+  rear: CompiledInterface | null;
+  rearTile: SurfaceTile;
+  rearReflectance: number;
+  thicknessUm: number;
+  chR: number;
+  chT: number;
+  chAbsorber: number;
+  chRear: number;
+  chUnresolved: number;
+  estimator: Estimator;
+  /** Expected-value mode: below this weight a ray continues with analog absorption. */
+  rouletteWeight: number;
+  maxEvents: number;
+  /** Scratch (not shared between threads): interface row, per-ray contributions, state, hit. */
+  scratchRow: Float64Array;
+  contrib: Float64Array;
+  state: Float64Array;
+  hitTri: Int32Array;
+}

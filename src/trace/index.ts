@@ -1,0 +1,5 @@
+export { compileStack, DEFAULT_ESTIMATOR, DEFAULT_MAX_EVENTS, DEFAULT_ROULETTE_WEIGHT, type CompileOptions, type MaterialSource } from "./compile.js";
+export type { CompiledStack, CompiledInterface, Estimator } from "./compiledStack.js";
+export { channelNames, channelNamesOfStack } from "./channels.js";
+export { traceBatch, type Polarization } from "./kernel.js";
+export { createTally, summarizeTally, TALLY_EXTRA_ENTRIES, type TallySummary } from "./tally.js";

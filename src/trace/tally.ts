@@ -1,0 +1,41 @@
+import type { CompiledStack } from "./compiledStack.js";
+
+/** Extra tally entries after the channels: [nRays, pathSum, pathSumSq, events]. */
+export const TALLY_EXTRA_ENTRIES = 4;
+
+/** A zeroed tally for a compiled stack (docs/contracts.md, Tracer). */
+export function createTally(cs: CompiledStack): Float64Array {
+  return new Float64Array(2 * cs.nChannels + TALLY_EXTRA_ENTRIES);
+}
+
+export interface TallySummary {
+  channels: string[];
+  mean: Float64Array;
+  stderr: Float64Array;
+  nRays: number;
+  /** Mean optical path in the absorber divided by its thickness, with its standard error. */
+  pathRatio: number;
+  pathRatioStderr: number;
+  eventsPerRay: number;
+}
+
+/** Means and standard errors (sample variance of per-ray contributions / n) of a tally. */
+export function summarizeTally(channels: string[], tally: Float64Array): TallySummary {
+  const nC = channels.length;
+  const n = tally[2 * nC];
+  const mean = new Float64Array(nC);
+  const stderr = new Float64Array(nC);
+  for (let c = 0; c < nC; c++) {
+    [mean[c], stderr[c]] = meanAndStderr(tally[2 * c], tally[2 * c + 1], n);
+  }
+  const [pathRatio, pathRatioStderr] = meanAndStderr(tally[2 * nC + 1], tally[2 * nC + 2], n);
+  return { channels, mean, stderr, nRays: n, pathRatio, pathRatioStderr, eventsPerRay: n > 0 ? tally[2 * nC + 3] / n : 0 };
+}
+
+function meanAndStderr(sum: number, sumSq: number, n: number): [number, number] {
+  if (n <= 0) return [0, 0];
+  const mean = sum / n;
+  if (n < 2) return [mean, 0];
+  const variance = Math.max(0, (sumSq - n * mean * mean) / (n - 1));
+  return [mean, Math.sqrt(variance / n)];
+}
