@@ -24,6 +24,7 @@ export function measureTableError(
   wavelengthNm: number,
   nDense = 20000,
   directions: readonly ("down" | "up")[] = ["down", "up"],
+  lookup: (table: InterfaceTable, dirFlag: number, cosTheta: number, out: Float64Array) => void = lookupInterface,
 ): TableErrorReport {
   const stride = table.stride;
   const exact = new Float64Array(stride);
@@ -48,7 +49,7 @@ export function measureTableError(
       if (c < 0 || c > 1) continue;
       nProbes++;
       interfaceRowInto(n0, stack, exit, wavelengthNm, c, cc, exact, 0);
-      lookupInterface(table, dir, c, approx, 0);
+      lookup(table, dir, c, approx);
       for (let ch = 0; ch < stride; ch++) {
         // exact rows of the up direction list films in reverse; the table uses the caller's order
         let ex = exact[ch]!;
@@ -82,4 +83,16 @@ export function tableErrorFor(
 ): TableErrorReport {
   const table = buildInterfaceTable(upper, films, lower, wavelengthNm, nCos);
   return measureTableError(table, upper, films, lower, wavelengthNm, nDense, directions);
+}
+
+/** Plain linear interpolation in cosθ on the main rows only (reference for what the band buys). */
+export function lookupLinearInCos(table: InterfaceTable, dirFlag: number, cosTheta: number, out: Float64Array): void {
+  const rows = dirFlag === 0 ? table.down : table.up;
+  const m = table.nCos - 1;
+  const c = cosTheta < 0 ? 0 : cosTheta > 1 ? 1 : cosTheta;
+  let i = Math.floor(c * m);
+  if (i >= m) i = m - 1;
+  const w = c * m - i;
+  const a = i * table.stride;
+  for (let k = 0; k < table.stride; k++) out[k] = rows[a + k]! + w * (rows[a + table.stride + k]! - rows[a + k]!);
 }
