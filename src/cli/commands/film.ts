@@ -51,7 +51,7 @@ Examples:
   lightfold film --stack "air|SiNx:75|Si" --wavelength 400:1100:50          pick an ARC thickness
   lightfold film --stack "EVA|SiNx:70|Si" --wavelength 600 --angle 0:80:10  angular response
   lightfold film --stack "Si|SiO2:100|Ag" --wavelength 1000 --angle 30      rear reflector from inside
-  lightfold film --stack "air|MgF2x:100|glass" --json                      (unknown names are reported)`,
+  lightfold film --stack "air|SiO2:100|SiNx:60|Si" --wavelength 400:1100:100 --json   double-layer ARC`,
     )
     .action((opts: { stack: string; wavelength: string; angle: string; json?: boolean }) => {
       const spec = parseStackSpec(opts.stack, "--stack");
