@@ -23,6 +23,9 @@ export interface RenderedReport {
 /** At most this many stacks get their own spectral plot and map (a sweep can have hundreds). */
 export const MAX_STACK_SECTIONS = 12;
 
+/** Above this share of the photocurrent left at the bounce limit, the breakdown carries a warning. */
+export const UNRESOLVED_WARN_FRACTION = 0.01;
+
 function fmt(v: number | undefined, digits = 2): string {
   return v === undefined || !Number.isFinite(v) ? "–" : v.toFixed(digits);
 }
@@ -60,7 +63,12 @@ function breakdownTable(stack: StackEntry, angleDeg: number): string {
     body += `<tr><td class="text"><span class="swatch" style="background:${swatchColour(stack, r.channel)}"></span>${escapeText(channelLabel(r.channel))}</td><td>${fmt(r.currentMaCm2)}</td><td>${fmt(r.stderrMaCm2, 3)}</td><td>${fmt(share, 1)}</td></tr>`;
   }
   body += `<tr class="total"><td class="text">total${pc.incidentMaCm2 !== undefined ? html` (incident ${fmt(pc.incidentMaCm2)})` : ""}</td><td>${fmt(total)}</td><td></td><td>100.0</td></tr>`;
-  return `<table class="breakdown" data-stack="${escapeText(stack.label)}"><caption>${html`Photocurrent at θ = ${angleDeg}°, ${pc.spectrumName}`}</caption><thead><tr><th class="text">where the photons go</th><th>mA/cm²</th><th>± s.e.</th><th>%</th></tr></thead><tbody>${body}</tbody></table>`;
+  const unresolved = rows.find((r) => r.channel === "unresolved");
+  const warn =
+    unresolved && total > 0 && unresolved.currentMaCm2 / total > UNRESOLVED_WARN_FRACTION
+      ? note(`${fmt((100 * unresolved.currentMaCm2) / total, 1)} % of the incident photocurrent was still travelling when rays reached the per-ray event limit (channel "unresolved"): that light is neither absorbed nor lost, so the absorber current is a lower bound.`)
+      : "";
+  return `<div>${warn}<table class="breakdown" data-stack="${escapeText(stack.label)}"><caption>${html`Photocurrent at θ = ${angleDeg}°, ${pc.spectrumName}`}</caption><thead><tr><th class="text">where the photons go</th><th>mA/cm²</th><th>± s.e.</th><th>%</th></tr></thead><tbody>${body}</tbody></table></div>`;
 }
 
 function summaryTable(input: ReportInput): string {
