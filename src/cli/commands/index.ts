@@ -4,6 +4,7 @@ import * as sweepCmd from "./sweep.js";
 import * as mergeCmd from "./merge.js";
 import * as exportCmd from "./export.js";
 import * as spectralCmd from "./spectral.js";
+import * as convergeCmd from "./converge.js";
 import * as materialsCmd from "./materials.js";
 import * as filmCmd from "./film.js";
 import * as clusterCmd from "./cluster.js";
@@ -15,4 +16,4 @@ export interface CommandModule {
 }
 
 // Each verb's module is listed here once; order = order in `lightfold --help`.
-export const commandModules: CommandModule[] = [checkCmd, sweepCmd, mergeCmd, materialsCmd, filmCmd, exportCmd, spectralCmd, clusterCmd, reportCmd];
+export const commandModules: CommandModule[] = [checkCmd, sweepCmd, mergeCmd, materialsCmd, filmCmd, exportCmd, spectralCmd, convergeCmd, clusterCmd, reportCmd];
