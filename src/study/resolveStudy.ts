@@ -3,6 +3,7 @@ import {
   describeValue,
   expectInteger,
   expectObject,
+  expectOneOf,
   expectString,
   rejectUnknownFields,
   requireField,
@@ -77,10 +78,16 @@ function parseMaterialEntries(raw: unknown): unknown[] {
   return raw;
 }
 
+/** Named spectra (ASTM G-173 columns) a study may ask for. */
+export const SPECTRUM_NAMES = ["AM1.5G", "AM1.5D", "G173-ETR"] as const;
+
 function parseSpectrum(raw: unknown): SpectrumChoice {
-  if (raw === undefined || raw === "AM1.5G") return "AM1.5G";
+  if (raw === undefined) return "AM1.5G";
   if (typeof raw === "string") {
-    throw new InputError(`spectrum: expected "AM1.5G" or {"csv": "file.csv"}, got ${describeValue(raw)}`);
+    return expectOneOf(raw, "spectrum", SPECTRUM_NAMES);
+  }
+  if (Array.isArray(raw) || raw === null || typeof raw !== "object") {
+    throw new InputError(`spectrum: expected one of ${SPECTRUM_NAMES.join(", ")} or {"csv": "file.csv"}, got ${describeValue(raw)}`);
   }
   const o: RawObject = expectObject(raw, "spectrum");
   rejectUnknownFields(o, "spectrum", ["csv"]);

@@ -33,7 +33,8 @@ export interface TargetRays {
 
 export type RaysPlan = FixedRays | TargetRays;
 
-export type SpectrumChoice = "AM1.5G" | { csv: string };
+/** A named ASTM G-173 spectrum ("AM1.5G", "AM1.5D", "G173-ETR") or a CSV file (relative to the study). */
+export type SpectrumChoice = "AM1.5G" | "AM1.5D" | "G173-ETR" | { csv: string };
 
 /** A study with every default applied; one per parameter-sweep combination. */
 export interface Study {

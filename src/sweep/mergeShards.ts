@@ -15,6 +15,7 @@ export interface MergeOptions {
   outDir?: string;
   /** Write matrices even when shards are missing, marked `partial: true`. */
   allowPartial?: boolean;
+  onNotice?: (message: string) => void;
 }
 
 export interface MergeResult {
@@ -90,7 +91,7 @@ export function mergeShards(options: MergeOptions): MergeResult {
     if (s.shard.count !== ref.s.shard.count) {
       throw new InputError(`${path}: shard ${s.shard.index} of ${s.shard.count}, but ${ref.path} is of ${ref.s.shard.count}; refusing to mix shard splits`);
     }
-    if (canonicalJson(s.plan) !== canonicalJson(ref.s.plan)) {
+    if (canonicalJson({ ...s.plan, baseDir: "" }) !== canonicalJson({ ...ref.s.plan, baseDir: "" })) {
       throw new InputError(`${path}: shard plan differs from ${ref.path} although the study hash matches`);
     }
   }
@@ -140,6 +141,6 @@ export function mergeShards(options: MergeOptions): MergeResult {
     shards: count,
     partial,
     missingShards: missing,
-  });
+  }, options.onNotice);
   return { plan, shardCount: count, present, missing, unfinished, matrices, files, raysTraced };
 }

@@ -1,4 +1,4 @@
-import type { StudyGrid, RaysPlan } from "../study/studyTypes.js";
+import type { StudyGrid, RaysPlan, SpectrumChoice } from "../study/studyTypes.js";
 import { channelStdErr } from "./tally.js";
 
 /** A deterministic subset of the points: shard `index` (1-based) of `count`. */
@@ -25,6 +25,9 @@ export interface SweepPlan {
   grid: StudyGrid;
   rays: RaysPlan;
   combos: ComboPlan[];
+  /** Spectrum for the photocurrent summaries, and the directory a CSV spectrum is relative to. */
+  spectrum: SpectrumChoice;
+  baseDir: string;
 }
 
 export interface PointCoords {

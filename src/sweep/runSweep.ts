@@ -1,5 +1,7 @@
 import { existsSync, mkdirSync } from "node:fs";
-import { dirname } from "node:path";
+import { dirname, relative } from "node:path";
+import { spectrumFromSpec, type Spectrum } from "../spectrum/index.js";
+import { writePhotocurrentSummary } from "../weighting/index.js";
 import { writeResponseMatrix } from "../response/matrixFile.js";
 import { matrixFromTallies } from "../response/fromTallies.js";
 import type { ResponseMatrix } from "../response/responseMatrix.js";
@@ -111,6 +113,8 @@ export function sweepPlanOf(study: LoadedStudy, tracer: TracerModule): SweepPlan
       channels: comboChannels(c.study, study.registry, tracer),
       absorberThicknessUm: c.study.stack.absorber.thicknessUm,
     })),
+    spectrum: first.spectrum,
+    baseDir: study.baseDir,
   };
 }
 
@@ -367,7 +371,7 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
       options.onMatrix?.(study.combos[ci], m);
     });
     if (options.outDir !== undefined) {
-      files.push(...writeRunOutputs(options.outDir, plan, matrices, { raysTraced, raysResumed, wallS, workers: nWorkers, studyFile: study.path }));
+      files.push(...writeRunOutputs(options.outDir, plan, matrices, { raysTraced, raysResumed, wallS, workers: nWorkers, studyFile: study.path }, notice));
     }
   }
   return { plan, matrices, pointTallies, raysTraced, raysResumed, damagedJournalLines: damaged, wallS, workers: nWorkers, files };
@@ -383,18 +387,43 @@ export function workerSetupOf(study: LoadedStudy, tracerModule?: string): Worker
   };
 }
 
-/** Writes every combination's matrix and run.json (each atomically); returns the paths. */
+/**
+ * Writes every combination's matrix, its photocurrent summary (photocurrent.json + iam.csv under
+ * the study's spectrum) and run.json, each atomically; returns the paths. A photocurrent that cannot
+ * be computed (e.g. a grid outside the spectrum) is reported through onNotice; the matrices stand.
+ */
 export function writeRunOutputs(
   outDir: string,
   plan: SweepPlan,
   matrices: ResponseMatrix[],
   info: { raysTraced: number; raysResumed: number; wallS: number; workers?: number; studyFile?: string; shards?: number; partial?: boolean; missingShards?: number[] },
+  onNotice: (message: string) => void = () => {},
 ): string[] {
   const files: string[] = [];
+  const extra: string[][] = [];
+  const jscFirst: ({ thetaDeg: number; phiDeg: number; jscMaCm2: number; jscStderrMaCm2: number } | undefined)[] = [];
+  let spectrum: Spectrum | undefined;
+  try {
+    spectrum = spectrumFromSpec(plan.spectrum, plan.baseDir);
+  } catch (err) {
+    onNotice(`no photocurrent summaries: ${(err as Error).message}`);
+  }
   matrices.forEach((m, i) => {
     const path = matrixPath(outDir, plan.combos[i].label);
     writeResponseMatrix(path, m);
     files.push(path);
+    extra[i] = [];
+    if (spectrum !== undefined && m.partial !== true) {
+      try {
+        const w = writePhotocurrentSummary(dirname(path), m, spectrum);
+        files.push(...w.files);
+        const d = w.summary.directions[0];
+        if (d !== undefined) jscFirst[i] = { thetaDeg: d.thetaDeg, phiDeg: d.phiDeg, jscMaCm2: d.jscMaCm2, jscStderrMaCm2: d.jscStderrMaCm2 };
+        extra[i] = w.files.map((f) => relative(outDir, f));
+      } catch (err) {
+        onNotice(`${plan.combos[i].label}: no photocurrent summary: ${(err as Error).message}`);
+      }
+    }
   });
   const run = {
     format: "lightfold.run",
@@ -411,6 +440,9 @@ export function writeRunOutputs(
       values: c.values,
       studyHash: c.hash,
       matrix: `${c.label}/matrix.json`,
+      ...(extra[i].length > 0 ? { summaries: extra[i] } : {}),
+      // Absorber photocurrent at the first grid direction: the sweep's summary table.
+      ...(jscFirst[i] !== undefined ? { jscFirstDirection: jscFirst[i] } : {}),
       rays: matrices[i].nRays.reduce((a, b) => a + b, 0),
     })),
     ...(info.partial === true ? { partial: true, missingShards: info.missingShards ?? [] } : {}),

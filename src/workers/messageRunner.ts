@@ -41,7 +41,7 @@ export function createMessageRunner(setup: WorkerSetup, tracer: TracerModule): (
     msg.items.forEach((item, k) => {
       const { cs, nChannels } = stacks[k];
       const len = tallyLength(nChannels);
-      const seed = setup.studies[item.combo].seed;
+      const seed = item.seed ?? setup.studies[item.combo].seed;
       for (let j = 0; j < item.batchRays.length; j++) {
         const batch = item.firstBatch + j;
         const nRays = item.batchRays[j];

@@ -17,6 +17,8 @@ export interface TraceItem {
   firstBatch: number;
   /** Rays of each batch, in batch order. */
   batchRays: number[];
+  /** Seed instead of the combination's study seed (independent replicas, reference runs). */
+  seed?: number;
 }
 
 /** A task message: several items, traced in order. */

@@ -156,3 +156,26 @@ describe("runSweep(options): target-error mode", () => {
     expect(matrixBytes(m)).not.toBe("");
   });
 });
+
+describe("tracePoint(options)", () => {
+  it("traces one point with the sweep's streams: same rays and batch size give the sweep's tally bit for bit", async () => {
+    const { tracePoint } = await import("../../src/sweep/tracePoint.js");
+    const { TracePool } = await import("../../src/workers/pool.js");
+    const { workerSetupOf } = await import("../../src/sweep/runSweep.js");
+    const study = tinyStudy();
+    const sweep = await runSweep({ study, workers: 1, tracerModule: TRACER });
+    const pool = new TracePool(workerSetupOf(study, TRACER), 2);
+    try {
+      const pt = await tracePoint({ study, pool, it: 1, ip: 0, il: 2, nRays: 130, tracerModule: TRACER });
+      // Point (θ index 1, φ 0, λ index 2) is global point 1·3 + 2 = 5.
+      expect(Buffer.from(pt.tally.buffer).equals(Buffer.from((sweep.pointTallies.get(5) as Float64Array).buffer))).toBe(true);
+      expect(pt.nBatches).toBe(4);
+      // Another seed is an independent replica: different tally, same ray count.
+      const rep = await tracePoint({ study, pool, it: 1, ip: 0, il: 2, nRays: 130, seed: 1234, tracerModule: TRACER });
+      expect(rep.nRays).toBe(130);
+      expect(Array.from(rep.tally)).not.toEqual(Array.from(pt.tally));
+    } finally {
+      await pool.close();
+    }
+  });
+});

@@ -21,7 +21,7 @@ Refuses shards of a different study hash, lightfold version or shard count. Miss
 listed by number (exit 2) unless --allow-partial is given.`,
     )
     .action((inputs: string[], flags: { out: string; allowPartial?: boolean; json?: boolean }) => {
-      const r = mergeShards({ inputs, outDir: flags.out, allowPartial: flags.allowPartial === true });
+      const r = mergeShards({ inputs, outDir: flags.out, allowPartial: flags.allowPartial === true, onNotice: (m) => process.stderr.write(`lightfold merge: ${m}\n`) });
       if (flags.json === true) {
         const { matrices: _m, plan, ...rest } = r;
         process.stdout.write(JSON.stringify({ study: plan.studyName, studyHash: plan.studyHash, partial: r.missing.length > 0, ...rest }, null, 2) + "\n");

@@ -6,7 +6,7 @@ import { createProgressReporter } from "../../sweep/progressReporter.js";
 import { runSweep } from "../../sweep/runSweep.js";
 import { resolveShard } from "../../sweep/shardSource.js";
 import { journalPath } from "../../sweep/sweepPaths.js";
-import { existsSync } from "node:fs";
+import { existsSync, readFileSync } from "node:fs";
 
 interface SweepFlags {
   out?: string;
@@ -119,9 +119,30 @@ with the same study; a changed study sets the old journal aside and starts afres
       }
       const lines = [
         `${study.name}: ${result.raysTraced.toExponential(3)} rays traced${result.raysResumed > 0 ? ` (+${result.raysResumed.toExponential(3)} from the journal)` : ""} in ${result.wallS.toFixed(1)} s on ${result.workers} worker(s), ${Math.round(summary.raysPerS)} rays/s`,
-        ...result.files.map((f) => `  wrote ${f}`),
+        ...(result.files.length <= 6
+          ? result.files.map((f) => `  wrote ${f}`)
+          : [`  wrote ${result.files.length} files under ${outDir}: run.json and per combination <combo>/matrix.json, photocurrent.json, iam.csv`]),
       ];
+      if (shard === null && study.combos.length > 1) lines.push(...comboTable(outDir));
       if (shard !== null) lines.push(`  shard ${shard.index}/${shard.count} done; when all shards are done: lightfold merge ${outDir} --out <dir>`);
       process.stdout.write(lines.join("\n") + "\n");
     });
+}
+
+/** Summary table of a parameter sweep from run.json: one line per combination. */
+export function comboTable(outDir: string): string[] {
+  const run = JSON.parse(readFileSync(join(outDir, "run.json"), "utf8")) as {
+    combos: { label: string; values: Record<string, number>; jscFirstDirection?: { thetaDeg: number; jscMaCm2: number; jscStderrMaCm2: number } }[];
+  };
+  const fields = Object.keys(run.combos[0].values);
+  const first = run.combos.find((c) => c.jscFirstDirection !== undefined)?.jscFirstDirection;
+  const head = ["combo", ...fields, first !== undefined ? `Jsc(θ=${first.thetaDeg}°) mA/cm²` : "Jsc"];
+  const rows = run.combos.map((c) => [
+    c.label,
+    ...fields.map((f) => String(c.values[f])),
+    c.jscFirstDirection === undefined ? "–" : `${c.jscFirstDirection.jscMaCm2.toFixed(3)} ± ${c.jscFirstDirection.jscStderrMaCm2.toFixed(3)}`,
+  ]);
+  const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
+  const fmt = (r: string[]): string => "  " + r.map((v, i) => v.padEnd(widths[i])).join("  ");
+  return [fmt(head), ...rows.map(fmt)];
 }
