@@ -1,0 +1,117 @@
+import { readFileSync } from "node:fs";
+import type { Command } from "commander";
+import { readSiteFile } from "../../site/siteFile.js";
+import type { Site } from "../../site/site.js";
+import { formatUtcOffset } from "../../site/utcOffset.js";
+import { sunTrack } from "../../sky/sunPosition.js";
+import { writeFileAtomic } from "../../util/atomicWrite.js";
+import { InputError } from "../../util/errors.js";
+import { toolVersion } from "../../util/version.js";
+import { checkAgainstSun } from "../../weather/sunChecks.js";
+import { syntheticWeather, type SyntheticWeather } from "../../weather/synthetic.js";
+import { parseWeatherCsv, weatherToCsv } from "../../weather/weatherCsv.js";
+import type { WeatherYear } from "../../weather/weatherYear.js";
+
+/** Integer flag value; `flag` names it in errors. */
+export function intOption(text: string | undefined, flag: string, fallback: number): number {
+  if (text === undefined) return fallback;
+  const v = Number(text);
+  if (!Number.isInteger(v)) throw new InputError(`${flag}: expected a whole number, got "${text}"`);
+  return v;
+}
+
+/** "--weather <file.csv|synthetic>": reads and validates a weather file or makes a synthetic year. */
+export function loadWeather(spec: string, site: Site, year: number, seed: number): WeatherYear {
+  if (spec === "synthetic") return syntheticWeather(site, year, seed);
+  let text: string;
+  try {
+    text = readFileSync(spec, "utf8");
+  } catch {
+    throw new InputError(`--weather: cannot read weather file ${spec} (or use "synthetic")`);
+  }
+  return parseWeatherCsv(text, spec);
+}
+
+const MONTHS = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
+
+function monthlySummary(site: Site, w: SyntheticWeather): { month: string; targetKt: number; kt: number; ghiKWhM2: number }[] {
+  const off = site.utcOffsetHours * 3_600_000;
+  const ghi = new Array<number>(12).fill(0);
+  for (let i = 0; i < w.ghiWm2.length; i++) ghi[new Date(w.hourStartUtcMs[i]! + off).getUTCMonth()] += w.ghiWm2[i]!;
+  return MONTHS.map((month, m) => {
+    let q = 0, h0 = 0;
+    for (let d = 0; d < w.dailyKt.length; d++) if (w.dailyMonth[d] === m) { q += w.dailyKt[d]! * w.dailyH0Whm2[d]!; h0 += w.dailyH0Whm2[d]!; }
+    return { month, targetKt: w.targetKt[m]!, kt: h0 > 0 ? Number((q / h0).toFixed(4)) : 0, ghiKWhM2: Number((ghi[m]! / 1000).toFixed(2)) };
+  });
+}
+
+/** `lightfold weather --site s.json --year 2027 --seed 7 [--out file.csv]` and `--check file.csv`. */
+export function register(program: Command): void {
+  program
+    .command("weather")
+    .description("make a synthetic hourly weather year for a site (GHI/DNI/DHI CSV), or check a weather file")
+    .requiredOption("--site <site.json>", "site file (latitude, longitude, time zone, albedo, monthlyClearness)")
+    .option("--year <year>", "calendar year (local standard time)", "2027")
+    .option("--seed <n>", "random seed", "7")
+    .option("--out <file.csv>", "write the CSV here (atomically) instead of to standard output")
+    .option("--check <file.csv>", "validate a weather file against the site's sun instead of generating one")
+    .option("--json", "print the summary as JSON")
+    .addHelpText(
+      "after",
+      `
+Examples:
+  lightfold weather --site configs/sites/brevenmark.site.json --year 2027 --seed 7 --out brevenmark-2027.csv
+  lightfold weather --site configs/sites/nordvik-fjell.site.json --check my-measured-year.csv
+
+CSV format: comment lines start with #; header time,ghi_wm2,dni_wm2,dhi_wm2[,albedo]; time is ISO-8601
+with its offset (2027-06-01T12:00:00+01:00) and marks the START of the hour; the sun is evaluated at
+mid-hour. Synthetic years: Spencer eccentricity, Ineichen–Perez clear sky (Linke turbidity from the
+site), daily clearness as a first-order autoregression around monthlyClearness, hourly TAG fluctuation,
+Erbs diffuse fraction.`,
+    )
+    .action((opts: { site: string; year: string; seed: string; out?: string; check?: string; json?: boolean }) => {
+      const site = readSiteFile(opts.site);
+      if (opts.check) {
+        const w = parseWeatherCsv(readFileSyncOr(opts.check), opts.check);
+        checkAgainstSun(w, sunTrack(w.hourStartUtcMs, site.latitudeDeg, site.longitudeDeg));
+        const full = w.hourStartUtcMs.length === 8760 || w.hourStartUtcMs.length === 8784;
+        const summary = { file: opts.check, hours: w.hourStartUtcMs.length, fullYear: full, warnings: w.warnings };
+        if (opts.json) process.stdout.write(JSON.stringify(summary, null, 2) + "\n");
+        else {
+          process.stdout.write(`${opts.check}: ${summary.hours} hourly records, ${full ? "a full year" : "NOT a full year (a yield needs 8760 or 8784)"}\n`);
+          for (const x of w.warnings) process.stdout.write(`warning: ${x}\n`);
+        }
+        return;
+      }
+      const year = intOption(opts.year, "--year", 2027);
+      const seed = intOption(opts.seed, "--seed", 7);
+      const w = syntheticWeather(site, year, seed);
+      const comments = [
+        `lightfold ${toolVersion()} synthetic weather: site "${site.name}" (${site.latitudeDeg}°, ${site.longitudeDeg}°, ${site.elevationM} m), year ${year}, seed ${seed}`,
+        "hour stamps = start of the hour in local standard time; irradiance = hourly mean, W/m²",
+      ];
+      const csv = weatherToCsv(w, site.utcOffsetHours, formatUtcOffset(site.utcOffsetHours), comments);
+      if (!opts.out) {
+        process.stdout.write(csv);
+        return;
+      }
+      writeFileAtomic(opts.out, csv);
+      const months = monthlySummary(site, w);
+      if (opts.json) {
+        process.stdout.write(JSON.stringify({ file: opts.out, site: site.name, year, seed, hours: w.ghiWm2.length, months }, null, 2) + "\n");
+        return;
+      }
+      const total = months.reduce((a, m) => a + m.ghiKWhM2, 0);
+      const lines = [`wrote ${opts.out}: ${w.ghiWm2.length} hours, GHI ${total.toFixed(1)} kWh/m²`, "month  target K̄T  realised K̄T  GHI kWh/m²"];
+      for (const m of months) lines.push(`${m.month}    ${m.targetKt.toFixed(3).padStart(7)}  ${m.kt.toFixed(3).padStart(11)}  ${m.ghiKWhM2.toFixed(1).padStart(10)}`);
+      process.stdout.write(lines.join("\n") + "\n");
+    });
+}
+
+function readFileSyncOr(path: string): string {
+  try {
+    return readFileSync(path, "utf8");
+  } catch {
+    throw new InputError(`cannot read weather file ${path}`);
+  }
+}

@@ -1,0 +1,148 @@
+import type { ResponseMatrix } from "../response/responseMatrix.js";
+import type { Site } from "../site/site.js";
+import type { SkyModel } from "../sky/transposition.js";
+import type { YieldResult } from "./annualYield.js";
+import type { Benefit } from "./compare.js";
+import type { YearContext } from "./yearContext.js";
+
+export const YIELD_KIND = "lightfold.yield";
+export const COMPARE_KIND = "lightfold.compare";
+export const YIELD_FORMAT_VERSION = 1;
+
+const MONTHS = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
+const r = (x: number, digits: number): number => Number(x.toFixed(digits));
+
+export function matrixInfo(m: ResponseMatrix, file: string, channel: string): Record<string, unknown> {
+  return { file, studyName: m.studyName, studyHash: m.studyHash, combo: m.combo, channel, thetaDeg: m.thetaDeg, phiMode: m.phiMode };
+}
+
+export function siteInfo(s: Site): Record<string, unknown> {
+  return { name: s.name, latitudeDeg: s.latitudeDeg, longitudeDeg: s.longitudeDeg, elevationM: s.elevationM, utcOffsetHours: s.utcOffsetHours };
+}
+
+export function weatherInfo(ctx: YearContext): Record<string, unknown> {
+  let g = 0, b = 0, d = 0;
+  for (let i = 0; i < ctx.nHours; i++) { g += ctx.ghiWm2[i]!; b += ctx.dniWm2[i]!; d += ctx.dhiWm2[i]!; }
+  return { source: ctx.weatherSource, hours: ctx.nHours, ghiKWhM2: r(g / 1000, 2), dniKWhM2: r(b / 1000, 2), dhiKWhM2: r(d / 1000, 2), warnings: ctx.warnings };
+}
+
+/** One plane's result as plain JSON. */
+export function planeResultJson(y: YieldResult): Record<string, unknown> {
+  const parts = (p: YieldResult["chargeByPartAhM2"], digits: number): Record<string, number> =>
+    Object.fromEntries(Object.entries(p).map(([k, v]) => [k, r(v, digits)]));
+  return {
+    tiltDeg: y.plane.tiltDeg,
+    azimuthDeg: y.plane.azimuthDeg,
+    textureRotationDeg: y.plane.textureRotationDeg,
+    chargeAhM2: r(y.chargeAhM2, 2),
+    chargeStdErrAhM2: r(y.chargeStdErrAhM2, 3),
+    poaKWhM2: r(y.poaKWhM2, 3),
+    relativeToNormal: r(y.relativeToNormal, 5),
+    normalIncidenceAPerW: r(y.normalIncidenceAPerW, 6),
+    monthly: y.monthlyChargeAhM2.map((q, i) => ({ month: i + 1, name: MONTHS[i], chargeAhM2: r(q, 2), poaKWhM2: r(y.monthlyPoaKWhM2[i]!, 3) })),
+    chargeByPartAhM2: parts(y.chargeByPartAhM2, 2),
+    poaByPartKWhM2: parts(y.poaByPartKWhM2, 3),
+  };
+}
+
+/** `<out>/yield/yield-<site>.json` (shape documented in docs/contracts.md). */
+export function yieldJson(args: {
+  toolVersion: string; matrix: Record<string, unknown>; site: Site; ctx: YearContext; skyModel: SkyModel; results: YieldResult[]; best?: YieldResult;
+}): Record<string, unknown> {
+  const out: Record<string, unknown> = {
+    kind: YIELD_KIND,
+    formatVersion: YIELD_FORMAT_VERSION,
+    toolVersion: args.toolVersion,
+    matrix: args.matrix,
+    site: siteInfo(args.site),
+    weather: weatherInfo(args.ctx),
+    skyModel: args.skyModel,
+    units: { charge: "A·h/m²", insolation: "kWh/m²", normalIncidence: "A/W" },
+    results: args.results.map(planeResultJson),
+  };
+  if (args.best) out.best = { tiltDeg: args.best.plane.tiltDeg, azimuthDeg: args.best.plane.azimuthDeg, chargeAhM2: r(args.best.chargeAhM2, 2) };
+  return out;
+}
+
+export interface CompareRow {
+  site: string;
+  a: YieldResult;
+  b: YieldResult;
+  benefit: Benefit;
+}
+
+/** `<out>/yield/compare.json`. */
+export function compareJson(args: {
+  toolVersion: string; matrices: Record<string, unknown>[]; skyModel: SkyModel; sites: Record<string, unknown>[]; weather: Record<string, unknown>[]; rows: CompareRow[];
+}): Record<string, unknown> {
+  return {
+    kind: COMPARE_KIND,
+    formatVersion: YIELD_FORMAT_VERSION,
+    toolVersion: args.toolVersion,
+    skyModel: args.skyModel,
+    matrices: args.matrices,
+    sites: args.sites,
+    weather: args.weather,
+    units: { charge: "A·h/m²", benefit: "%", insolation: "kWh/m²" },
+    rows: args.rows.map((row) => ({
+      site: row.site,
+      tiltDeg: row.a.plane.tiltDeg,
+      azimuthDeg: row.a.plane.azimuthDeg,
+      poaKWhM2: r(row.a.poaKWhM2, 3),
+      chargeAAhM2: r(row.a.chargeAhM2, 2),
+      chargeAStdErrAhM2: r(row.a.chargeStdErrAhM2, 3),
+      chargeBAhM2: r(row.b.chargeAhM2, 2),
+      chargeBStdErrAhM2: r(row.b.chargeStdErrAhM2, 3),
+      benefitPct: r(row.benefit.benefitPct, 4),
+      benefitStdErrPct: r(row.benefit.benefitStdErrPct, 4),
+    })),
+  };
+}
+
+const pad = (s: string, n: number): string => s.padStart(n);
+
+/** Plain-text table of a yield run (one row per plane) and the best plane. */
+export function formatYieldTable(siteName: string, skyModel: SkyModel, results: YieldResult[], best?: YieldResult): string {
+  const lines = [`site ${siteName}, sky model ${skyModel}`, ""];
+  lines.push(`${pad("tilt°", 6)} ${pad("azim°", 6)} ${pad("POA kWh/m²", 11)} ${pad("charge A·h/m²", 14)} ${pad("± (MC)", 8)} ${pad("rel. normal", 11)}`);
+  for (const y of results) {
+    lines.push(
+      `${pad(y.plane.tiltDeg.toFixed(1), 6)} ${pad(y.plane.azimuthDeg.toFixed(1), 6)} ${pad(y.poaKWhM2.toFixed(1), 11)} ${pad(y.chargeAhM2.toFixed(0), 14)} ${pad(y.chargeStdErrAhM2.toFixed(0), 8)} ${pad(y.relativeToNormal.toFixed(4), 11)}`,
+    );
+  }
+  if (results.length === 1) {
+    const y = results[0]!;
+    lines.push("", "month   POA kWh/m²   charge A·h/m²");
+    y.monthlyChargeAhM2.forEach((q, i) => lines.push(`${MONTHS[i]}   ${pad(y.monthlyPoaKWhM2[i]!.toFixed(1), 10)}   ${pad(q.toFixed(0), 13)}`));
+  }
+  if (best && results.length > 1) {
+    lines.push("", `best: tilt ${best.plane.tiltDeg}°, azimuth ${best.plane.azimuthDeg}° → ${best.chargeAhM2.toFixed(0)} A·h/m² (POA ${best.poaKWhM2.toFixed(1)} kWh/m²)`);
+  }
+  lines.push("", "rel. normal = charge / (POA insolation × current per W/m² of AM1.5G light at normal incidence)");
+  return lines.join("\n") + "\n";
+}
+
+export function formatCompareTable(labelA: string, labelB: string, rows: CompareRow[]): string {
+  const lines = [`texture benefit of A = ${labelA} over B = ${labelB} (yearly absorbed charge)`, ""];
+  lines.push(`${"site".padEnd(16)} ${pad("tilt°", 6)} ${pad("POA kWh/m²", 11)} ${pad("A A·h/m²", 10)} ${pad("B A·h/m²", 10)} ${pad("benefit %", 10)} ${pad("± %", 7)}`);
+  for (const row of rows) {
+    lines.push(
+      `${row.site.slice(0, 16).padEnd(16)} ${pad(row.a.plane.tiltDeg.toFixed(1), 6)} ${pad(row.a.poaKWhM2.toFixed(1), 11)} ${pad(row.a.chargeAhM2.toFixed(0), 10)} ${pad(row.b.chargeAhM2.toFixed(0), 10)} ${pad(row.benefit.benefitPct.toFixed(3), 10)} ${pad(row.benefit.benefitStdErrPct.toFixed(3), 7)}`,
+    );
+  }
+  lines.push("", "± = Monte Carlo standard error from both matrices' stderr (independent, linear propagation)");
+  return lines.join("\n") + "\n";
+}
+
+/** Hourly CSV: time (local standard time with offset), sun, incidence, POA and current. */
+export function hourlyCsv(ctx: YearContext, y: YieldResult, offsetLabel: string): string {
+  const h = y.hourly!;
+  const out = ["time,zenith_deg,azimuth_deg,incidence_deg,ghi_wm2,dni_wm2,dhi_wm2,poa_wm2,current_am2"];
+  const off = ctx.utcOffsetHours * 3_600_000;
+  for (let i = 0; i < ctx.nHours; i++) {
+    const t = new Date(ctx.hourStartUtcMs[i]! + off).toISOString().slice(0, 19) + offsetLabel;
+    const inc = Number.isNaN(h.incidenceDeg[i]!) ? "" : h.incidenceDeg[i]!.toFixed(2);
+    out.push(`${t},${ctx.zenithDeg[i]!.toFixed(3)},${ctx.azimuthDeg[i]!.toFixed(3)},${inc},${ctx.ghiWm2[i]!.toFixed(1)},${ctx.dniWm2[i]!.toFixed(1)},${ctx.dhiWm2[i]!.toFixed(1)},${h.poaWm2[i]!.toFixed(2)},${h.currentAm2[i]!.toFixed(3)}`);
+  }
+  return out.join("\n") + "\n";
+}
