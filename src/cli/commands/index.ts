@@ -9,6 +9,9 @@ import * as materialsCmd from "./materials.js";
 import * as filmCmd from "./film.js";
 import * as clusterCmd from "./cluster.js";
 import * as reportCmd from "./report.js";
+import * as weatherCmd from "./weather.js";
+import * as yieldCmd from "./yield.js";
+import * as compareCmd from "./compare.js";
 
 /** A CLI verb: adds itself (options, help with examples, action) to the program. */
 export interface CommandModule {
@@ -16,4 +19,4 @@ export interface CommandModule {
 }
 
 // Each verb's module is listed here once; order = order in `lightfold --help`.
-export const commandModules: CommandModule[] = [checkCmd, sweepCmd, mergeCmd, materialsCmd, filmCmd, exportCmd, spectralCmd, convergeCmd, clusterCmd, reportCmd];
+export const commandModules: CommandModule[] = [checkCmd, sweepCmd, mergeCmd, materialsCmd, filmCmd, exportCmd, spectralCmd, convergeCmd, clusterCmd, reportCmd, weatherCmd, yieldCmd, compareCmd];
