@@ -5,6 +5,10 @@ export const NO_HIT = -1;
 /** Returned when the grid walk exceeds its step budget (a ray running parallel to the base plane). */
 export const LOST = -2;
 
+/** Slots of a hit query (see meshHit). */
+export const Q_OX = 0, Q_OY = 1, Q_OZ = 2, Q_DX = 3, Q_DY = 4, Q_DZ = 5, Q_LIMIT = 6, Q_T = 7;
+export const Q_LENGTH = 8;
+
 const MAX_STEPS = 1 << 20;
 /** Edge tolerance relative to the tile size: rays through shared edges must not slip between triangles. */
 const EDGE_TOL_REL = 1e-10;
@@ -16,21 +20,19 @@ const EDGE_TOL_REL = 1e-10;
  * triangles whose outward normal it travels along (n·d > 0); from above the opposite. That sign test
  * also keeps a ray from hitting the triangle it has just left. Hits must lie within t ∈ (0, tLimit].
  *
- * Returns the distance t (in units of the direction vector, here µm), NO_HIT or LOST; on a hit the
- * triangle index is written to hitTri[0].
+ * The query q holds [ox, oy, oz, dx, dy, dz, tLimit, t] (slots Q_*): numbers travel in a typed
+ * array, and the result is an integer, so the hot path allocates no boxed doubles. Returns the
+ * triangle index (≥ 0) with the distance t (in units of the direction vector, here µm) in q[Q_T],
+ * or NO_HIT / LOST.
  */
-export function meshHit(
-  s: SurfaceTile,
-  ox: number,
-  oy: number,
-  oz: number,
-  dx: number,
-  dy: number,
-  dz: number,
-  fromBelow: boolean,
-  tLimit: number,
-  hitTri: Int32Array,
-): number {
+export function meshHit(s: SurfaceTile, q: Float64Array, fromBelow: boolean): number {
+  const ox = q[Q_OX];
+  const oy = q[Q_OY];
+  const oz = q[Q_OZ];
+  const dx = q[Q_DX];
+  const dy = q[Q_DY];
+  const dz = q[Q_DZ];
+  const tLimit = q[Q_LIMIT];
   const gx = s.gx;
   const gy = s.gy;
   const lx = s.lxUm;
@@ -90,8 +92,8 @@ export function meshHit(
       bestTri = t0;
     }
     if (bestTri >= 0) {
-      hitTri[0] = bestTri;
-      return best;
+      q[Q_T] = best;
+      return bestTri;
     }
     if (tCellEnd >= tLimit) return NO_HIT;
     // Step to the next cell, wrapping into the neighbouring tile copy.

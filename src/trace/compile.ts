@@ -3,6 +3,7 @@ import { buildInterfaceTable } from "../optics/interfaceTable.js";
 import type { FilmLayer, NK } from "../optics/types.js";
 import type { Material } from "../materials/types.js";
 import { buildSurface } from "../geometry/textures.js";
+import { Q_LENGTH } from "../geometry/surfaceHit.js";
 import { planarTile, SURFACE_LAMBERTIAN, type SurfaceTile } from "../geometry/surfaceTile.js";
 import { isIdealRear, type BoundaryKind, type FilmSpec, type StackSpec, type TextureSpec } from "../study/stackTypes.js";
 import { channelNamesOfStack } from "./channels.js";
@@ -181,7 +182,7 @@ export function compileStack(
     scratchRow: new Float64Array(4 + 2 * 64),
     contrib: new Float64Array(channels.length),
     state: new Float64Array(32),
-    hitTri: new Int32Array(1),
+    query: new Float64Array(Q_LENGTH),
   };
 }
 

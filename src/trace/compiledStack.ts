@@ -64,5 +64,6 @@ export interface CompiledStack {
   scratchRow: Float64Array;
   contrib: Float64Array;
   state: Float64Array;
-  hitTri: Int32Array;
+  /** Hit query of meshHit (Q_* slots). */
+  query: Float64Array;
 }

@@ -1,7 +1,7 @@
 import { InputError } from "../util/errors.js";
 import type { RandomStream } from "../random/stream.js";
 import { lookupInterface } from "../optics/interfaceTable.js";
-import { LOST, NO_HIT, meshHit } from "../geometry/surfaceHit.js";
+import { LOST, NO_HIT, Q_DX, Q_DY, Q_DZ, Q_LIMIT, Q_OX, Q_OY, Q_OZ, Q_T, meshHit } from "../geometry/surfaceHit.js";
 import { SURFACE_LAMBERTIAN, SURFACE_MESH, TRI_STRIDE, type SurfaceTile } from "../geometry/surfaceTile.js";
 import {
   REAR_IDEAL_LAMBERTIAN,
@@ -15,7 +15,13 @@ export type Polarization = "unpolarized" | "s" | "p";
 
 // Ray state slots in cs.state (one ray at a time; nothing allocated per ray or event).
 const X = 0, Y = 1, Z = 2, DX = 3, DY = 4, DZ = 5, EX = 6, EY = 7, EZ = 8;
-const W = 9, TAU = 10, PATH = 11, NX = 12, NY = 13, NZ = 14, ANALOG = 15;
+const W = 9, TAU = 10, PATH = 11, NX = 12, NY = 13, NZ = 14, ANALOG = 15, T = 16;
+// Polarisation update inputs: s vector and the two amplitudes (see setPolarization).
+const SX = 17, SY = 18, SZ = 19, PA = 20, PB = 21;
+// Doubles travel through these slots, never as arguments or return values of non-inlined
+// functions, so the hot path allocates no boxed numbers.
+/** Search result: a hit, its distance in st[T]. */
+const HIT = 0;
 
 // Interface outcomes.
 const REFLECT = 0;
@@ -116,11 +122,11 @@ function traceRay(cs: CompiledStack, sinT: number, cosT: number, phi: number, po
     }
     if (m === ABS) {
       // In the absorber: the front texture first (rays going up, or still inside its slab).
-      let t = frontSearch(cs, st, true);
-      if (t === LOST) break;
-      if (t >= 0) {
-        if (absorbAlong(cs, st, ABS, t, rng)) return events;
-        advance(st, t);
+      let found = frontSearch(cs, st, true);
+      if (found === LOST) break;
+      if (found === HIT) {
+        if (absorbAlong(cs, st, ABS, rng)) return events;
+        advance(st);
         events++;
         if (frontKind === SURFACE_LAMBERTIAN) {
           if (lambertianFrontFromBelow(cs, st, rng)) m = nL;
@@ -132,11 +138,11 @@ function traceRay(cs: CompiledStack, sinT: number, cosT: number, phi: number, po
         continue;
       }
       // Travelling down to the rear.
-      t = rearSearch(cs, st);
-      if (t === LOST) break;
-      if (t === NO_HIT) continue; // left the rear texture's slab upward
-      if (absorbAlong(cs, st, ABS, t, rng)) return events;
-      advance(st, t);
+      found = rearSearch(cs, st);
+      if (found === LOST) break;
+      if (found === NO_HIT) continue; // left the rear texture's slab upward
+      if (absorbAlong(cs, st, ABS, rng)) return events;
+      advance(st);
       events++;
       if (rearKind === REAR_IDEAL_MIRROR || rearKind === REAR_IDEAL_LAMBERTIAN) {
         if (idealRear(cs, st, rng)) return events;
@@ -147,11 +153,11 @@ function traceRay(cs: CompiledStack, sinT: number, cosT: number, phi: number, po
     }
     if (m === nL) {
       // The medium touching the front texture.
-      const t = frontSearch(cs, st, false);
-      if (t === LOST) break;
-      if (t >= 0) {
-        if (absorbAlong(cs, st, m, t, rng)) return events;
-        advance(st, t);
+      const found = frontSearch(cs, st, false);
+      if (found === LOST) break;
+      if (found === HIT) {
+        if (absorbAlong(cs, st, m, rng)) return events;
+        advance(st);
         events++;
         if (frontKind === SURFACE_LAMBERTIAN) {
           // Ideal randomiser: everything enters the absorber, in a Lambertian direction.
@@ -173,9 +179,9 @@ function traceRay(cs: CompiledStack, sinT: number, cosT: number, phi: number, po
         contrib[cs.chR] += st[W];
         return events;
       }
-      const t = (cs.layerTopZUm[m] - st[Z]) / vz;
-      if (absorbAlong(cs, st, m, t, rng)) return events;
-      advance(st, t);
+      st[T] = (cs.layerTopZUm[m] - st[Z]) / vz;
+      if (absorbAlong(cs, st, m, rng)) return events;
+      advance(st);
       st[Z] = cs.layerTopZUm[m];
       events++;
       setNormal(st, 0, 0, 1);
@@ -183,9 +189,9 @@ function traceRay(cs: CompiledStack, sinT: number, cosT: number, phi: number, po
       if (out === DIED) return events;
       if (out === TRANSMIT) m--;
     } else if (vz < 0) {
-      const t = (cs.layerTopZUm[m + 1] - st[Z]) / vz;
-      if (absorbAlong(cs, st, m, t, rng)) return events;
-      advance(st, t);
+      st[T] = (cs.layerTopZUm[m + 1] - st[Z]) / vz;
+      if (absorbAlong(cs, st, m, rng)) return events;
+      advance(st);
       st[Z] = cs.layerTopZUm[m + 1];
       events++;
       setNormal(st, 0, 0, 1);
@@ -201,7 +207,9 @@ function traceRay(cs: CompiledStack, sinT: number, cosT: number, phi: number, po
   return events;
 }
 
-function advance(st: Float64Array, t: number): void {
+/** Moves the ray by st[T]. */
+function advance(st: Float64Array): void {
+  const t = st[T];
   st[X] += t * st[DX];
   st[Y] += t * st[DY];
   st[Z] += t * st[DZ];
@@ -214,13 +222,14 @@ function setNormal(st: Float64Array, nx: number, ny: number, nz: number): void {
 }
 
 /**
- * Beer–Lambert along a straight path of length lenUm in medium m. Analog: the ray carries an
+ * Beer–Lambert along a straight path of length st[T] (µm) in medium m. Analog: the ray carries an
  * exponentially distributed optical depth budget (TAU) and dies where it runs out. Expected value:
  * the weight falls by exp(−αL) and the difference is tallied; below the roulette weight the ray
  * turns analog (its remaining weight survives or is absorbed whole: unbiased, and each ray's
  * channels still sum to 1). Returns true when the ray was absorbed.
  */
-function absorbAlong(cs: CompiledStack, st: Float64Array, m: number, lenUm: number, rng: RandomStream): boolean {
+function absorbAlong(cs: CompiledStack, st: Float64Array, m: number, rng: RandomStream): boolean {
+  const lenUm = st[T];
   const alpha = cs.mediumAlphaPerUm[m];
   const inAbsorber = m === cs.nLayers + 1;
   const w = st[W];
@@ -271,12 +280,12 @@ function frontSearch(cs: CompiledStack, st: Float64Array, fromBelow: boolean): n
     if (fromBelow ? dz > 0 : dz < 0) {
       setNormal(st, 0, 0, 1);
       const t = -z / dz;
-      return t > 0 ? t : 0;
+      st[T] = t > 0 ? t : 0;
+      return HIT;
     }
     return NO_HIT;
   }
-  const t = tileSearch(tile, st[X], st[Y], z, st[DX], st[DY], dz, fromBelow, st, cs.hitTri);
-  return t;
+  return tileSearch(tile, st, cs.query, fromBelow, false, 0);
 }
 
 /**
@@ -292,35 +301,32 @@ function rearSearch(cs: CompiledStack, st: Float64Array): number {
     if (dz < 0) {
       setNormal(st, 0, 0, 1);
       const t = (-W_ - st[Z]) / dz;
-      return t > 0 ? t : 0;
+      st[T] = t > 0 ? t : 0;
+      return HIT;
     }
     return NO_HIT;
   }
-  const t = tileSearch(tile, st[X], st[Y], -(st[Z] + W_), st[DX], st[DY], -dz, true, st, cs.hitTri);
-  if (t >= 0) {
+  const found = tileSearch(tile, st, cs.query, true, true, W_);
+  if (found === HIT) {
     st[NX] = -st[NX];
     st[NY] = -st[NY];
   }
-  return t;
+  return found;
 }
 
 /**
  * Hit search on a mesh tile in its local frame (z = height, outward positive; xy rotated by the
- * texture orientation and wrapped into the tile). Writes the outward normal (xy rotated back) to
+ * texture orientation and wrapped into the tile) for the ray in the state; distance → st[T]. Writes the outward normal (xy rotated back) to
  * the state. Rays heading into the surface must hit it: a miss there is LOST.
  */
-function tileSearch(
-  tile: SurfaceTile,
-  x: number,
-  y: number,
-  zl: number,
-  dx: number,
-  dy: number,
-  dzl: number,
-  fromBelow: boolean,
-  st: Float64Array,
-  hitTri: Int32Array,
-): number {
+function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBelow: boolean, rear: boolean, thicknessUm: number): number {
+  const x = st[X];
+  const y = st[Y];
+  const dx = st[DX];
+  const dy = st[DY];
+  // The rear tile's frame has z flipped: local z = −(z + W).
+  const zl = rear ? -(st[Z] + thicknessUm) : st[Z];
+  const dzl = rear ? -st[DZ] : st[DZ];
   const c = tile.cosRot;
   const s = tile.sinRot;
   const dxl = c * dx + s * dy;
@@ -356,15 +362,23 @@ function tileSearch(
   let py = -s * x + c * y + t0 * dyl;
   px -= lx * Math.floor(px / lx);
   py -= ly * Math.floor(py / ly);
-  const t = meshHit(tile, px, py, zl + t0 * dzl, dxl, dyl, dzl, fromBelow, tLimit, hitTri);
-  if (t < 0) return t === NO_HIT && !mustHit ? NO_HIT : LOST;
-  const o = hitTri[0] * TRI_STRIDE;
+  q[Q_OX] = px;
+  q[Q_OY] = py;
+  q[Q_OZ] = zl + t0 * dzl;
+  q[Q_DX] = dxl;
+  q[Q_DY] = dyl;
+  q[Q_DZ] = dzl;
+  q[Q_LIMIT] = tLimit;
+  const tri = meshHit(tile, q, fromBelow);
+  if (tri < 0) return tri === NO_HIT && !mustHit ? NO_HIT : LOST;
+  const o = tri * TRI_STRIDE;
   const nxl = tile.tri[o];
   const nyl = tile.tri[o + 1];
   st[NX] = c * nxl - s * nyl;
   st[NY] = s * nxl + c * nyl;
   st[NZ] = tile.tri[o + 2];
-  return t0 + t;
+  st[T] = t0 + q[Q_T];
+  return HIT;
 }
 
 /**
@@ -469,7 +483,12 @@ function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: CompiledInte
     st[DY] = rdy;
     st[DZ] = rdz;
     // E' = √Rs·Es·s − √Rp·Ep·p_r (keeps the line of polarisation at normal incidence).
-    setPolarization(st, sx, sy, sz, rdx, rdy, rdz, Es * Math.sqrt(Rs), -Ep * Math.sqrt(Rp));
+    st[SX] = sx;
+    st[SY] = sy;
+    st[SZ] = sz;
+    st[PA] = Es * Math.sqrt(Rs);
+    st[PB] = -Ep * Math.sqrt(Rp);
+    setPolarization(st);
     return REFLECT;
   }
   // Snell (real indices): t = η d + (η cosθi − cosθt) n_i, n_i the normal facing the incoming ray.
@@ -487,12 +506,18 @@ function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: CompiledInte
   st[DX] = tx;
   st[DY] = ty;
   st[DZ] = tz;
-  setPolarization(st, sx, sy, sz, tx, ty, tz, Es * Math.sqrt(Ts), Ep * Math.sqrt(Tp));
+  st[SX] = sx;
+  st[SY] = sy;
+  st[SZ] = sz;
+  st[PA] = Es * Math.sqrt(Ts);
+  st[PB] = Ep * Math.sqrt(Tp);
+  setPolarization(st);
   return TRANSMIT;
 }
 
-/** E = a·s + b·(s × d), normalised; falls back to s when both parts vanish. */
-function setPolarization(st: Float64Array, sx: number, sy: number, sz: number, dx: number, dy: number, dz: number, a: number, b: number): void {
+/** E = a·s + b·(s × d) from the state slots (d = the new direction), normalised; s when both vanish. */
+function setPolarization(st: Float64Array): void {
+  const sx = st[SX], sy = st[SY], sz = st[SZ], dx = st[DX], dy = st[DY], dz = st[DZ], a = st[PA], b = st[PB];
   let ex = a * sx + b * (sy * dz - sz * dy);
   let ey = a * sy + b * (sz * dx - sx * dz);
   let ez = a * sz + b * (sx * dy - sy * dx);
