@@ -129,6 +129,46 @@ describe("buildInterfaceTable(upper, films, lower, wavelengthNm, nCos)", () => {
     expect(Array.from(a)).toEqual(Array.from(b));
   });
 
+  it("interpolated rows conserve energy and are continuous across the critical angle", () => {
+    // linear interpolation of rows that each sum to 1 sums to 1; the critical angle is a band node
+    const films: FilmLayer[] = [{ n: 2.2, k: 0.05, thicknessNm: 60 }];
+    const t = buildInterfaceTable(glass, films, si600, 450, 512);
+    const out = new Float64Array(t.stride);
+    for (let j = 0; j <= 3000; j++) {
+      const c = j / 3000;
+      for (const dir of [DIR_DOWN, DIR_UP]) {
+        lookupInterface(t, dir, c, out);
+        expect(rowSum(out, 0, t.stride, 0, 1)).toBeCloseTo(1, 13);
+        expect(rowSum(out, 0, t.stride, 1, 1)).toBeCloseTo(1, 13);
+      }
+    }
+    const cc = t.cosCritUp;
+    const below = new Float64Array(t.stride);
+    const above = new Float64Array(t.stride);
+    lookupInterface(t, DIR_UP, cc - 1e-12, below);
+    lookupInterface(t, DIR_UP, cc + 1e-12, above);
+    // on both sides the table follows the exact row (which itself moves as √(c − cc) above cc)
+    const ex = new Float64Array(t.stride);
+    for (const [c, got] of [[cc - 1e-12, below], [cc + 1e-12, above]] as const) {
+      interfaceRowInto(si600.n, films, glass, 450, c, cc, ex);
+      for (let k = 0; k < t.stride; k++) expect(Math.abs(got[k]! - ex[k]!)).toBeLessThan(1e-6);
+    }
+    lookupInterface(t, DIR_UP, cc, out);
+    expect(out[2]).toBe(0);
+  });
+
+  it("is finite exactly at a lossless critical angle and at grazing incidence", () => {
+    // at θc the exit medium's normal component vanishes (ηp = N²/(N cosθ) diverges): R = 1
+    const cc = Math.sqrt(1 - (1 / 1.5) ** 2);
+    for (const films of [[], [sinx75]]) {
+      const r = filmStack(1.5, films, air, 600, cc);
+      expect(r.Rs).toBeCloseTo(1, 12);
+      expect(r.Rp).toBeCloseTo(1, 12);
+      const g = filmStack(1.5, films, air, 600, 0);
+      expect([g.Rs, g.Rp, g.Ts, g.Tp]).toEqual([1, 1, 0, 0]);
+    }
+  });
+
   it("rejects a table with fewer than two rows", () => {
     expect(() => buildInterfaceTable(air, [], si600, 600, 1)).toThrow(RangeError);
   });
