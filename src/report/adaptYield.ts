@@ -1,6 +1,9 @@
-/** yield/*.json (from the yield and compare commands) → the report's yield, tilt-sweep and benefit parts. */
+/**
+ * yield/*.json (kinds "lightfold.yield" and "lightfold.compare", see docs/contracts.md) → the report's
+ * yield entries, tilt sweeps and texture-benefit rows.
+ */
 import type { BenefitRow, TiltSweep, YieldEntry } from "./inputs.js";
-import { numberArrayAt, numberAt, objectsAt, optNumberAt, stringAt, type Json } from "./fields.js";
+import { numberAt, objectAt, objectsAt, optNumberAt, stringAt, type Json } from "./fields.js";
 
 export interface YieldParts {
   yields: YieldEntry[];
@@ -8,56 +11,90 @@ export interface YieldParts {
   benefit: BenefitRow[];
 }
 
-function yieldEntry(o: Json, source: string, path: string): YieldEntry {
-  const p = (k: string) => (path ? `${path}.${k}` : k);
-  return {
-    stackLabel: stringAt(o, "stackLabel", source, p("stackLabel")),
-    siteName: stringAt(o, "siteName", source, p("siteName")),
-    tiltDeg: numberAt(o, "tiltDeg", source, p("tiltDeg")),
-    azimuthDeg: numberAt(o, "azimuthDeg", source, p("azimuthDeg")),
-    monthlyAhM2: numberArrayAt(o, "monthlyAhM2", source, p("monthlyAhM2"), 12),
-    annualAhM2: numberAt(o, "annualAhM2", source, p("annualAhM2")),
-    poaKwhM2: optNumberAt(o, "poaKwhM2", source, p("poaKwhM2")),
-    relativeToNormal: optNumberAt(o, "relativeToNormal", source, p("relativeToNormal")),
-  };
+/** A yield file with more planes than this is shown as a tilt curve only (no monthly bars per plane). */
+export const MAX_MONTHLY_PLANES = 4;
+
+/** Label of a matrix as the report names its stack: study name, plus the combination when swept. */
+export function matrixLabel(info: Json, source: string, path: string): string {
+  const name = stringAt(info, "studyName", source, `${path}.studyName`);
+  const combo = info.combo && typeof info.combo === "object" ? Object.entries(info.combo as Record<string, unknown>) : [];
+  return combo.length ? `${name} [${combo.map(([k, v]) => `${k} = ${String(v)}`).join(", ")}]` : name;
 }
 
-/** Dispatches on the file's `format`; null for files of another kind. */
-export function adaptYieldFile(raw: Json, source: string): YieldParts | null {
+interface Plane {
+  tiltDeg: number;
+  azimuthDeg: number;
+  chargeAhM2: number;
+  poaKWhM2?: number;
+  relativeToNormal?: number;
+  monthly: number[];
+}
+
+function readYield(raw: Json, source: string): YieldParts {
+  const stackLabel = matrixLabel(objectAt(raw, "matrix", source), source, "matrix");
+  const siteName = stringAt(objectAt(raw, "site", source), "name", source, "site.name");
+  const planes: Plane[] = objectsAt(raw, "results", source).map(({ item, path }) => {
+    const monthly = objectsAt(item, "monthly", source, `${path}.monthly`).map((m) => numberAt(m.item, "chargeAhM2", source, `${m.path}.chargeAhM2`));
+    return {
+      tiltDeg: numberAt(item, "tiltDeg", source, `${path}.tiltDeg`),
+      azimuthDeg: numberAt(item, "azimuthDeg", source, `${path}.azimuthDeg`),
+      chargeAhM2: numberAt(item, "chargeAhM2", source, `${path}.chargeAhM2`),
+      poaKWhM2: optNumberAt(item, "poaKWhM2", source, `${path}.poaKWhM2`),
+      relativeToNormal: optNumberAt(item, "relativeToNormal", source, `${path}.relativeToNormal`),
+      monthly,
+    };
+  });
   const parts: YieldParts = { yields: [], tiltSweeps: [], benefit: [] };
-  switch (raw.format) {
-    case "lightfold.yield":
-      parts.yields.push(yieldEntry(raw, source, ""));
-      return parts;
-    case "lightfold.compare":
-      parts.benefit.push(
-        ...objectsAt(raw, "rows", source).map(({ item, path }) => ({
-          siteName: stringAt(item, "siteName", source, `${path}.siteName`),
-          tiltDeg: numberAt(item, "tiltDeg", source, `${path}.tiltDeg`),
-          azimuthDeg: numberAt(item, "azimuthDeg", source, `${path}.azimuthDeg`),
-          stackA: stringAt(item, "stackA", source, `${path}.stackA`),
-          stackB: stringAt(item, "stackB", source, `${path}.stackB`),
-          annualAhM2A: numberAt(item, "annualAhM2A", source, `${path}.annualAhM2A`),
-          annualAhM2B: numberAt(item, "annualAhM2B", source, `${path}.annualAhM2B`),
-          benefitPct: numberAt(item, "benefitPct", source, `${path}.benefitPct`),
-          stderrPct: numberAt(item, "stderrPct", source, `${path}.stderrPct`),
-        })),
-      );
-      return parts;
-    case "lightfold.tiltSweep": {
-      const tiltDeg = numberArrayAt(raw, "tiltDeg", source);
-      const annual = numberArrayAt(raw, "annualAhM2", source, "annualAhM2", tiltDeg.length);
-      parts.tiltSweeps.push({
-        stackLabel: stringAt(raw, "stackLabel", source),
-        siteName: stringAt(raw, "siteName", source),
-        azimuthDeg: numberAt(raw, "azimuthDeg", source),
-        tiltDeg,
-        annualAhM2: annual,
-        bestTiltDeg: numberAt(raw, "bestTiltDeg", source),
-        bestAnnualAhM2: numberAt(raw, "bestAnnualAhM2", source),
-      });
-      return parts;
+  if (planes.length <= MAX_MONTHLY_PLANES) {
+    for (const p of planes) {
+      parts.yields.push({ stackLabel, siteName, tiltDeg: p.tiltDeg, azimuthDeg: p.azimuthDeg, monthlyAhM2: p.monthly, annualAhM2: p.chargeAhM2, poaKwhM2: p.poaKWhM2, relativeToNormal: p.relativeToNormal });
     }
+  }
+  // planes of one azimuth over three or more tilts make a tilt curve
+  for (const az of [...new Set(planes.map((p) => p.azimuthDeg))]) {
+    const row = planes.filter((p) => p.azimuthDeg === az).sort((a, b) => a.tiltDeg - b.tiltDeg);
+    if (new Set(row.map((p) => p.tiltDeg)).size < 3) continue;
+    let best = row[0]!;
+    for (const p of row) if (p.chargeAhM2 > best.chargeAhM2) best = p;
+    parts.tiltSweeps.push({
+      stackLabel,
+      siteName,
+      azimuthDeg: az,
+      tiltDeg: row.map((p) => p.tiltDeg),
+      annualAhM2: row.map((p) => p.chargeAhM2),
+      bestTiltDeg: best.tiltDeg,
+      bestAnnualAhM2: best.chargeAhM2,
+    });
+  }
+  return parts;
+}
+
+function readCompare(raw: Json, source: string): YieldParts {
+  const matrices = objectsAt(raw, "matrices", source);
+  const label = (i: number) => (matrices[i] ? matrixLabel(matrices[i]!.item, source, matrices[i]!.path) : i === 0 ? "A" : "B");
+  const stackA = label(0);
+  const stackB = label(1);
+  const benefit: BenefitRow[] = objectsAt(raw, "rows", source).map(({ item, path }) => ({
+    siteName: stringAt(item, "site", source, `${path}.site`),
+    tiltDeg: numberAt(item, "tiltDeg", source, `${path}.tiltDeg`),
+    azimuthDeg: numberAt(item, "azimuthDeg", source, `${path}.azimuthDeg`),
+    stackA,
+    stackB,
+    annualAhM2A: numberAt(item, "chargeAAhM2", source, `${path}.chargeAAhM2`),
+    annualAhM2B: numberAt(item, "chargeBAhM2", source, `${path}.chargeBAhM2`),
+    benefitPct: numberAt(item, "benefitPct", source, `${path}.benefitPct`),
+    stderrPct: numberAt(item, "benefitStdErrPct", source, `${path}.benefitStdErrPct`),
+  }));
+  return { yields: [], tiltSweeps: [], benefit };
+}
+
+/** Dispatches on the file's `kind`; null for files of another kind. */
+export function adaptYieldFile(raw: Json, source: string): YieldParts | null {
+  switch (raw.kind) {
+    case "lightfold.yield":
+      return readYield(raw, source);
+    case "lightfold.compare":
+      return readCompare(raw, source);
     default:
       return null;
   }

@@ -75,6 +75,15 @@ describe("renderReport(input) with user text that looks like markup", () => {
     const total = /<tr class="total"><td class="text">total \(incident ([0-9.]+)\)<\/td><td>([0-9.]+)<\/td>/.exec(table)!;
     expect(Number(total[2])).toBeCloseTo(Number(total[1]), 1);
   });
+  it("reads yield, tilt-sweep and comparison files and notes the ones of another kind", () => {
+    const input = loadReportInput([dir], { angleDeg: 0 });
+    expect(input.yields.map((y) => `${y.stackLabel}@${y.tiltDeg}`)).toEqual([`${XSS_NAME}@20`, `${XSS_NAME}@40`, "planar reference@20", "planar reference@40"]);
+    expect(input.tiltSweeps.map((t) => t.bestTiltDeg)).toEqual([40, 40]);
+    expect(input.benefit.map((b) => b.stackA)).toEqual([XSS_NAME, XSS_NAME]);
+    expect(rendered.html).toMatch(/Skipped [^<]*notes\.json: not a yield/);
+    const benefit = /<table class="benefit">(.*?)<\/table>/s.exec(rendered.html)![1]!;
+    expect(benefit.match(/<tr>/g)!.length).toBe(3); // header + two tilts
+  });
 });
 
 describe("sections without data", () => {
