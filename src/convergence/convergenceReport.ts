@@ -75,8 +75,8 @@ export function formatConvergenceTable(r: ConvergenceReport): string {
   lines.push(textTable(header, rows).trimEnd());
   lines.push("");
   lines.push(
-    `log-log slope vs rays: rms error ${r.slopes.rmsError.toFixed(3)}, |deviation| ${r.slopes.deviation.toFixed(3)}, ` +
-      `reported stderr ${r.slopes.stderr.toFixed(3)} (plain Monte Carlo: -0.5)`,
+    `log-log slope vs rays: rms error ${r.slopes.rmsError.toFixed(3)} (± ${r.slopes.rmsErrorSd.toFixed(3)} expected scatter), ` +
+      `|deviation| ${r.slopes.deviation.toFixed(3)}, reported stderr ${r.slopes.stderr.toFixed(3)} (plain Monte Carlo: -0.5)`,
   );
   if (r.targetError !== null && r.predictedRays !== null) {
     lines.push(`rays per ${r.raysPer} predicted for stderr ${r.targetError}: ${r.predictedRays} (N·(stderr/target)² from the largest step)`);

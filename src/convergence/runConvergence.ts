@@ -55,6 +55,11 @@ export interface ConvergenceResult {
     rmsError: number;
     /** d ln reported stderr / d ln N (expected −1/2). */
     stderr: number;
+    /**
+     * Expected sampling sd of the RMS-error slope for plain Monte Carlo: the RMS of R Gaussian errors
+     * has relative sd ≈ 1/√(2R), so sd(slope) ≈ (1/√(2R)) / √Σ(ln N − mean ln N)² (least squares).
+     */
+    rmsErrorSd: number;
   };
   targetError: number | null;
   /** Rays predicted for the target from the largest step (most reliable stderr); null without a target. */
@@ -64,6 +69,14 @@ export interface ConvergenceResult {
 /** Rays needed for a target error, from an estimate's stderr at N rays: N·(SE/target)² (SE ∝ N^−1/2). */
 export function predictRays(nRays: number, stderr: number, targetError: number): number {
   return Math.ceil(nRays * (stderr / targetError) ** 2);
+}
+
+/** Sampling sd of a log-log slope fitted to RMS errors of `replicas` runs at the ray counts n. */
+export function slopeSd(n: readonly number[], replicas: number): number {
+  const ln = n.map(Math.log);
+  const mean = ln.reduce((a, b) => a + b, 0) / ln.length;
+  const sxx = ln.reduce((a, b) => a + (b - mean) ** 2, 0);
+  return 1 / Math.sqrt(2 * replicas) / Math.sqrt(sxx);
 }
 
 /** Stream namespace of one convergence step and replica, and of the reference run. */
@@ -120,6 +133,7 @@ export function runConvergence(estimate: Estimator, o: ConvergenceOptions): Conv
       deviation: logLogSlope(n, steps.map((s) => Math.abs(s.deviation))),
       rmsError: logLogSlope(n, steps.map((s) => s.rmsError)),
       stderr: logLogSlope(n, steps.map((s) => s.stderr)),
+      rmsErrorSd: slopeSd(n, o.replicas),
     },
     targetError: o.targetError ?? null,
     predictedRays: o.targetError === undefined ? null : predictRays(last.nRays, last.stderr, o.targetError),

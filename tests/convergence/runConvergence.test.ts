@@ -58,6 +58,23 @@ describe("runConvergence(estimator, options)", () => {
     n.forEach((nr, k) => expect(Math.abs(pooledRms[k] / Math.sqrt((p * (1 - p)) / nr) - 1)).toBeLessThan(0.36));
   });
 
+  it("rmsErrorSd matches the seed-to-seed scatter of the fitted RMS-error slope", () => {
+    // 40 seeds, 8 replicas, 7 doublings: the empirical sd of the 40 slopes should equal the predicted
+    // (1/sqrt(2R))/sqrt(Σ(ln N - mean)²) within 4/sqrt(2·40) relative (sd of an sd estimate).
+    const p = 0.3;
+    const slopes: number[] = [];
+    let predicted = 0;
+    for (let seed = 100; seed < 140; seed++) {
+      const r = runConvergence(bernoulli(p, seed), { startRays: 50, steps: 7, replicas: 8, referenceRays: 0, reference: { value: p, stderr: 0, nRays: 0 } });
+      slopes.push(r.slopes.rmsError);
+      predicted = r.slopes.rmsErrorSd;
+    }
+    const m = slopes.reduce((a, b) => a + b, 0) / slopes.length;
+    const sd = Math.sqrt(slopes.reduce((a, b) => a + (b - m) ** 2, 0) / (slopes.length - 1));
+    expect(Math.abs(sd / predicted - 1)).toBeLessThan(4 / Math.sqrt(80));
+    expect(Math.abs(m + 0.5)).toBeLessThan((4 * predicted) / Math.sqrt(slopes.length));
+  });
+
   it("runs an independent reference, replicas on distinct streams, and predicts rays for a target", () => {
     const calls: string[] = [];
     const inner = bernoulli(0.5, 11);
