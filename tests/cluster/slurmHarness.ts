@@ -100,12 +100,12 @@ export async function sleep(ms: number): Promise<void> {
 }
 
 /** Polls until `done()` is true; throws after timeoutMs with what was last seen. */
-export async function waitFor<T>(what: string, timeoutMs: number, probe: () => Promise<T>, done: (v: T) => boolean): Promise<T> {
+export async function waitFor<T>(what: string, timeoutMs: number, probe: () => Promise<T>, done: (v: T) => boolean, intervalMs = 500): Promise<T> {
   const t0 = Date.now();
   let last: T = await probe();
   while (!done(last)) {
     if (Date.now() - t0 > timeoutMs) throw new Error(`timed out after ${timeoutMs} ms waiting for ${what}; last seen: ${show(last)}`);
-    await sleep(500);
+    await sleep(intervalMs);
     last = await probe();
   }
   return last;

@@ -1,0 +1,169 @@
+// Sharded sweeps on a real single-node Slurm cluster (slurm-wlm + munge, started by
+// scripts/slurm/start.sh): the generated job array + afterok merge must give the matrices of a
+// single-process sweep bit for bit, also after one array task is cancelled mid-run and re-run alone.
+// Source of the Slurm behaviour relied on: sbatch(1) (--array, --parsable, --dependency=afterok),
+// scancel(1) (JOBID_TASKID), squeue(1) (-t all), slurm.conf(5) (MinJobAge); Slurm 22.05 manual pages.
+import { execFile } from "node:child_process";
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from "node:fs";
+import { availableParallelism, tmpdir } from "node:os";
+import { join } from "node:path";
+import { promisify } from "node:util";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import {
+  jobStates,
+  readText,
+  repoRoot,
+  slurm,
+  slurmUnavailableReason,
+  startCluster,
+  stopClusterSync,
+  submit,
+  waitFor,
+  waitForJobEnd,
+  type TestCluster,
+} from "./slurmHarness.js";
+
+const runFile = promisify(execFile);
+const STUDY = join(repoRoot, "tests", "fixtures", "cluster", "tiny.study.json");
+const LIGHTFOLD = join(repoRoot, "bin", "lightfold.js");
+const SHARDS = 4;
+const JOB_TIMEOUT_MS = 150_000;
+
+const unavailable = slurmUnavailableReason();
+if (unavailable !== undefined) console.log(`[tests/cluster/slurm.test.ts] skipped: ${unavailable}`);
+
+async function lightfold(args: string[], env: NodeJS.ProcessEnv = process.env): Promise<{ code: number; stdout: string; stderr: string }> {
+  try {
+    const { stdout, stderr } = await runFile(process.execPath, [LIGHTFOLD, ...args], { env, encoding: "utf8", timeout: 120_000 });
+    return { code: 0, stdout, stderr };
+  } catch (err) {
+    const e = err as { code?: number; stdout?: string; stderr?: string };
+    return { code: typeof e.code === "number" ? e.code : -1, stdout: e.stdout ?? "", stderr: e.stderr ?? "" };
+  }
+}
+
+/** matrix.json of every combination of a run directory, by combination folder. */
+function matrices(runDir: string): Map<string, { mean: number[]; stderr: number[]; nRays: number[] }> {
+  const out = new Map<string, { mean: number[]; stderr: number[]; nRays: number[] }>();
+  for (const entry of readdirSync(runDir, { withFileTypes: true })) {
+    const file = join(runDir, entry.name, "matrix.json");
+    if (entry.isDirectory() && existsSync(file)) {
+      const m = JSON.parse(readFileSync(file, "utf8")) as { mean: number[]; stderr: number[]; nRays: number[] };
+      out.set(entry.name, { mean: m.mean, stderr: m.stderr, nRays: m.nRays });
+    }
+  }
+  return out;
+}
+
+function expectSameMatrices(actualDir: string, referenceDir: string): void {
+  const ref = matrices(referenceDir);
+  const got = matrices(actualDir);
+  expect([...got.keys()].sort()).toEqual([...ref.keys()].sort());
+  expect(ref.size).toBeGreaterThan(0);
+  for (const [combo, m] of ref) {
+    const g = got.get(combo)!;
+    // Bit-identical: JSON numbers round-trip doubles exactly, so equal arrays = equal doubles.
+    expect(g.mean, `${combo} mean`).toEqual(m.mean);
+    expect(g.stderr, `${combo} stderr`).toEqual(m.stderr);
+    expect(g.nRays, `${combo} nRays`).toEqual(m.nRays);
+  }
+}
+
+describe.skipIf(unavailable !== undefined)("sharded sweep on a real single-node Slurm cluster", () => {
+  let cluster: TestCluster | undefined;
+  const work = mkdtempSync(join(tmpdir(), "lf-cluster-test-"));
+  const refDir = join(work, "single");
+  const timings: Record<string, number> = {};
+
+  beforeAll(async () => {
+    cluster = await startCluster();
+    const t0 = Date.now();
+    const single = await lightfold(["sweep", STUDY, "--out", refDir]);
+    timings.singleProcessS = (Date.now() - t0) / 1000;
+    if (single.code !== 0) throw new Error(`single-process sweep failed (${single.code}): ${single.stderr}`);
+  }, 180_000);
+
+  afterAll(() => {
+    if (cluster !== undefined) console.log(stopClusterSync(cluster.dir).trim());
+    console.log(`[cluster test] wall times (s): ${JSON.stringify(timings)}`);
+    rmSync(work, { recursive: true, force: true });
+    if (cluster !== undefined) rmSync(cluster.dir, { recursive: true, force: true });
+  });
+
+  async function generate(outDir: string): Promise<{ submitScript: string; logDir: string }> {
+    const r = await lightfold([
+      "slurm-script", STUDY, "--shards", String(SHARDS), "--cpus-per-task", "1", "--time", "00:10:00", "--mem", "1G",
+      "--out-dir", outDir, "--json",
+    ]);
+    expect(r.stderr).toBe("");
+    expect(r.code).toBe(0);
+    const written = JSON.parse(r.stdout) as { submitScript: string; logDir: string };
+    return written;
+  }
+
+  it("a 4-task array plus the afterok merge gives the single-process matrices bit for bit", async () => {
+    const c = cluster!;
+    const outDir = join(work, "array");
+    const { submitScript, logDir } = await generate(outDir);
+    const t0 = Date.now();
+    const { arrayJob, mergeJob } = await submit(c, submitScript);
+    const arrayStates = await waitForJobEnd(c, arrayJob, JOB_TIMEOUT_MS);
+    const mergeStates = await waitForJobEnd(c, mergeJob, JOB_TIMEOUT_MS);
+    timings.fourShardArrayS = (Date.now() - t0) / 1000;
+    const logs = readdirSync(logDir).map((f) => `${f}:\n${readText(join(logDir, f))}`).join("\n");
+    expect([...arrayStates.entries()].sort(), logs).toEqual(
+      Array.from({ length: SHARDS }, (_, i) => [`${arrayJob}_${i + 1}`, "COMPLETED"]),
+    );
+    expect(mergeStates.get(mergeJob), logs).toBe("COMPLETED");
+    expectSameMatrices(join(outDir, "merged"), refDir);
+
+    // Each task's pool is what Slurm granted (SLURM_CPUS_PER_TASK=1), not the node's core count.
+    for (let k = 1; k <= SHARDS; k++) {
+      const out = readText(join(logDir, `lf-cluster-test-tiny_${arrayJob}_${k}.out`));
+      expect(out).toContain(`lightfold shard ${k}/${SHARDS} on`);
+      expect(out).toContain("with 1 CPUs");
+      // The sweep's own summary line: the pool it ran (from SLURM_CPUS_PER_TASK).
+      expect(out).toMatch(/ on 1 worker\(s\)/);
+    }
+    console.log(`[cluster test] node CPUs ${availableParallelism()}, each shard granted 1`);
+  }, 2 * JOB_TIMEOUT_MS);
+
+  it("a task cancelled mid-run, re-submitted alone, resumes and merges to the same matrices", async () => {
+    const c = cluster!;
+    const outDir = join(work, "cancelled");
+    const { submitScript, logDir } = await generate(outDir);
+    const victim = 2;
+    const journal = join(outDir, "shards", `shard-${victim}-of-${SHARDS}`, "journal.jsonl");
+    const partial = join(outDir, "shards", `shard-${victim}-of-${SHARDS}`, "partial.json");
+    const { arrayJob, mergeJob } = await submit(c, submitScript);
+
+    // Cancel the task once its journal holds finished batches but before the shard is done.
+    await waitFor("shard 2 to journal a batch", JOB_TIMEOUT_MS, async () => readText(journal).split("\n").filter((l) => l !== "").length, (n) => n >= 2, 100);
+    await slurm(c, "scancel", [`${arrayJob}_${victim}`]);
+    const states = await waitForJobEnd(c, arrayJob, JOB_TIMEOUT_MS);
+    expect(states.get(`${arrayJob}_${victim}`)).toBe("CANCELLED");
+    expect(existsSync(partial), "shard 2 finished before it was cancelled").toBe(false);
+    for (const k of [1, 3, 4]) expect(states.get(`${arrayJob}_${k}`)).toBe("COMPLETED");
+    const journalLinesAtCancel = readText(journal).split("\n").filter((l) => l !== "").length;
+
+    // The merge waits forever on a failed afterok; lightfold merge itself names the missing shard.
+    // (the controller re-evaluates dependencies on its next scheduling pass)
+    await waitFor("the merge to be marked DependencyNeverSatisfied", 30_000, () => jobStates(c, mergeJob),
+      (m) => m.get(mergeJob) === "PENDING:DependencyNeverSatisfied");
+    const early = await lightfold(["merge", outDir, "--out", join(outDir, "merged")]);
+    expect(early.code).toBe(2);
+    expect(early.stderr).toMatch(/missing shard 2 of 4 \(started but unfinished: 2\)/);
+    expect(existsSync(join(outDir, "merged"))).toBe(false);
+    await slurm(c, "scancel", [mergeJob]);
+
+    const again = await submit(c, submitScript, [String(victim)]);
+    const rerun = await waitForJobEnd(c, again.arrayJob, JOB_TIMEOUT_MS);
+    expect([...rerun.entries()]).toEqual([[`${again.arrayJob}_${victim}`, "COMPLETED"]]);
+    expect((await waitForJobEnd(c, again.mergeJob, JOB_TIMEOUT_MS)).get(again.mergeJob)).toBe("COMPLETED");
+    expect(journalLinesAtCancel).toBeGreaterThanOrEqual(2);
+    // The re-run took the batches journaled before the cancel instead of tracing them again.
+    const rerunLog = readText(join(logDir, `lf-cluster-test-tiny_${again.arrayJob}_${victim}.out`));
+    expect(rerunLog).toMatch(/rays traced \(\+[0-9.e+]+ from the journal\)/);
+    expectSameMatrices(join(outDir, "merged"), refDir);
+  }, 4 * JOB_TIMEOUT_MS);
+});
