@@ -5,6 +5,7 @@ import { toolVersion } from "../util/version.js";
 import { CONVERGENCE_FORMAT, CONVERGENCE_FORMAT_VERSION, type ConvergenceReport, type ConvergenceSubject } from "./convergenceReport.js";
 import { runConvergence, type Estimate, type Estimator } from "./runConvergence.js";
 import { pointEstimator, spectralEstimator } from "./traceEstimators.js";
+import { DEFAULT_ESTIMATOR, type Estimator as TraceEstimatorKind } from "../trace/index.js";
 
 export interface ConvergeRequest {
   comboLabel?: string;
@@ -22,6 +23,8 @@ export interface ConvergeRequest {
   /** Default: 16 × the largest step. */
   referenceRays?: number;
   targetError?: number;
+  /** Absorption sampling of the tracer (default: the tracer's default, "expected"). */
+  estimator?: TraceEstimatorKind;
 }
 
 /** Runs a convergence study of a loaded study with the real tracer (in this thread). */
@@ -32,10 +35,12 @@ export function buildConvergenceReport(loaded: LoadedStudy, req: ConvergeRequest
   }
   const study = combo.study;
   const phiDeg = req.phiDeg ?? (study.grid.phiMode === "averaged" ? null : study.grid.phiDeg[0]);
+  const tracerEstimator = req.estimator ?? DEFAULT_ESTIMATOR;
+  const compileOptions = { estimator: tracerEstimator };
   let estimator: Estimator;
   let subject: ConvergenceSubject;
   if (req.wavelengthNm !== undefined) {
-    estimator = pointEstimator(study, loaded.registry, { thetaDeg: req.thetaDeg, phiDeg, wavelengthNm: req.wavelengthNm, channel: req.channel });
+    estimator = pointEstimator(study, loaded.registry, { thetaDeg: req.thetaDeg, phiDeg, wavelengthNm: req.wavelengthNm, channel: req.channel }, compileOptions);
     subject = {
       mode: "point",
       quantity: req.channel,
@@ -49,7 +54,7 @@ export function buildConvergenceReport(loaded: LoadedStudy, req: ConvergeRequest
     };
   } else {
     const spectrum = req.spectrum ?? spectrumFromSpec(study.spectrum, loaded.baseDir, "spectrum");
-    estimator = spectralEstimator(study, loaded.registry, { thetaDeg: req.thetaDeg, phiDeg, spectrum });
+    estimator = spectralEstimator(study, loaded.registry, { thetaDeg: req.thetaDeg, phiDeg, spectrum }, compileOptions);
     const grid = study.grid.wavelengthNm;
     subject = {
       mode: "spectral",
@@ -85,6 +90,7 @@ export function buildConvergenceReport(loaded: LoadedStudy, req: ConvergeRequest
     studyHash: combo.hash,
     combo: combo.label,
     seed: study.seed,
+    tracerEstimator,
     ...subject,
     ...result,
   };

@@ -31,6 +31,8 @@ export interface ConvergenceReport extends ConvergenceResult, ConvergenceSubject
   studyHash: string;
   combo: string;
   seed: number;
+  /** Absorption sampling used by the tracer: "analog" or "expected" (expected-value weights). */
+  tracerEstimator: string;
 }
 
 export const CONVERGENCE_CSV_COLUMNS = [
@@ -59,7 +61,7 @@ export function formatConvergenceTable(r: ConvergenceReport): string {
       ? `${r.quantity} at θ=${r.thetaDeg}°, φ=${r.phiDeg ?? "averaged"}, λ=${r.wavelengthNm} nm`
       : `${r.quantity} (${r.unit}) under ${r.spectrum}, ${r.wavelengthRangeNm?.[0]}–${r.wavelengthRangeNm?.[1]} nm, at θ=${r.thetaDeg}°, φ=${r.phiDeg ?? "averaged"}`;
   const lines: string[] = [];
-  lines.push(`${r.studyName} (${r.combo}): convergence of ${where}, seed ${r.seed}`);
+  lines.push(`${r.studyName} (${r.combo}): convergence of ${where}, seed ${r.seed}, ${r.tracerEstimator} absorption sampling`);
   lines.push(
     `reference: ${g(r.reference.value)} ± ${g(r.reference.stderr)}` +
       (r.reference.kind === "run" ? ` (independent run, ${r.reference.nRays} rays per ${r.raysPer})` : " (given)"),

@@ -3,7 +3,7 @@ import { RandomStream, streamKey } from "../random/stream.js";
 import { photocurrentWeights, type Spectrum } from "../spectrum/index.js";
 import type { Study } from "../study/studyTypes.js";
 import { channelMean, channelStdErr, tallyLength, tallyProblem } from "../sweep/tally.js";
-import { channelNames, compileStack, traceBatch, type CompiledStack } from "../trace/index.js";
+import { channelNames, compileStack, traceBatch, type CompiledStack, type CompileOptions } from "../trace/index.js";
 import { InputError } from "../util/errors.js";
 import type { Estimate, Estimator } from "./runConvergence.js";
 
@@ -49,8 +49,8 @@ function tracePoint(
   return acc;
 }
 
-function compilePoint(study: Study, registry: MaterialRegistry, wavelengthNm: number): PointStack {
-  const cs = compileStack(study, registry, wavelengthNm);
+function compilePoint(study: Study, registry: MaterialRegistry, wavelengthNm: number, options?: CompileOptions): PointStack {
+  const cs = compileStack(study, registry, wavelengthNm, options);
   return { cs, channels: channelNames(cs) };
 }
 
@@ -66,8 +66,8 @@ export interface PointTarget {
 }
 
 /** Estimator of one channel's fraction at one direction and wavelength (in-process tracing). */
-export function pointEstimator(study: Study, registry: MaterialRegistry, target: PointTarget): Estimator {
-  const stack = compilePoint(study, registry, target.wavelengthNm);
+export function pointEstimator(study: Study, registry: MaterialRegistry, target: PointTarget, options?: CompileOptions): Estimator {
+  const stack = compilePoint(study, registry, target.wavelengthNm, options);
   const c = stack.channels.indexOf(target.channel);
   if (c < 0) throw new InputError(`--channel: the stack has no channel "${target.channel}" (has ${stack.channels.join(", ")})`);
   const batch = batchOf(study);
@@ -88,10 +88,10 @@ export interface SpectralTarget {
  * Estimator of the absorber photocurrent (mA/cm²) at one direction over the study's wavelength grid:
  * J = Σ w_i A_i, SE = sqrt(Σ w_i² SE_i²) (independent streams per wavelength); `nRays` rays at every wavelength.
  */
-export function spectralEstimator(study: Study, registry: MaterialRegistry, target: SpectralTarget): Estimator {
+export function spectralEstimator(study: Study, registry: MaterialRegistry, target: SpectralTarget, options?: CompileOptions): Estimator {
   const grid = study.grid.wavelengthNm;
   const w = photocurrentWeights(grid, target.spectrum);
-  const stacks = grid.map((l) => compilePoint(study, registry, l));
+  const stacks = grid.map((l) => compilePoint(study, registry, l, options));
   const batch = batchOf(study);
   return (nRays: number, namespace: string): Estimate => {
     let j = 0;

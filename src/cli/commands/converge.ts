@@ -24,6 +24,7 @@ interface ConvergeFlags {
   csv?: string;
   json?: boolean;
   quiet?: boolean;
+  estimator?: string;
 }
 
 function num(text: string | undefined, flag: string, check: (v: number) => boolean, expected: string): number | undefined {
@@ -33,6 +34,11 @@ function num(text: string | undefined, flag: string, check: (v: number) => boole
   return v;
 }
 const posInt = (v: number) => Number.isInteger(v) && v >= 1;
+
+function estimatorFlag(text: string | undefined): "analog" | "expected" | undefined {
+  if (text === undefined || text === "analog" || text === "expected") return text;
+  throw new InputError(`--estimator: expected "expected" or "analog", got "${text}"`);
+}
 
 /** `lightfold converge <study> (--wavelength λ | --spectral) [...]` */
 export function register(program: Command): void {
@@ -55,6 +61,7 @@ export function register(program: Command): void {
     .option("--out <dir>", `write ${CONVERGENCE_FILE} into this run folder`)
     .option("--csv <file>", "write the step table as CSV")
     .option("--json", "print the result as JSON instead of the table")
+    .option("--estimator <kind>", "absorption sampling of the tracer: expected (default) or analog")
     .option("--quiet", "no progress lines on stderr")
     .addHelpText(
       "after",
@@ -63,6 +70,7 @@ Examples:
   lightfold converge configs/demo.study.json --angle 0 --wavelength 1000 --target-error 0.001
   lightfold converge configs/demo.study.json --spectral --angle 40 --start 200 --steps 4 --out runs/demo
   lightfold converge configs/demo.study.json --wavelength 600 --channel R --json --csv conv.csv
+  lightfold converge configs/demo.study.json --wavelength 1000 --estimator analog   (compare at equal rays)
 
 Every replica of every step, and the reference, draws from its own random streams (derived from the
 study seed), so the steps are independent and the output is the same for a fixed seed. Plain Monte
@@ -85,6 +93,7 @@ Carlo errors fall as N^-1/2: the fitted log-log slopes should be near -0.5.`,
         replicas: num(flags.replicas, "--replicas", posInt, "a positive integer")!,
         referenceRays: num(flags.referenceRays, "--reference-rays", posInt, "a positive integer"),
         targetError: num(flags.targetError, "--target-error", (v) => v > 0, "a positive number"),
+        estimator: estimatorFlag(flags.estimator),
       };
       const onStep = flags.quiet ? undefined : (msg: string) => process.stderr.write(`${msg}\n`);
       const report = buildConvergenceReport(loaded, req, onStep);

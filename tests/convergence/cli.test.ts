@@ -1,0 +1,83 @@
+import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { afterAll, describe, expect, it, vi } from "vitest";
+import { main } from "../../src/cli/main.js";
+import { CONVERGENCE_CSV_COLUMNS, type ConvergenceReport } from "../../src/convergence/convergenceReport.js";
+
+const dir = mkdtempSync(join(tmpdir(), "lightfold-converge-cli-"));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+const studyPath = join(dir, "bare.study.json");
+writeFileSync(
+  studyPath,
+  JSON.stringify({
+    name: "bare-si-planar",
+    stack: {
+      incidence: "air",
+      front: { texture: { type: "planar" }, films: [] },
+      absorber: { material: "Si", thicknessUm: 180 },
+      rear: { texture: { type: "planar" }, films: [], exit: "Ag" },
+    },
+    grid: { thetaDeg: [0, 30], phiDeg: [0], wavelengthNm: [500, 700] },
+    rays: { perPoint: 1000, batch: 500 },
+    seed: 3,
+  }),
+);
+
+async function run(...args: string[]): Promise<{ code: number; out: string; err: string }> {
+  let out = "";
+  let err = "";
+  const o = vi.spyOn(process.stdout, "write").mockImplementation((s: string | Uint8Array) => ((out += String(s)), true));
+  const e = vi.spyOn(process.stderr, "write").mockImplementation((s: string | Uint8Array) => ((err += String(s)), true));
+  try {
+    return { code: await main(["node", "lightfold", ...args]), out, err };
+  } finally {
+    o.mockRestore();
+    e.mockRestore();
+  }
+}
+
+describe("lightfold converge", () => {
+  it("prints the step table with slopes and the predicted rays", async () => {
+    const r = await run("converge", studyPath, "--wavelength", "500", "--channel", "R", "--start", "100", "--steps", "3", "--target-error", "0.01", "--quiet");
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/rays\/point\s+value\s+stderr\s+deviation\s+rms err \(4\)/);
+    expect(r.out).toMatch(/log-log slope vs rays: rms error -?\d/);
+    expect(r.out).toMatch(/predicted for stderr 0\.01: \d+/);
+    expect(r.err).toBe("");
+  });
+
+  it("--spectral --json --out --csv: JSON on stdout equals convergence.json; CSV has one row per step", async () => {
+    const out = join(dir, "run");
+    const csv = join(dir, "conv.csv");
+    const r = await run("converge", studyPath, "--spectral", "--angle", "30", "--start", "50", "--steps", "3", "--replicas", "2", "--json", "--out", out, "--csv", csv, "--quiet");
+    expect(r.code).toBe(0);
+    const rep = JSON.parse(r.out) as ConvergenceReport;
+    expect(rep.format).toBe("lightfold.convergence");
+    expect(rep.mode).toBe("spectral");
+    expect(rep.thetaDeg).toBe(30);
+    expect(rep.tracerEstimator).toBe("expected");
+    expect(JSON.parse(readFileSync(join(out, "convergence.json"), "utf8"))).toEqual(rep);
+    const lines = readFileSync(csv, "utf8").trim().split("\n");
+    expect(lines[0]).toBe(CONVERGENCE_CSV_COLUMNS.join(","));
+    expect(lines.length).toBe(4);
+    expect(Number(lines[3].split(",")[0])).toBe(200);
+  });
+
+  it("bad flags exit 2 with the flag named, and write nothing", async () => {
+    const before = readdirSync(dir).sort();
+    const both = await run("converge", studyPath, "--spectral", "--wavelength", "500", "--out", join(dir, "x"));
+    expect(both.code).toBe(2);
+    expect(both.err).toMatch(/exactly one of --wavelength <nm> or --spectral/);
+    const steps = await run("converge", studyPath, "--wavelength", "500", "--steps", "1", "--out", join(dir, "x"));
+    expect(steps.code).toBe(2);
+    expect(steps.err).toMatch(/--steps: expected an integer ≥ 2, got "1"/);
+    const ch = await run("converge", studyPath, "--wavelength", "500", "--channel", "A_nothing", "--out", join(dir, "x"));
+    expect(ch.code).toBe(2);
+    expect(ch.err).toMatch(/no channel "A_nothing"/);
+    const est = await run("converge", studyPath, "--wavelength", "500", "--estimator", "fancy");
+    expect(est.code).toBe(2);
+    expect(readdirSync(dir).sort()).toEqual(before);
+  });
+});
