@@ -5,7 +5,7 @@ import type { MaterialRegistry } from "../materials/registry.js";
 import { canonicalJson, studyHash } from "./canonical.js";
 import { resolveStudyDocument } from "./resolveStudy.js";
 import type { SweepSpec } from "./sweepCombos.js";
-import type { RaysPlan, Study, StudyCombo } from "./studyTypes.js";
+import type { RaysPlan, Study, StudyCombo, StudyGrid } from "./studyTypes.js";
 import { buildMaterialRegistry } from "./userMaterials.js";
 
 /** A study file read, validated and resolved; everything a sweep needs. */
@@ -64,12 +64,13 @@ export function loadStudyFromDocument(doc: unknown, options: { baseDir: string; 
 }
 
 /**
- * The same study with another seed or ray plan (used for convergence runs and reference runs);
+ * The same study with another seed, ray plan or grid (convergence, reference and benchmark runs);
  * hashes are recomputed, so journals and matrices of the two never mix.
  */
-export function withOverrides(loaded: LoadedStudy, overrides: { seed?: number; rays?: RaysPlan }): LoadedStudy {
+export function withOverrides(loaded: LoadedStudy, overrides: { seed?: number; rays?: RaysPlan; grid?: StudyGrid }): LoadedStudy {
   const studies = loaded.combos.map((c) => ({
     ...c.study,
+    ...(overrides.grid !== undefined ? { grid: overrides.grid } : {}),
     ...(overrides.seed !== undefined ? { seed: overrides.seed } : {}),
     ...(overrides.rays !== undefined ? { rays: overrides.rays } : {}),
   }));
