@@ -161,6 +161,11 @@ export function convergenceFigure(all: ConvergenceSeries[]): Figure | null {
   };
 }
 
+/** Charge unit for plots: kA·h/m² when values run into the tens of thousands (keeps tick labels short). */
+export function chargeUnit(maxAhM2: number): { factor: number; unit: string } {
+  return maxAhM2 >= 1e4 ? { factor: 1e-3, unit: "kA·h/m²" } : { factor: 1, unit: "A·h/m²" };
+}
+
 const MONTHS = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
 
 /** Long names are shortened so the tilt and site stay visible in legends. */
@@ -181,6 +186,7 @@ export function monthlyFigure(yields: YieldEntry[]): Figure | null {
   const id = "monthly-yield";
   const title = "Monthly absorbed photon charge";
   const sites = [...new Set(shown.map((y) => y.siteName))];
+  const u = chargeUnit(Math.max(...shown.flatMap((y) => y.monthlyAhM2)));
   return {
     id,
     title,
@@ -189,9 +195,9 @@ export function monthlyFigure(yields: YieldEntry[]): Figure | null {
       title,
       subtitle: `site: ${sites.join(", ")}`,
       xLabel: "month",
-      y: { label: "charge per area (A·h/m²)" },
+      y: { label: `charge per area (${u.unit})` },
       categories: MONTHS,
-      groups: shown.map((y) => ({ label: yieldLabel(y, shown, true), values: y.monthlyAhM2 })),
+      groups: shown.map((y) => ({ label: yieldLabel(y, shown, true), values: y.monthlyAhM2.map((v) => v * u.factor) })),
       width: 820,
     }),
   };
@@ -202,14 +208,15 @@ export function tiltFigure(sweeps: TiltSweep[]): Figure | null {
   const shown = sweeps.filter((s) => s.tiltDeg.length > 1);
   if (shown.length === 0) return null;
   const sites = new Set(shown.map((s) => s.siteName));
+  const u = chargeUnit(Math.max(...shown.flatMap((s) => s.annualAhM2)));
   const series: LineSeries[] = shown.map((s, i) => ({
     label: sites.size > 1 ? `${s.stackLabel}, ${s.siteName}` : s.stackLabel,
     x: s.tiltDeg,
-    y: s.annualAhM2,
+    y: s.annualAhM2.map((v) => v * u.factor),
     markers: true,
     colour: seriesColour(i),
   }));
-  const marks: PointMark[] = shown.map((s, i) => ({ x: s.bestTiltDeg, y: s.bestAnnualAhM2, label: `best ${s.bestTiltDeg}°`, colour: seriesColour(i) }));
+  const marks: PointMark[] = shown.map((s, i) => ({ x: s.bestTiltDeg, y: s.bestAnnualAhM2 * u.factor, label: `best ${s.bestTiltDeg}°`, colour: seriesColour(i) }));
   const id = "tilt-sweep";
   const title = "Yearly absorbed charge vs module tilt";
   return {
@@ -221,7 +228,7 @@ export function tiltFigure(sweeps: TiltSweep[]): Figure | null {
       subtitle: `azimuth ${[...new Set(shown.map((s) => s.azimuthDeg))].join(", ")}° (180° = facing south); site: ${[...sites].join(", ")}`,
       width: 660,
       x: { label: "tilt (°)", tight: true },
-      y: { label: "yearly charge per area (A·h/m²)", headroom: 0.08 },
+      y: { label: `yearly charge per area (${u.unit})`, headroom: 0.08 },
       series,
       marks,
     }),

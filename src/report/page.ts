@@ -30,6 +30,11 @@ function fmt(v: number | undefined, digits = 2): string {
   return v === undefined || !Number.isFinite(v) ? "–" : v.toFixed(digits);
 }
 
+/** Charges: whole A·h/m² once they are large, one decimal below 1000. */
+function fmtCharge(v: number | undefined): string {
+  return fmt(v, v !== undefined && Math.abs(v) >= 1000 ? 0 : 1);
+}
+
 function figureHtml(f: Figure): string {
   const width = /^<svg[^>]* width="(\d+(?:\.\d+)?)"/.exec(f.svg)?.[1] ?? "720";
   return `<figure data-figure="${escapeText(f.id)}" style="width:${width}px">${f.svg}<figcaption>${html`${f.title} — `}<a href="${escapeText(f.id)}.svg">${escapeText(f.id)}.svg</a></figcaption></figure>`;
@@ -91,7 +96,7 @@ function summaryTable(input: ReportInput): string {
 function benefitTable(rows: BenefitRow[]): string {
   let body = "";
   for (const r of rows) {
-    body += html`<tr><td class="text">${r.siteName}</td><td>${fmt(r.tiltDeg, 0)}</td><td>${fmt(r.azimuthDeg, 0)}</td><td class="text">${r.stackA}</td><td class="text">${r.stackB}</td><td>${fmt(r.annualAhM2A, 1)}</td><td>${fmt(r.annualAhM2B, 1)}</td>`;
+    body += html`<tr><td class="text">${r.siteName}</td><td>${fmt(r.tiltDeg, 0)}</td><td>${fmt(r.azimuthDeg, 0)}</td><td class="text">${r.stackA}</td><td class="text">${r.stackB}</td><td>${fmtCharge(r.annualAhM2A)}</td><td>${fmtCharge(r.annualAhM2B)}</td>`;
     body += `<td><strong>${r.benefitPct >= 0 ? "+" : ""}${fmt(r.benefitPct)}</strong></td><td>${fmt(r.stderrPct, 2)}</td></tr>`;
   }
   return `<table class="benefit"><thead><tr><th class="text">site</th><th>tilt (°)</th><th>azimuth (°)</th><th class="text">stack A</th><th class="text">stack B</th><th>A (A·h/m²)</th><th>B (A·h/m²)</th><th>A vs B (%)</th><th>± s.e. (%)</th></tr></thead><tbody>${body}</tbody></table>`;
@@ -100,7 +105,7 @@ function benefitTable(rows: BenefitRow[]): string {
 function yieldTable(input: ReportInput): string {
   let body = "";
   for (const y of input.yields) {
-    body += html`<tr><td class="text">${yieldLabel(y, input.yields)}</td><td>${fmt(y.annualAhM2, 1)}</td><td>${fmt(y.poaKwhM2, 0)}</td><td>${fmt(y.relativeToNormal === undefined ? undefined : 100 * y.relativeToNormal, 1)}</td></tr>`;
+    body += html`<tr><td class="text">${yieldLabel(y, input.yields)}</td><td>${fmtCharge(y.annualAhM2)}</td><td>${fmt(y.poaKwhM2, 0)}</td><td>${fmt(y.relativeToNormal === undefined ? undefined : 100 * y.relativeToNormal, 1)}</td></tr>`;
   }
   return `<table class="yield"><thead><tr><th class="text">stack, tilt</th><th>year (A·h/m²)</th><th>plane-of-array (kWh/m²)</th><th>vs normal incidence (%)</th></tr></thead><tbody>${body}</tbody></table>`;
 }
@@ -158,6 +163,7 @@ export function renderReport(input: ReportInput): RenderedReport {
   const monthly = monthlyFigure(input.yields);
   const tilt = tiltFigure(input.tiltSweeps);
   if (!monthly && !tilt && input.yields.length === 0) sections += note("Omitted: no yield results in the run (yield/*.json).");
+  else sections += `<p class="lead">Photon charge absorbed in the absorber per module area over the year (optical current × time) at the site, tilt and azimuth, and its share of what the same plane-of-array insolation would give at normal incidence under AM1.5G.</p>`;
   if (input.yields.length) sections += yieldTable(input);
   sections += `<div class="row">`;
   if (monthly) sections += use(monthly);
