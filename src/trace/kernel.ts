@@ -107,7 +107,8 @@ function traceRay(cs: CompiledStack, sinT: number, cosT: number, phi: number, po
   st[EZ] = b * pz;
   st[X] = rng.next() * cs.frontTile.lxUm;
   st[Y] = rng.next() * cs.frontTile.lyUm;
-  st[Z] = nL > 0 ? cs.layerTopZUm[1] : cs.frontTile.zMaxUm;
+  // Without layers: start 1 µm above the texture (the incidence medium does not absorb).
+  st[Z] = nL > 0 ? cs.layerTopZUm[1] : cs.frontTile.zMaxUm + 1;
   st[W] = 1;
   st[PATH] = 0;
   st[TAU] = -Math.log(rng.next());
@@ -336,9 +337,11 @@ function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBe
   let t0 = 0;
   let tLimit = Infinity;
   let mustHit = false;
+  // Entry into the slab stops short of its bounding plane: flat parts of the surface lie on it.
+  const margin = 1e-7 * (zMax - zMin + tile.lxUm);
   if (fromBelow) {
     if (dzl > 0) {
-      if (zl < zMin) t0 = (zMin - zl) / dzl;
+      if (zl < zMin - margin) t0 = (zMin - margin - zl) / dzl;
       tLimit = (zMax - zl) / dzl - t0;
       mustHit = true;
     } else if (dzl < 0) {
@@ -347,7 +350,7 @@ function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBe
     }
   } else {
     if (dzl < 0) {
-      if (zl > zMax) t0 = (zMax - zl) / dzl;
+      if (zl > zMax + margin) t0 = (zMax + margin - zl) / dzl;
       tLimit = (zMin - zl) / dzl - t0;
       mustHit = true;
     } else if (dzl > 0) {
