@@ -20,7 +20,8 @@ import { createProgressReporter } from "../src/sweep/progressReporter.js";
 import { runSweep } from "../src/sweep/runSweep.js";
 import { writeFileAtomic } from "../src/util/atomicWrite.js";
 import { packageRoot } from "../src/util/packageRoot.js";
-import { writePhotocurrentSummary, type PhotocurrentSummary } from "../src/weighting/index.js";
+import { photocurrentForMatrix } from "../src/weighting/writePhotocurrent.js";
+import type { PhotocurrentSummary } from "../src/weighting/index.js";
 import { runDemoYield } from "./yieldStage.js";
 
 const ROOT = packageRoot();
@@ -54,8 +55,9 @@ async function sweepStack(studyPath: string, workers: number): Promise<StackRun>
   const matrix = result.matrices[0]!;
   const study = loaded.combos[0]!.study;
   const spectrum = spectrumFromSpec(study.spectrum, loaded.baseDir);
-  const { summary } = writePhotocurrentSummary(join(dir, loaded.combos[0]!.label), matrix, spectrum);
-  return { loaded, dir, matrix, photocurrent: summary, wallS: result.wallS, rays: result.raysTraced };
+  // the sweep has written <combo>/photocurrent.json; the same numbers, for the summary table
+  const photocurrent = photocurrentForMatrix(matrix, spectrum);
+  return { loaded, dir, matrix, photocurrent, wallS: result.wallS, rays: result.raysTraced };
 }
 
 function table(header: string[], rows: string[][]): string {
