@@ -75,3 +75,27 @@ describe("lightfold spectral", () => {
     expect(bad.err).toMatch(/--spectrum/);
   });
 });
+
+describe("lightfold spectral --spectrum file.csv", () => {
+  it("a flat 1 W/m²/nm spectrum gives J = q·E·(λ2² − λ1²)/(2hc) for a fully absorbing matrix", async () => {
+    const spec = join(dir, "flat.csv");
+    writeFileSync(spec, "# flat test spectrum\nwavelength_nm,irradiance_W_m2_nm\n400,1\n1000,1\n");
+    const m = smallMatrix(); // grid 400…1000 nm
+    const ia = m.channels.indexOf("A_absorber");
+    for (let p = 0; p < m.nRays.length; p++)
+      for (let c = 0; c < m.channels.length; c++) {
+        m.mean[p * m.channels.length + c] = c === ia ? 1 : 0;
+        m.stderr[p * m.channels.length + c] = 0;
+      }
+    const p = join(dir, "absorbing.json");
+    writeResponseMatrix(p, m);
+    const r = await run("spectral", p, "--spectrum", spec, "--json");
+    expect(r.code).toBe(0);
+    const s = JSON.parse(r.out) as { totalAvailableMaCm2: number; directions: { jscMaCm2: number }[] };
+    // Photon flux E·λ/(hc) is linear in λ, so its integral is exact: q·E/(hc)·(λ2² − λ1²)/2 (λ in m,
+    // dλ in nm), ×0.1 for A/m² → mA/cm². CODATA 2018 exact constants. ≈ 33.87 mA/cm².
+    const expected = ((1.602176634e-19 / (6.62607015e-34 * 299792458)) * 1e-9 * (1000 ** 2 - 400 ** 2)) / 2 * 0.1;
+    expect(Math.abs(s.totalAvailableMaCm2 / expected - 1)).toBeLessThan(1e-12);
+    for (const d of s.directions) expect(Math.abs(d.jscMaCm2 / expected - 1)).toBeLessThan(1e-12);
+  });
+});

@@ -67,10 +67,10 @@ export function register(program: Command): void {
       "after",
       `
 Examples:
-  lightfold converge configs/demo.study.json --angle 0 --wavelength 1000 --target-error 0.001
-  lightfold converge configs/demo.study.json --spectral --angle 40 --start 200 --steps 4 --out runs/demo
-  lightfold converge configs/demo.study.json --wavelength 600 --channel R --json --csv conv.csv
-  lightfold converge configs/demo.study.json --wavelength 1000 --estimator analog   (compare at equal rays)
+  lightfold converge configs/demo-random-pyramids.study.json --angle 0 --wavelength 1000 --target-error 0.001
+  lightfold converge configs/demo-random-pyramids.study.json --spectral --angle 40 --start 200 --steps 4 --out runs/demo-random-pyramids
+  lightfold converge configs/demo-random-pyramids.study.json --wavelength 600 --channel R --json --csv conv.csv
+  lightfold converge configs/demo-random-pyramids.study.json --wavelength 1000 --estimator analog   (compare at equal rays)
 
 Every replica of every step, and the reference, draws from its own random streams (derived from the
 study seed), so the steps are independent and the output is the same for a fixed seed. Plain Monte

@@ -15,12 +15,12 @@ export function register(program: Command): void {
       "after",
       `
 Examples:
-  lightfold export runs/demo/base/matrix.json --format csv
-      -> runs/demo/base/matrix.csv (theta_deg,phi_deg,wavelength_nm,channel,value,stderr)
-  lightfold export runs/demo/base/matrix.json --format npy
+  lightfold export runs/demo-planar/base/matrix.json --format csv
+      -> runs/demo-planar/base/matrix.csv (theta_deg,phi_deg,wavelength_nm,channel,value,stderr)
+  lightfold export runs/demo-planar/base/matrix.json --format npy
       -> matrix.npy.json (axes, shapes, files) + matrix_mean.npy, matrix_stderr.npy,
          matrix_nrays.npy, matrix_path_ratio.npy; in Python: numpy.load("matrix_mean.npy")
-  lightfold export runs/demo/base/matrix.json --format json --out demo.export.json`,
+  lightfold export runs/demo-planar/base/matrix.json --format json --out demo.export.json`,
     )
     .action((matrixPath: string, opts: { format: string; out?: string; json?: boolean }) => {
       const format = parseExportFormat(opts.format);

@@ -27,9 +27,9 @@ export function register(program: Command): void {
       "after",
       `
 Examples:
-  lightfold spectral runs/demo/base/matrix.json
-  lightfold spectral runs/demo/base/matrix.json --spectrum AM1.5D
-  lightfold spectral runs/demo/base/matrix.json --spectrum my-spectrum.csv --json > pc.json
+  lightfold spectral runs/demo-planar/base/matrix.json
+  lightfold spectral runs/demo-planar/base/matrix.json --spectrum AM1.5D
+  lightfold spectral runs/demo-planar/base/matrix.json --spectrum my-spectrum.csv --json > pc.json
 
 Currents are in mA/cm² over the matrix's wavelength range; errors are Monte Carlo standard errors,
 sqrt(Σ w² SE²) over independent wavelengths. J(θ) is per unit beam power reaching the cell, so
