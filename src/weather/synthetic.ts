@@ -39,7 +39,7 @@ function tagMeanKt(dailyKt: number, sinAltitude: number): number {
 
 /** TAG hourly AR(1) lag-1 coefficient and standard deviation of the residual (from memory). */
 function tagAr1(dailyKt: number): number {
-  return Math.min(0.95, 0.148 + 2.356 * Math.pow(dailyKt, 5.87));
+  return 0.38 + 0.06 * Math.cos(7.4 * dailyKt - 2.5);
 }
 function tagSigma(dailyKt: number): number {
   return 0.32 * Math.exp(-50 * (dailyKt - 0.4) ** 2) + 0.002;
