@@ -2,6 +2,7 @@ import { pathToFileURL } from "node:url";
 import type { MaterialRegistry } from "../materials/registry.js";
 import type { RandomStream } from "../random/stream.js";
 import type { Study } from "../study/studyTypes.js";
+import * as ownTracer from "../trace/index.js";
 
 /** The tracer functions the runner uses (docs/contracts.md, Tracer). */
 export interface TracerModule {
@@ -15,6 +16,7 @@ export interface TracerModule {
  * pool with small stand-ins (one that throws, one whose channels do not add up).
  */
 export async function loadTracer(modulePath?: string): Promise<TracerModule> {
-  if (modulePath === undefined) return (await import("../trace/index.js")) as unknown as TracerModule;
+  // lightfold's own tracer is imported statically, with the rest of the worker's module graph.
+  if (modulePath === undefined) return ownTracer as unknown as TracerModule;
   return (await import(pathToFileURL(modulePath).href)) as TracerModule;
 }
