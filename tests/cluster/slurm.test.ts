@@ -125,7 +125,11 @@ describe.skipIf(unavailable !== undefined)("sharded sweep on a real single-node 
       // The sweep's own summary line: the pool it ran (from SLURM_CPUS_PER_TASK).
       expect(out).toMatch(/ on 1 worker\(s\)/);
     }
-    console.log(`[cluster test] node CPUs ${availableParallelism()}, each shard granted 1`);
+    const shardWallS = Array.from({ length: SHARDS }, (_, i) => {
+      const partial = JSON.parse(readFileSync(join(outDir, "shards", `shard-${i + 1}-of-${SHARDS}`, "partial.json"), "utf8")) as { wallS: number };
+      return Number(partial.wallS.toFixed(2));
+    });
+    console.log(`[cluster test] node CPUs ${availableParallelism()}, each shard granted 1; sweep wall time per shard (s): ${shardWallS.join(", ")}`);
   }, 2 * JOB_TIMEOUT_MS);
 
   it("a task cancelled mid-run, re-submitted alone, resumes and merges to the same matrices", async () => {
