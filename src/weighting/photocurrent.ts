@@ -40,6 +40,8 @@ export interface PhotocurrentSummary {
   absorberChannel: string;
   lossChannels: string[];
   phiMode: ResponseMatrix["phiMode"];
+  /** True when the matrix came from an incomplete set of shards (missing points count as zero). */
+  partial: boolean;
   /** Incidence angle the IAM divides by (0° when the grid has it, else the smallest angle). */
   iamReferenceThetaDeg: number;
   /** One entry per (theta, phi), theta outermost. */
@@ -112,6 +114,7 @@ export function photocurrentSummary(m: ResponseMatrix, w: ArrayLike<number>, lab
     absorberChannel: CH_ABSORBER,
     lossChannels: m.channels.filter((_, ic) => ic !== ia),
     phiMode: m.phiMode,
+    partial: m.partial === true,
     iamReferenceThetaDeg: m.thetaDeg[itRef],
     directions,
   };

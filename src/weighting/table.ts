@@ -25,6 +25,7 @@ export function formatPhotocurrentTable(s: PhotocurrentSummary): string {
   const head =
     `${s.studyName}: optical photocurrent under ${s.spectrum}, ${s.wavelengthMinNm}-${s.wavelengthMaxNm} nm ` +
     `(all currents in mA/cm²; available in this range ${f(s.totalAvailableMaCm2, 3)})\n` +
-    `IAM = J(θ)/J(${s.iamReferenceThetaDeg}°) at the same azimuth; loss columns: current carried away by each channel\n\n`;
+    `IAM = J(θ)/J(${s.iamReferenceThetaDeg}°) at the same azimuth; loss columns: current carried away by each channel\n` +
+    (s.partial ? "WARNING: partial matrix (incomplete shards): missing points count as zero\n\n" : "\n");
   return head + textTable(header, rows);
 }
