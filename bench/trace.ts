@@ -89,3 +89,38 @@ export async function runTraceBench(): Promise<void> {
 function fmt(x: number, width: number, digits: number): string {
   return x.toFixed(digits).padStart(width);
 }
+
+export interface EstimatorFigure {
+  wavelengthNm: number;
+  estimator: Estimator;
+  raysPerSecond: number;
+  /** Figure of merit 1/(SE² · seconds) per channel: higher = less variance per unit time. */
+  meritA: number;
+  meritR: number;
+}
+
+/** Variance per unit time of both estimators on the reference case (for the docs). */
+export function compareEstimators(nRays = 50_000, rouletteWeight?: number): EstimatorFigure[] {
+  const registry = MaterialRegistry.withBuiltins();
+  const out: EstimatorFigure[] = [];
+  for (const wavelengthNm of BENCH_WAVELENGTHS_NM) {
+    for (const estimator of ["analog", "expected"] as const) {
+      const cs = compileStack(BENCH_STACK, registry, wavelengthNm, { estimator, rouletteWeight });
+      traceBatch(cs, 0, 0, 2000, new RandomStream(streamKey(BENCH_SEED, "warmup", wavelengthNm)), createTally(cs));
+      const tally = createTally(cs);
+      const t0 = process.hrtime.bigint();
+      traceBatch(cs, 0, 0, nRays, new RandomStream(streamKey(BENCH_SEED, "estimators", wavelengthNm)), tally);
+      const seconds = Number(process.hrtime.bigint() - t0) * 1e-9;
+      const s = summarizeTally(cs.channels, tally);
+      const se = (name: string): number => s.stderr[cs.channels.indexOf(name)];
+      out.push({
+        wavelengthNm,
+        estimator,
+        raysPerSecond: nRays / seconds,
+        meritA: 1 / (se("A_absorber") ** 2 * seconds),
+        meritR: 1 / (se("R") ** 2 * seconds),
+      });
+    }
+  }
+  return out;
+}

@@ -26,7 +26,7 @@ export interface CompileOptions {
   estimator?: Estimator;
   /** Interface events per ray before the rest of its weight goes to `unresolved` (default 10000). */
   maxEvents?: number;
-  /** Expected-value mode: weight below which absorption turns analog (default 0.01). */
+  /** Expected-value mode: weight below which absorption turns analog (default 0.2). */
   rouletteWeight?: number;
   /** Rows of the interface tables over cosθ (default 1024). */
   nCos?: number;
@@ -34,7 +34,7 @@ export interface CompileOptions {
 
 export const DEFAULT_ESTIMATOR: Estimator = "expected";
 export const DEFAULT_MAX_EVENTS = 10000;
-export const DEFAULT_ROULETTE_WEIGHT = 0.01;
+export const DEFAULT_ROULETTE_WEIGHT = 0.2;
 
 /**
  * Prepares a stack for tracing at one wavelength: n, k, α per medium, interface tables for every

@@ -225,9 +225,10 @@ function setNormal(st: Float64Array, nx: number, ny: number, nz: number): void {
 /**
  * Beer–Lambert along a straight path of length st[T] (µm) in medium m. Analog: the ray carries an
  * exponentially distributed optical depth budget (TAU) and dies where it runs out. Expected value:
- * the weight falls by exp(−αL) and the difference is tallied; below the roulette weight the ray
- * turns analog (its remaining weight survives or is absorbed whole: unbiased, and each ray's
- * channels still sum to 1). Returns true when the ray was absorbed.
+ * the weight falls by exp(−αL) and the difference is tallied. Roulette: once the weight would fall
+ * below the roulette weight the ray turns analog (its remaining weight survives or is absorbed
+ * whole: unbiased, and each ray's channels still sum to 1, unlike classic Russian roulette that
+ * discards weight). Returns true when the ray was absorbed.
  */
 function absorbAlong(cs: CompiledStack, st: Float64Array, m: number, rng: RandomStream): boolean {
   const lenUm = st[T];
@@ -237,6 +238,12 @@ function absorbAlong(cs: CompiledStack, st: Float64Array, m: number, rng: Random
   if (!(alpha > 0)) {
     if (inAbsorber) st[PATH] += w * lenUm;
     return false;
+  }
+  // Expected value, unless this stretch would take the weight below the roulette weight: then the
+  // ray turns analog before it (the same expectation, and no work spent on negligible weights).
+  if (st[ANALOG] === 0 && w * Math.exp(-alpha * lenUm) < cs.rouletteWeight) {
+    st[ANALOG] = 1;
+    st[TAU] = -Math.log(rng.next());
   }
   if (st[ANALOG] !== 0) {
     const tau = alpha * lenUm;
@@ -254,10 +261,6 @@ function absorbAlong(cs: CompiledStack, st: Float64Array, m: number, rng: Random
   // Expected path length of the analog ray over this stretch: w(1 − e^−αL)/α.
   if (inAbsorber) st[PATH] += dep / alpha;
   st[W] = w - dep;
-  if (st[W] < cs.rouletteWeight) {
-    st[ANALOG] = 1;
-    st[TAU] = -Math.log(rng.next());
-  }
   return false;
 }
 
