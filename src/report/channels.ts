@@ -22,7 +22,7 @@ export function channelLabel(channel: string): string {
     case "A_rear":
       return "rear reflector";
     case "unresolved":
-      return "unresolved (bounce limit)";
+      return "unresolved (event limit)";
   }
   if (channel.startsWith("A_layer:")) return `${channel.slice("A_layer:".length)} (layer)`;
   if (channel.startsWith("A_film:")) {

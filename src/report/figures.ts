@@ -6,7 +6,9 @@ import { channelMap, channelSpectra, thetaIndex } from "./spectralBreakdown.js";
 import { barChart } from "./svg/barChart.js";
 import { heatMap } from "./svg/heatMap.js";
 import { linePlot, type LineSeries, type PointMark } from "./svg/linePlot.js";
-import { CHANNEL_COLOURS, INK_SOFT, parasiticColour, seriesColour } from "./svg/palette.js";
+import { CHANNEL_COLOURS, parasiticColour, seriesColour } from "./svg/palette.js";
+
+const GUIDE_GREY = "#8C93A0";
 import { stackedArea, type AreaLayer } from "./svg/stackedArea.js";
 
 export interface Figure {
@@ -142,7 +144,7 @@ export function convergenceFigure(all: ConvergenceSeries[]): Figure | null {
   if (anchor && anchor.e > 0) {
     // plain Monte Carlo: standard error ∝ 1/√N (central limit theorem)
     const xs = [nMin, nMax];
-    series.push({ label: "1/√N guide", x: xs, y: xs.map((n) => anchor.e * Math.sqrt(anchor.n / n)), colour: INK_SOFT, dashed: true });
+    series.push({ label: "1/√N guide (through the first point)", x: xs, y: xs.map((n) => anchor.e * Math.sqrt(anchor.n / n)), colour: GUIDE_GREY, guide: true });
   }
   const id = "convergence";
   const title = "Monte Carlo convergence";

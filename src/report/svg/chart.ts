@@ -24,7 +24,7 @@ export interface AxisSpec {
 export interface LegendItem {
   label: string;
   colour: string;
-  shape: "line" | "dashed" | "box" | "marker";
+  shape: "line" | "dashed" | "box" | "marker" | "guide";
 }
 
 export interface ChartSpec {
@@ -179,6 +179,7 @@ function legend(c: Chart): string {
     if (item.shape === "box") out += el("rect", { x: x0, y: y - 6, width: 18, height: 12, fill: item.colour, stroke: INK, "stroke-width": 0.5 });
     else if (item.shape === "marker")
       out += el("line", { x1: x0, y1: y, x2: x0 + 18, y2: y, stroke: item.colour, "stroke-width": 2 }) + el("circle", { cx: x0 + 9, cy: y, r: 4, fill: item.colour, stroke: "#fff", "stroke-width": 1 });
+    else if (item.shape === "guide") out += el("line", { x1: x0, y1: y, x2: x0 + 18, y2: y, stroke: item.colour, "stroke-width": 7, "stroke-opacity": 0.45 });
     else out += el("line", { x1: x0, y1: y, x2: x0 + 18, y2: y, stroke: item.colour, "stroke-width": 2.5, "stroke-dasharray": item.shape === "dashed" ? "6 4" : undefined });
     out += el("text", { x: x0 + 25, y: y + 4, "font-size": TICK_FONT, fill: INK }, `${el("title", {}, escapeText(item.label))}${escapeText(legendLabel(item.label))}`);
   });

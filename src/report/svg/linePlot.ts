@@ -13,6 +13,8 @@ export interface LineSeries {
   markers?: boolean;
   /** Leave out of the legend (default: listed). */
   hideInLegend?: boolean;
+  /** A reference guide: drawn first, as a wide pale line beneath the data. */
+  guide?: boolean;
 }
 
 /** A highlighted point (e.g. the best tilt) with a short label. */
@@ -49,10 +51,11 @@ export function linePlot(spec: LinePlotSpec): string {
   const legend: LegendItem[] = spec.series
     .map((s, i) => ({ s, i }))
     .filter(({ s }) => !s.hideInLegend)
-    .map(({ s, i }) => ({ label: s.label, colour: s.colour ?? seriesColour(i), shape: s.dashed ? "dashed" : s.markers ? "marker" : "line" }));
+    .map(({ s, i }) => ({ label: s.label, colour: s.colour ?? seriesColour(i), shape: s.guide ? "guide" : s.dashed ? "dashed" : s.markers ? "marker" : "line" }));
   const chart = layoutChart({ ...spec, legend }, extentOf(...xs, marksX), extentOf(...ys, marksY));
   let body = "";
-  spec.series.forEach((s, i) => {
+  const order = spec.series.map((s, i) => ({ s, i })).sort((a, b) => Number(Boolean(b.s.guide)) - Number(Boolean(a.s.guide)));
+  order.forEach(({ s, i }) => {
     const colour = s.colour ?? seriesColour(i);
     const px = Array.from(xs[i]!, (v) => chart.x(v));
     const py = Array.from(ys[i]!, (v) => chart.y(v));
@@ -69,7 +72,8 @@ export function linePlot(spec: LinePlotSpec): string {
       if (whiskers) g += el("path", { d: whiskers, stroke: colour, "stroke-width": 1.2, fill: "none" });
     }
     const d = pathThrough(px, py);
-    if (d) g += el("path", { d, stroke: colour, "stroke-width": s.dashed ? 1.6 : 2.2, fill: "none", "stroke-dasharray": s.dashed ? "6 4" : undefined, "stroke-linejoin": "round" });
+    if (d && s.guide) g += el("path", { d, stroke: colour, "stroke-width": 7, fill: "none", "stroke-linecap": "round", "stroke-opacity": 0.45 });
+    else if (d) g += el("path", { d, stroke: colour, "stroke-width": s.dashed ? 1.6 : 2.2, fill: "none", "stroke-dasharray": s.dashed ? "6 4" : undefined, "stroke-linejoin": "round" });
     if (s.markers) {
       for (let k = 0; k < px.length; k++) {
         if (Number.isFinite(px[k]!) && Number.isFinite(py[k]!)) g += el("circle", { cx: px[k]!, cy: py[k]!, r: 3.5, fill: colour, stroke: "#fff", "stroke-width": 1 });

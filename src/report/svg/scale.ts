@@ -77,11 +77,21 @@ export function logTicks(domain: readonly [number, number]): number[] {
   return ticks;
 }
 
-/** Log domain widened to whole decades around [min, max] (both > 0). */
+/** Log domain widened to the nearest 1, 2 or 5 × 10^k around [min, max] (both > 0). */
 export function logDomain(min: number, max: number): [number, number] {
   const lo = min > 0 && Number.isFinite(min) ? min : 1e-6;
   const hi = max > lo && Number.isFinite(max) ? max : lo * 10;
-  return [10 ** Math.floor(Math.log10(lo) + 1e-9), 10 ** Math.ceil(Math.log10(hi) - 1e-9)];
+  const down = (v: number) => {
+    const k = Math.floor(Math.log10(v) + 1e-9);
+    const m = v / 10 ** k;
+    return (m >= 5 - 1e-9 ? 5 : m >= 2 - 1e-9 ? 2 : 1) * 10 ** k;
+  };
+  const up = (v: number) => {
+    const k = Math.floor(Math.log10(v) - 1e-9);
+    const m = v / 10 ** k;
+    return (m <= 1 + 1e-9 ? 1 : m <= 2 + 1e-9 ? 2 : m <= 5 + 1e-9 ? 5 : 10) * 10 ** k;
+  };
+  return [Number(down(lo).toPrecision(12)), Number(up(hi).toPrecision(12))];
 }
 
 /** Short tick label: no float noise, powers of ten for very large or very small values. */
