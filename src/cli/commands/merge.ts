@@ -30,7 +30,7 @@ listed by number (exit 2) unless --allow-partial is given.`,
       const lines = [
         `${r.plan.studyName}: merged ${r.present.length} of ${r.shardCount} shards (${r.raysTraced.toExponential(3)} rays)`,
       ];
-      if (r.missing.length > 0) lines.push(`  PARTIAL: missing shards ${r.missing.join(", ")}; matrices are marked partial: true`);
+      if (r.missing.length > 0) lines.push(`  PARTIAL: missing shard${r.missing.length > 1 ? "s" : ""} ${r.missing.join(", ")}; matrices are marked partial: true`);
       lines.push(...r.files.map((f) => `  wrote ${f}`));
       process.stdout.write(lines.join("\n") + "\n");
     });
