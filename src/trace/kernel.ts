@@ -241,7 +241,8 @@ function absorbAlong(cs: CompiledStack, st: Float64Array, m: number, rng: Random
   }
   // Expected value, unless this stretch would take the weight below the roulette weight: then the
   // ray turns analog before it (the same expectation, and no work spent on negligible weights).
-  if (st[ANALOG] === 0 && w * Math.exp(-alpha * lenUm) < cs.rouletteWeight) {
+  const att = Math.exp(-alpha * lenUm);
+  if (st[ANALOG] === 0 && w * att < cs.rouletteWeight) {
     st[ANALOG] = 1;
     st[TAU] = -Math.log(rng.next());
   }
@@ -256,7 +257,7 @@ function absorbAlong(cs: CompiledStack, st: Float64Array, m: number, rng: Random
     if (inAbsorber) st[PATH] += w * lenUm;
     return false;
   }
-  const dep = -w * Math.expm1(-alpha * lenUm);
+  const dep = w - w * att;
   cs.contrib[cs.mediumChan[m]] += dep;
   // Expected path length of the analog ray over this stretch: w(1 − e^−αL)/α.
   if (inAbsorber) st[PATH] += dep / alpha;
