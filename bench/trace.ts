@@ -91,6 +91,7 @@ export async function runTraceBench(): Promise<void> {
         ` ${fmt(r.R, 9, 4)} ${fmt(r.A, 8, 4)} ${fmt(r.A_rear, 9, 4)} ${fmt(r.T, 7, 4)} ${fmt(r.wallSeconds, 8, 2)}\n`,
     );
   }
+  if (process.env.LIGHTFOLD_BENCH_ESTIMATORS !== "0") printEstimatorComparison();
 }
 
 function fmt(x: number, width: number, digits: number): string {
@@ -100,34 +101,58 @@ function fmt(x: number, width: number, digits: number): string {
 export interface EstimatorFigure {
   wavelengthNm: number;
   estimator: Estimator;
-  raysPerSecond: number;
-  /** Figure of merit 1/(SE² · seconds) per channel: higher = less variance per unit time. */
-  meritA: number;
-  meritR: number;
+  rouletteWeight: number;
+  /** Per-ray variance of the A_absorber and R contributions (SE² · N). */
+  varA: number;
+  varR: number;
+  eventsPerRay: number;
+  /** CPU seconds per ray. */
+  secondsPerRay: number;
 }
 
-/** Variance per unit time of both estimators on the reference case (for the docs). */
-export function compareEstimators(nRays = 50_000, rouletteWeight?: number): EstimatorFigure[] {
+/**
+ * Variance per unit cost of the estimators on the reference case. Cost is taken as (interface
+ * events + 1) per ray, which tracks CPU time and, unlike a timer, does not depend on machine load.
+ */
+export function compareEstimators(nRays = 40_000, rouletteWeights = [0.01, 0.2]): EstimatorFigure[] {
   const registry = MaterialRegistry.withBuiltins();
   const out: EstimatorFigure[] = [];
+  const configs: [Estimator, number][] = [["analog", 0], ...rouletteWeights.map((w): [Estimator, number] => ["expected", w])];
   for (const wavelengthNm of BENCH_WAVELENGTHS_NM) {
-    for (const estimator of ["analog", "expected"] as const) {
+    for (const [estimator, rouletteWeight] of configs) {
       const cs = compileStack(BENCH_STACK, registry, wavelengthNm, { estimator, rouletteWeight });
-      traceBatch(cs, 0, 0, 2000, new RandomStream(streamKey(BENCH_SEED, "warmup", wavelengthNm)), createTally(cs));
       const tally = createTally(cs);
-      const t0 = process.hrtime.bigint();
+      const c0 = process.cpuUsage();
       traceBatch(cs, 0, 0, nRays, new RandomStream(streamKey(BENCH_SEED, "estimators", wavelengthNm)), tally);
-      const seconds = Number(process.hrtime.bigint() - t0) * 1e-9;
+      const cpu = process.cpuUsage(c0);
       const s = summarizeTally(cs.channels, tally);
-      const se = (name: string): number => s.stderr[cs.channels.indexOf(name)];
+      const v = (name: string): number => s.stderr[cs.channels.indexOf(name)] ** 2 * nRays;
       out.push({
         wavelengthNm,
         estimator,
-        raysPerSecond: nRays / seconds,
-        meritA: 1 / (se("A_absorber") ** 2 * seconds),
-        meritR: 1 / (se("R") ** 2 * seconds),
+        rouletteWeight,
+        varA: v("A_absorber"),
+        varR: v("R"),
+        eventsPerRay: s.eventsPerRay,
+        secondsPerRay: ((cpu.user + cpu.system) * 1e-6) / nRays,
       });
     }
   }
   return out;
+}
+
+function printEstimatorComparison(): void {
+  const rows = compareEstimators();
+  process.stdout.write("\nestimators (same case, 40000 rays; merit = 1/(variance per ray × (events per ray + 1)), relative to analog)\n");
+  process.stdout.write("  λ (nm)  estimator        var A    var R   events/ray  merit A  merit R\n");
+  let base = rows[0];
+  for (const r of rows) {
+    if (r.estimator === "analog") base = r;
+    const merit = (v: number, x: EstimatorFigure): number => 1 / (v * (x.eventsPerRay + 1));
+    const name = r.estimator === "analog" ? "analog" : `expected ${r.rouletteWeight}`;
+    process.stdout.write(
+      `  ${String(r.wavelengthNm).padStart(6)}  ${name.padEnd(14)} ${fmt(r.varA, 8, 4)} ${fmt(r.varR, 8, 4)} ${fmt(r.eventsPerRay, 11, 2)}` +
+        ` ${fmt(merit(r.varA, r) / merit(base.varA, base), 8, 2)} ${fmt(merit(r.varR, r) / merit(base.varR, base), 8, 2)}\n`,
+    );
+  }
 }
