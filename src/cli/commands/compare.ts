@@ -1,4 +1,4 @@
-import { basename, join } from "node:path";
+import { join } from "node:path";
 import type { Command } from "commander";
 import { readResponseMatrix } from "../../response/matrixFile.js";
 import { readSiteFile } from "../../site/siteFile.js";
@@ -87,7 +87,7 @@ matrices' stderr (independent runs). Both use the same weather, sky model and pl
       if (opts.runDir) writeFileAtomic(join(opts.runDir, "yield", "compare.json"), text);
       if (opts.json) process.stdout.write(text);
       else {
-        const label = (i: number): string => `${matrices[i]!.studyName} (${basename(opts.matrix[i]!)})`;
+        const label = (i: number): string => `${matrices[i]!.studyName} (${opts.matrix[i]!})`;
         process.stdout.write(formatCompareTable(label(0), label(1), rows));
       }
     });
