@@ -1,6 +1,8 @@
 export { logLogSlope } from "./logLogSlope.js";
 export {
   runConvergence,
+  runConvergenceAsync,
+  type AsyncEstimator,
   predictRays,
   stepNamespace,
   REFERENCE_NAMESPACE,
@@ -18,5 +20,6 @@ export {
   type ConvergenceReport,
   type ConvergenceSubject,
 } from "./convergenceReport.js";
-export { buildConvergenceReport, type ConvergeRequest } from "./convergeStudy.js";
-export { pointEstimator, spectralEstimator, type PointTarget, type SpectralTarget } from "./traceEstimators.js";
+export { buildConvergenceReport, buildConvergenceReportOnPool, convergenceEstimator, type ConvergeRequest } from "./convergeStudy.js";
+export { replicaSeed } from "./replicaSeed.js";
+export { inThreadEstimator, poolEstimator, type TraceSubject } from "./traceEstimators.js";

@@ -96,19 +96,45 @@ function checkOptions(o: ConvergenceOptions): void {
   if (o.targetError !== undefined && !(o.targetError > 0)) throw new RangeError(`convergence: targetError must be > 0, got ${o.targetError}`);
 }
 
+/** Async estimator (e.g. tracing on a worker pool); same contract as Estimator. */
+export type AsyncEstimator = (nRays: number, namespace: string) => Promise<Estimate>;
+
+/** The runs a convergence study needs: the reference (unless given), then steps × replicas. */
+function plannedRuns(o: ConvergenceOptions): { nRays: number; namespace: string }[] {
+  const runs: { nRays: number; namespace: string }[] = [];
+  if (o.reference === undefined) runs.push({ nRays: o.referenceRays, namespace: REFERENCE_NAMESPACE });
+  for (let k = 0; k < o.steps; k++) {
+    for (let r = 0; r < o.replicas; r++) runs.push({ nRays: o.startRays * 2 ** k, namespace: stepNamespace(k, r) });
+  }
+  return runs;
+}
+
 /**
  * Runs the estimator at N, 2N, 4N, … rays (each replica of each step on its own streams) and an
  * independent reference, and measures how the error falls with N.
  */
 export function runConvergence(estimate: Estimator, o: ConvergenceOptions): ConvergenceResult {
   checkOptions(o);
-  const reference = o.reference
-    ? { ...o.reference, kind: "given" as const }
-    : { ...estimate(o.referenceRays, REFERENCE_NAMESPACE), kind: "run" as const };
+  return assemble(plannedRuns(o).map((r) => estimate(r.nRays, r.namespace)), o);
+}
+
+/** runConvergence with an async estimator; runs one after another, so the result is the same. */
+export async function runConvergenceAsync(estimate: AsyncEstimator, o: ConvergenceOptions): Promise<ConvergenceResult> {
+  checkOptions(o);
+  const results: Estimate[] = [];
+  for (const r of plannedRuns(o)) results.push(await estimate(r.nRays, r.namespace));
+  return assemble(results, o);
+}
+
+/** Builds the result from the estimates of plannedRuns(o), in that order. */
+function assemble(results: Estimate[], o: ConvergenceOptions): ConvergenceResult {
+  let next = 0;
+  const reference = o.reference ? { ...o.reference, kind: "given" as const } : { ...results[next++], kind: "run" as const };
   const steps: ConvergenceStep[] = [];
   for (let k = 0; k < o.steps; k++) {
     const nRays = o.startRays * 2 ** k;
-    const runs = Array.from({ length: o.replicas }, (_, r) => estimate(nRays, stepNamespace(k, r)));
+    const runs = results.slice(next, next + o.replicas);
+    next += o.replicas;
     const sq = runs.reduce((a, e) => a + (e.value - reference.value) ** 2, 0);
     const first = runs[0];
     steps.push({

@@ -1,109 +1,163 @@
-import type { MaterialRegistry } from "../materials/registry.js";
 import { RandomStream, streamKey } from "../random/stream.js";
-import { photocurrentWeights, type Spectrum } from "../spectrum/index.js";
-import type { Study } from "../study/studyTypes.js";
+import type { LoadedStudy } from "../study/load.js";
 import { channelMean, channelStdErr, tallyLength, tallyProblem } from "../sweep/tally.js";
 import { channelNames, compileStack, traceBatch, type CompiledStack, type CompileOptions } from "../trace/index.js";
+import type { TracePool } from "../workers/pool.js";
+import type { TraceItem } from "../workers/traceTask.js";
 import { InputError } from "../util/errors.js";
-import type { Estimate, Estimator } from "./runConvergence.js";
+import { replicaSeed } from "./replicaSeed.js";
+import type { AsyncEstimator, Estimate, Estimator } from "./runConvergence.js";
 
-/** Default rays per batch (each batch on its own stream) when the study does not say. */
-const DEFAULT_BATCH = 1000;
+/**
+ * A convergence subject traced on a one-direction study: `study` is the loaded study with its grid
+ * reduced to θ = [thetaDeg], one azimuth, and the wavelengths of interest (see convergeStudy.ts).
+ * Run (namespace) traces batch b of wavelength il on streamKey(replicaSeed(seed, namespace), combo,
+ * 0, 0, il, b), in this thread or on the pool alike, so both give the same numbers.
+ */
+export interface TraceSubject {
+  study: LoadedStudy;
+  combo: number;
+}
 
-interface PointStack {
-  cs: CompiledStack;
-  channels: string[];
+/** Per-wavelength result of one run: mean and standard error of every channel. */
+interface PointResult {
+  mean: Float64Array;
+  stderr: Float64Array;
+}
+
+/** Traces wavelength index il of the subject in this thread (compiled stacks cached). */
+function inThreadTracer(subject: TraceSubject, options?: CompileOptions): { channels: string[]; run: (il: number, nRays: number, seed: number) => PointResult } {
+  const combo = subject.study.combos[subject.combo];
+  const study = combo.study;
+  const g = study.grid;
+  const stacks: CompiledStack[] = g.wavelengthNm.map((l) => compileStack(study, subject.study.registry, l, options));
+  const channels = channelNames(stacks[0]);
+  const nCh = channels.length;
+  const len = tallyLength(nCh);
+  const batch = study.rays.batch;
+  const thetaDeg = g.thetaDeg[0];
+  const phiDeg = g.phiMode === "averaged" ? null : g.phiDeg[0];
+  const run = (il: number, nRays: number, seed: number): PointResult => {
+    const acc = new Float64Array(len);
+    const t = new Float64Array(len);
+    for (let b = 0, done = 0; done < nRays; b++) {
+      const n = Math.min(batch, nRays - done);
+      t.fill(0);
+      traceBatch(stacks[il], thetaDeg, phiDeg, n, new RandomStream(streamKey(seed, subject.combo, 0, 0, il, b)), t);
+      const problem = tallyProblem(t, nCh, n);
+      if (problem !== undefined) {
+        throw new Error(`convergence run failed at θ=${thetaDeg}°, φ=${phiDeg ?? "averaged"}, λ=${g.wavelengthNm[il]} nm, seed ${seed}, batch ${b}: ${problem}`);
+      }
+      for (let i = 0; i < len; i++) acc[i] += t[i];
+      done += n;
+    }
+    const mean = new Float64Array(nCh);
+    const stderr = new Float64Array(nCh);
+    for (let c = 0; c < nCh; c++) {
+      mean[c] = channelMean(acc, nCh, c);
+      stderr[c] = channelStdErr(acc, nCh, c);
+    }
+    return { mean, stderr };
+  };
+  return { channels, run };
+}
+
+function channelOf(channels: string[], name: string): number {
+  const c = channels.indexOf(name);
+  if (c < 0) throw new InputError(`--channel: the stack has no channel "${name}" (has ${channels.join(", ")})`);
+  return c;
 }
 
 /**
- * Traces `nRays` at one direction and wavelength in batches, batch b on the stream
- * streamKey(seed, namespace, θ, φ, λ, b), and returns the merged tally. Tallies are added batch by
- * batch in order, so the result depends only on the seed, namespace and ray count.
+ * Combines per-wavelength results into the estimate: point mode (weights = null) takes channel c of
+ * the single wavelength; spectral mode J = Σ w_i A_i with SE = sqrt(Σ w_i² SE_i²) (independent
+ * streams per wavelength).
  */
-function tracePoint(
-  stack: PointStack,
-  seed: number,
-  namespace: string,
-  thetaDeg: number,
-  phiDeg: number | null,
-  wavelengthNm: number,
-  nRays: number,
-  batch: number,
-): Float64Array {
-  const nCh = stack.channels.length;
-  const len = tallyLength(nCh);
-  const acc = new Float64Array(len);
-  const t = new Float64Array(len);
-  for (let b = 0, done = 0; done < nRays; b++) {
-    const n = Math.min(batch, nRays - done);
-    t.fill(0);
-    const rng = new RandomStream(streamKey(seed, namespace, thetaDeg, phiDeg ?? "avg", wavelengthNm, b));
-    traceBatch(stack.cs, thetaDeg, phiDeg, n, rng, t);
-    const problem = tallyProblem(t, nCh, n);
-    if (problem !== undefined) {
-      throw new Error(`convergence run failed at θ=${thetaDeg}°, φ=${phiDeg ?? "averaged"}, λ=${wavelengthNm} nm, ${namespace}, batch ${b}: ${problem}`);
-    }
-    for (let i = 0; i < len; i++) acc[i] += t[i];
-    done += n;
-  }
-  return acc;
+function combine(results: PointResult[], c: number, weights: ArrayLike<number> | null, nRays: number): Estimate {
+  if (weights === null) return { value: results[0].mean[c], stderr: results[0].stderr[c], nRays };
+  let j = 0;
+  let var2 = 0;
+  results.forEach((r, i) => {
+    j += weights[i] * r.mean[c];
+    var2 += (weights[i] * r.stderr[c]) ** 2;
+  });
+  return { value: j, stderr: Math.sqrt(var2), nRays };
 }
 
-function compilePoint(study: Study, registry: MaterialRegistry, wavelengthNm: number, options?: CompileOptions): PointStack {
-  const cs = compileStack(study, registry, wavelengthNm, options);
-  return { cs, channels: channelNames(cs) };
-}
-
-function batchOf(study: Study): number {
-  return study.rays.batch > 0 ? study.rays.batch : DEFAULT_BATCH;
-}
-
-export interface PointTarget {
-  thetaDeg: number;
-  phiDeg: number | null;
-  wavelengthNm: number;
-  channel: string;
-}
-
-/** Estimator of one channel's fraction at one direction and wavelength (in-process tracing). */
-export function pointEstimator(study: Study, registry: MaterialRegistry, target: PointTarget, options?: CompileOptions): Estimator {
-  const stack = compilePoint(study, registry, target.wavelengthNm, options);
-  const c = stack.channels.indexOf(target.channel);
-  if (c < 0) throw new InputError(`--channel: the stack has no channel "${target.channel}" (has ${stack.channels.join(", ")})`);
-  const batch = batchOf(study);
-  return (nRays: number, namespace: string): Estimate => {
-    const t = tracePoint(stack, study.seed, namespace, target.thetaDeg, target.phiDeg, target.wavelengthNm, nRays, batch);
-    const nCh = stack.channels.length;
-    return { value: channelMean(t, nCh, c), stderr: channelStdErr(t, nCh, c), nRays };
+/**
+ * Estimator traced in this thread. `channel` is the channel estimated; `weights` (one per
+ * wavelength of the subject) turn it into a spectral sum, null for a single point.
+ */
+export function inThreadEstimator(subject: TraceSubject, channel: string, weights: ArrayLike<number> | null, options?: CompileOptions): Estimator {
+  const tracer = inThreadTracer(subject, options);
+  const c = channelOf(tracer.channels, channel);
+  const seedOf = subject.study.combos[subject.combo].study.seed;
+  const nL = subject.study.combos[subject.combo].study.grid.wavelengthNm.length;
+  return (nRays, namespace) => {
+    const seed = replicaSeed(seedOf, namespace);
+    const results = Array.from({ length: nL }, (_, il) => tracer.run(il, nRays, seed));
+    return combine(results, c, weights, nRays);
   };
 }
 
-export interface SpectralTarget {
-  thetaDeg: number;
-  phiDeg: number | null;
-  spectrum: Spectrum;
-}
-
 /**
- * Estimator of the absorber photocurrent (mA/cm²) at one direction over the study's wavelength grid:
- * J = Σ w_i A_i, SE = sqrt(Σ w_i² SE_i²) (independent streams per wavelength); `nRays` rays at every wavelength.
+ * The same estimator on a worker pool: every wavelength's batches go out as messages of a few
+ * batches each, all in flight together; tallies are summed per wavelength in batch order, so the
+ * numbers equal the in-thread ones for any worker count.
  */
-export function spectralEstimator(study: Study, registry: MaterialRegistry, target: SpectralTarget, options?: CompileOptions): Estimator {
-  const grid = study.grid.wavelengthNm;
-  const w = photocurrentWeights(grid, target.spectrum);
-  const stacks = grid.map((l) => compilePoint(study, registry, l, options));
-  const batch = batchOf(study);
-  return (nRays: number, namespace: string): Estimate => {
-    let j = 0;
-    let var2 = 0;
-    grid.forEach((l, i) => {
-      const stack = stacks[i];
-      const c = stack.channels.indexOf("A_absorber");
-      const nCh = stack.channels.length;
-      const t = tracePoint(stack, study.seed, namespace, target.thetaDeg, target.phiDeg, l, nRays, batch);
-      j += w[i] * channelMean(t, nCh, c);
-      var2 += (w[i] * channelStdErr(t, nCh, c)) ** 2;
-    });
-    return { value: j, stderr: Math.sqrt(var2), nRays };
+export function poolEstimator(subject: TraceSubject, channel: string, weights: ArrayLike<number> | null, pool: TracePool): AsyncEstimator {
+  const study = subject.study.combos[subject.combo].study;
+  const g = study.grid;
+  const nL = g.wavelengthNm.length;
+  // Channel names from one stack compiled here (the workers compile the same stacks).
+  const channels = channelNames(compileStack(study, subject.study.registry, g.wavelengthNm[0]));
+  const c = channelOf(channels, channel);
+  const nCh = channels.length;
+  const len = tallyLength(nCh);
+  const batch = study.rays.batch;
+  const phiDeg = g.phiMode === "averaged" ? null : g.phiDeg[0];
+  return async (nRays, namespace) => {
+    const seed = replicaSeed(study.seed, namespace);
+    const nBatches = Math.ceil(nRays / batch);
+    const sizes = Array.from({ length: nBatches }, (_, j) => Math.min(batch, nRays - j * batch));
+    // About four messages per worker per run in total, at least one batch each.
+    const per = Math.max(1, Math.ceil((nBatches * nL) / (4 * pool.nWorkers)));
+    const jobs: Promise<Float64Array>[][] = [];
+    for (let il = 0; il < nL; il++) {
+      const mine: Promise<Float64Array>[] = [];
+      for (let j0 = 0; j0 < nBatches; j0 += per) {
+        const item: TraceItem = {
+          combo: subject.combo,
+          it: 0,
+          ip: 0,
+          il,
+          thetaDeg: g.thetaDeg[0],
+          phiDeg,
+          wavelengthNm: g.wavelengthNm[il],
+          firstBatch: j0,
+          batchRays: sizes.slice(j0, j0 + per),
+          seed,
+        };
+        mine.push(pool.run({ items: [item] }));
+      }
+      jobs.push(mine);
+    }
+    // One await over everything, so a failing message never leaves others' rejections unhandled.
+    const all = await Promise.all(jobs.map((mine) => Promise.all(mine)));
+    const results: PointResult[] = [];
+    for (let il = 0; il < nL; il++) {
+      const outs = all[il];
+      const acc = new Float64Array(len);
+      // Batch tallies in batch order (messages are in batch order, batches within a message too).
+      for (const out of outs) for (let k = 0; k < out.length; k += len) for (let i = 0; i < len; i++) acc[i] += out[k + i];
+      const mean = new Float64Array(nCh);
+      const stderr = new Float64Array(nCh);
+      for (let ch = 0; ch < nCh; ch++) {
+        mean[ch] = channelMean(acc, nCh, ch);
+        stderr[ch] = channelStdErr(acc, nCh, ch);
+      }
+      results.push({ mean, stderr });
+    }
+    return combine(results, c, weights, nRays);
   };
 }

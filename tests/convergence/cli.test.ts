@@ -81,3 +81,17 @@ describe("lightfold converge", () => {
     expect(readdirSync(dir).sort()).toEqual(before);
   });
 });
+
+describe("lightfold converge --workers", () => {
+  it("gives the same numbers on a worker pool as in one thread (spectral and point mode)", async () => {
+    // Workers load the compiled tracer from dist/ (npm test builds first).
+    for (const mode of [["--spectral", "--angle", "30"], ["--wavelength", "700", "--phi", "0"]]) {
+      const args = ["converge", studyPath, ...mode, "--start", "600", "--steps", "2", "--replicas", "2", "--json", "--quiet"];
+      const one = await run(...args, "--workers", "1");
+      const two = await run(...args, "--workers", "2");
+      expect(one.code).toBe(0);
+      expect(two.code).toBe(0);
+      expect(two.out).toBe(one.out);
+    }
+  });
+});

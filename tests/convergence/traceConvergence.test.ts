@@ -2,8 +2,7 @@ import { describe, expect, it } from "vitest";
 import { loadStudyFromDocument } from "../../src/study/load.js";
 import { logLogSlope } from "../../src/convergence/logLogSlope.js";
 import { runConvergence } from "../../src/convergence/runConvergence.js";
-import { pointEstimator } from "../../src/convergence/traceEstimators.js";
-import { buildConvergenceReport } from "../../src/convergence/convergeStudy.js";
+import { buildConvergenceReport, convergenceEstimator } from "../../src/convergence/convergeStudy.js";
 
 /** Planar bare silicon, 180 µm, silver rear: at 400 nm the wafer is opaque, so R is pure front Fresnel reflection. */
 function bareSi(seed: number) {
@@ -33,7 +32,7 @@ describe("convergence with the tracer (planar bare Si, R at 400 nm, θ = 0)", ()
   const loaded = bareSi(1);
   const { n, k } = loaded.registry.get("Si").nk(400);
   const rExact = fresnelNormal(n, k);
-  const target = { thetaDeg: 0, phiDeg: 0, wavelengthNm: 400, channel: "R" };
+  const target = { thetaDeg: 0, phiDeg: 0, wavelengthNm: 400, channel: "R", startRays: 1, steps: 2, replicas: 1 };
 
   it("RMS error falls as N^-1/2 over more than a decade, pooled over several seeds (slope -0.5 ± 0.1)", () => {
     // Standard Monte Carlo result (validation-sources.md, Convergence). Exact reference: Fresnel R.
@@ -41,7 +40,7 @@ describe("convergence with the tracer (planar bare Si, R at 400 nm, θ = 0)", ()
     const seeds = [1, 2, 3, 4, 5, 6];
     const runs = seeds.map((s) => {
       const l = bareSi(s);
-      return runConvergence(pointEstimator(l.combos[0].study, l.registry, target), {
+      return runConvergence(convergenceEstimator(l, target), {
         startRays: 50,
         steps: 7,
         replicas: 8,
@@ -69,7 +68,7 @@ describe("convergence with the tracer (planar bare Si, R at 400 nm, θ = 0)", ()
   });
 
   it("the predicted ray count reaches the requested error: N·(SE/target)²", () => {
-    const est = pointEstimator(loaded.combos[0].study, loaded.registry, target);
+    const est = convergenceEstimator(loaded, target);
     const r = runConvergence(est, { startRays: 200, steps: 3, replicas: 1, referenceRays: 1000, targetError: 0.004 });
     const predicted = r.predictedRays!;
     expect(predicted).toBe(Math.ceil(800 * (r.steps[2].stderr / 0.004) ** 2));

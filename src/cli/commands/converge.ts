@@ -1,7 +1,8 @@
 import { join } from "node:path";
 import type { Command } from "commander";
 import { CONVERGENCE_FILE, convergenceCsv, formatConvergenceTable } from "../../convergence/convergenceReport.js";
-import { buildConvergenceReport, type ConvergeRequest } from "../../convergence/convergeStudy.js";
+import { buildConvergenceReportOnPool, type ConvergeRequest } from "../../convergence/convergeStudy.js";
+import { defaultWorkerCount } from "../../workers/pool.js";
 import { loadStudy } from "../../study/load.js";
 import { writeFileAtomic } from "../../util/atomicWrite.js";
 import { InputError } from "../../util/errors.js";
@@ -25,6 +26,7 @@ interface ConvergeFlags {
   json?: boolean;
   quiet?: boolean;
   estimator?: string;
+  workers?: string;
 }
 
 function num(text: string | undefined, flag: string, check: (v: number) => boolean, expected: string): number | undefined {
@@ -61,7 +63,8 @@ export function register(program: Command): void {
     .option("--out <dir>", `write ${CONVERGENCE_FILE} into this run folder`)
     .option("--csv <file>", "write the step table as CSV")
     .option("--json", "print the result as JSON instead of the table")
-    .option("--estimator <kind>", "absorption sampling of the tracer: expected (default) or analog")
+    .option("--workers <n>", "worker threads (default: all cores; 1 = trace in this thread; same numbers either way)")
+    .option("--estimator <kind>", "absorption sampling of the tracer: expected (default) or analog (one thread)")
     .option("--quiet", "no progress lines on stderr")
     .addHelpText(
       "after",
@@ -76,7 +79,7 @@ Every replica of every step, and the reference, draws from its own random stream
 study seed), so the steps are independent and the output is the same for a fixed seed. Plain Monte
 Carlo errors fall as N^-1/2: the fitted log-log slopes should be near -0.5.`,
     )
-    .action((studyPath: string, flags: ConvergeFlags) => {
+    .action(async (studyPath: string, flags: ConvergeFlags) => {
       if ((flags.wavelength === undefined) === (flags.spectral !== true)) {
         throw new InputError("converge: give exactly one of --wavelength <nm> or --spectral");
       }
@@ -96,7 +99,10 @@ Carlo errors fall as N^-1/2: the fitted log-log slopes should be near -0.5.`,
         estimator: estimatorFlag(flags.estimator),
       };
       const onStep = flags.quiet ? undefined : (msg: string) => process.stderr.write(`${msg}\n`);
-      const report = buildConvergenceReport(loaded, req, onStep);
+      // A non-default estimator traces in this thread unless workers are asked for explicitly.
+      const workers =
+        num(flags.workers, "--workers", posInt, "a positive integer") ?? (req.estimator === undefined || req.estimator === "expected" ? defaultWorkerCount() : 1);
+      const report = await buildConvergenceReportOnPool(loaded, req, workers, onStep);
       // Everything is computed; now the files (each written atomically).
       if (flags.csv !== undefined) writeFileAtomic(flags.csv, convergenceCsv(report));
       if (flags.out !== undefined) writeFileAtomic(join(flags.out, CONVERGENCE_FILE), JSON.stringify(report, null, 2) + "\n");
