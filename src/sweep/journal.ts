@@ -9,6 +9,7 @@ export const JOURNAL_VERSION = 1;
 export interface JournalHeader {
   studyHash: string;
   toolVersion: string;
+  buildId: string;
   /** [K, N] for shard K of N, null for a whole run. */
   shard: [number, number] | null;
 }
@@ -38,7 +39,7 @@ function sealLine(payload: object): string {
 }
 
 export function headerLine(h: JournalHeader): string {
-  return sealLine({ format: JOURNAL_FORMAT, version: JOURNAL_VERSION, studyHash: h.studyHash, toolVersion: h.toolVersion, shard: h.shard });
+  return sealLine({ format: JOURNAL_FORMAT, version: JOURNAL_VERSION, studyHash: h.studyHash, toolVersion: h.toolVersion, buildId: h.buildId, shard: h.shard });
 }
 
 export function entryLine(e: JournalEntry): string {
@@ -81,7 +82,7 @@ export function readJournal(path: string): JournalContents {
     const o = cut && i === lines.length - 1 ? undefined : openLine(line);
     if (i === 0) {
       if (o !== undefined && o.format === JOURNAL_FORMAT && o.version === JOURNAL_VERSION) {
-        header = { studyHash: String(o.studyHash), toolVersion: String(o.toolVersion), shard: (o.shard ?? null) as JournalHeader["shard"] };
+        header = { studyHash: String(o.studyHash), toolVersion: String(o.toolVersion), buildId: String(o.buildId), shard: (o.shard ?? null) as JournalHeader["shard"] };
       } else damagedLines.push(1);
       return;
     }

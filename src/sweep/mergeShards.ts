@@ -88,6 +88,9 @@ export function mergeShards(options: MergeOptions): MergeResult {
     if (s.plan.toolVersion !== ref.s.plan.toolVersion) {
       throw new InputError(`${path}: written by lightfold ${s.plan.toolVersion}, ${ref.path} by ${ref.s.plan.toolVersion}; refusing to merge shards of different versions`);
     }
+    if (s.plan.buildId !== ref.s.plan.buildId) {
+      throw new InputError(`${path}: written by a different build of lightfold ${s.plan.toolVersion} than ${ref.path} (code fingerprint ${s.plan.buildId} vs ${ref.s.plan.buildId}); refusing to merge`);
+    }
     if (s.shard.count !== ref.s.shard.count) {
       throw new InputError(`${path}: shard ${s.shard.index} of ${s.shard.count}, but ${ref.path} is of ${ref.s.shard.count}; refusing to mix shard splits`);
     }

@@ -21,6 +21,8 @@ export interface SweepPlan {
   studyName: string;
   studyHash: string;
   toolVersion: string;
+  /** Fingerprint of the running code (see buildId.ts). */
+  buildId: string;
   seed: number;
   grid: StudyGrid;
   rays: RaysPlan;

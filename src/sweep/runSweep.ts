@@ -10,6 +10,7 @@ import type { StudyCombo } from "../study/studyTypes.js";
 import { writeFileAtomic } from "../util/atomicWrite.js";
 import { InputError } from "../util/errors.js";
 import { toolVersion } from "../util/version.js";
+import { buildId } from "./buildId.js";
 import { defaultWorkerCount, TracePool } from "../workers/pool.js";
 import { loadTracer, type TracerModule } from "../workers/tracerModule.js";
 import type { WorkerSetup } from "../workers/traceTask.js";
@@ -103,6 +104,7 @@ export function sweepPlanOf(study: LoadedStudy, tracer: TracerModule): SweepPlan
     studyName: study.name,
     studyHash: study.hash,
     toolVersion: toolVersion(),
+    buildId: buildId(),
     seed: first.seed,
     grid: first.grid,
     rays: first.rays,
@@ -156,20 +158,31 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
   if (options.outDir !== undefined) {
     const jPath = journalPath(options.outDir, shard);
     mkdirSync(dirname(jPath), { recursive: true });
-    const header = { studyHash: plan.studyHash, toolVersion: plan.toolVersion, shard: shard === null ? null : ([shard.index, shard.count] as [number, number]) };
+    const header = { studyHash: plan.studyHash, toolVersion: plan.toolVersion, buildId: plan.buildId, shard: shard === null ? null : ([shard.index, shard.count] as [number, number]) };
     let kept: JournalEntry[] = [];
     if (existsSync(jPath)) {
       const old = readJournal(jPath);
       const h = old.header;
-      const matches = h !== undefined && h.studyHash === header.studyHash && h.toolVersion === header.toolVersion &&
-        JSON.stringify(h.shard) === JSON.stringify(header.shard);
-      if (!matches || options.fresh === true) {
-        const why = options.fresh === true ? "fresh" : h === undefined ? "unreadable" : h.toolVersion !== header.toolVersion ? "other-version" : "other-study";
+      const mismatch = h === undefined ? "unreadable"
+        : h.studyHash !== header.studyHash ? "other-study"
+        : h.toolVersion !== header.toolVersion ? "other-version"
+        : h.buildId !== header.buildId ? "other-build"
+        : JSON.stringify(h.shard) !== JSON.stringify(header.shard) ? "other-shard"
+        : undefined;
+      if (mismatch !== undefined || options.fresh === true) {
+        const why = options.fresh === true ? "fresh" : (mismatch as string);
         const aside = setJournalAside(jPath, why);
+        const whose: Record<string, string> = {
+          unreadable: "has an unreadable header",
+          "other-study": "belongs to a different study (its hash differs)",
+          "other-version": `was written by lightfold ${h?.toolVersion}`,
+          "other-build": "was written by a different build of lightfold (code fingerprint differs)",
+          "other-shard": "belongs to another shard split",
+        };
         notice(
           options.fresh === true
             ? `journal set aside as ${aside}; starting afresh`
-            : `journal ${jPath} belongs to ${h === undefined ? "an unreadable header" : h.toolVersion !== header.toolVersion ? `lightfold ${h.toolVersion}` : "a different study (its hash differs)"}; set aside as ${aside}, starting afresh`,
+            : `journal ${jPath} ${whose[why]}; set aside as ${aside}, starting afresh`,
         );
       } else {
         damaged = old.damagedLines;

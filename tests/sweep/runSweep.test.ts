@@ -2,6 +2,7 @@ import { existsSync, readdirSync, readFileSync, rmSync, writeFileSync } from "no
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { readResponseMatrix } from "../../src/response/matrixFile.js";
+import { headerLine } from "../../src/sweep/journal.js";
 import { mergeShards } from "../../src/sweep/mergeShards.js";
 import { runSweep } from "../../src/sweep/runSweep.js";
 import { InputError } from "../../src/util/errors.js";
@@ -86,6 +87,16 @@ describe("runSweep(options): journal", () => {
     expect(changed.raysTraced).toBe(6 * 130);
     expect(notices.join("\n")).toMatch(/different study \(its hash differs\); set aside as .*journal\.jsonl\.other-study-/);
     expect(readdirSync(out).some((f) => f.startsWith("journal.jsonl.other-study-"))).toBe(true);
+
+    // Same study, but the journal came from another build of the code: also set aside.
+    const jPath = join(out, "journal.jsonl");
+    const [head, ...rest] = readFileSync(jPath, "utf8").split("\n");
+    const h = JSON.parse(head) as { studyHash: string; toolVersion: string; buildId: string; shard: null };
+    writeFileSync(jPath, [headerLine({ ...h, buildId: "0123456789abcdef" }).trimEnd(), ...rest].join("\n"));
+    const notes2: string[] = [];
+    const rebuilt = await runSweep({ study: tinyStudy({ seed: 12 }), outDir: out, workers: 1, tracerModule: TRACER, onNotice: (m) => notes2.push(m) });
+    expect(rebuilt.raysResumed).toBe(0);
+    expect(notes2.join("\n")).toMatch(/different build of lightfold \(code fingerprint differs\)/);
   });
 });
 
@@ -124,7 +135,7 @@ describe("mergeShards(options)", () => {
     );
   });
 
-  it("refuses shards written by another tool version", async () => {
+  it("refuses shards written by another tool version or another build", async () => {
     const study = tinyStudy();
     const out = tempDir("merge-version");
     const a = await runSweep({ study, outDir: out, workers: 1, shard: { index: 1, count: 2 }, tracerModule: TRACER });
@@ -133,6 +144,10 @@ describe("mergeShards(options)", () => {
     doc.plan.toolVersion = "0.0.1-other";
     writeFileSync(b.files[0], JSON.stringify(doc));
     expect(() => mergeShards({ inputs: [a.files[0], b.files[0]] })).toThrow(/written by lightfold 0\.0\.1-other.*refusing to merge shards of different versions/);
+    doc.plan.toolVersion = a.plan.toolVersion;
+    doc.plan.buildId = "0123456789abcdef";
+    writeFileSync(b.files[0], JSON.stringify(doc));
+    expect(() => mergeShards({ inputs: [a.files[0], b.files[0]] })).toThrow(/different build of lightfold .*code fingerprint 0123456789abcdef.*refusing to merge/);
   });
 });
 
