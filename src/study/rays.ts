@@ -14,13 +14,15 @@ const MAX_RAYS_PER_POINT = 1e12;
 /** Validates the "rays" section: {perPoint, batch} or {targetStdErr, channels, maxPerPoint, batch}. */
 export function parseRays(raw: unknown, path: string): RaysPlan {
   const o = expectObject(raw, path);
-  const batch = expectInteger(requireField(o, "batch", path), `${path}.batch`, 1, 1e9);
   if (o.perPoint !== undefined || o.targetStdErr === undefined) {
+    // Unknown fields first: a misspelt "batch" must be named as the typo, not as a missing field.
     rejectUnknownFields(o, path, ["perPoint", "batch"]);
+    const batch = expectInteger(requireField(o, "batch", path), `${path}.batch`, 1, 1e9);
     const perPoint = expectInteger(requireField(o, "perPoint", path), `${path}.perPoint`, 1, MAX_RAYS_PER_POINT);
     return { mode: "fixed", perPoint, batch };
   }
   rejectUnknownFields(o, path, ["targetStdErr", "channels", "maxPerPoint", "minPerPoint", "batch"]);
+  const batch = expectInteger(requireField(o, "batch", path), `${path}.batch`, 1, 1e9);
   const targetStdErr = expectPositive(o.targetStdErr, `${path}.targetStdErr`);
   if (targetStdErr >= 0.5) throw new InputError(`${path}.targetStdErr: expected a standard error below 0.5, got ${targetStdErr}`);
   const rawChannels = requireField(o, "channels", path);

@@ -87,6 +87,11 @@ describe("study validation names the field path", () => {
     const e2 = errorOf(d2);
     expect(e2.message).toBe("grid.wavelenghtNm: unknown field");
     expect(e2.hint).toBe('did you mean "wavelengthNm"?');
+    const d4 = baseDoc();
+    d4.rays = { perPoint: 100, bacth: 50 };
+    const e4 = errorOf(d4);
+    expect(e4.message).toBe("rays.bacth: unknown field");
+    expect(e4.hint).toBe('did you mean "batch"?');
     const d3 = baseDoc();
     ((d3.stack as Record<string, Record<string, unknown>>).absorber).thicknesUm = 100;
     const e3 = errorOf(d3);
