@@ -39,6 +39,19 @@ describe("lightfold weather / yield / compare", () => {
     expect(doc.best.tiltDeg).toBe(45);
   });
 
+  it("yield --hourly writes one row per hour whose currents sum to the yearly charge", async () => {
+    const hourly = join(dir, "hours.csv"), res = join(dir, "one.json");
+    expect(await run("yield", "--matrix", join(dir, "a.matrix.json"), "--site", SITE, "--weather", join(dir, "w.csv"), "--tilt", "35", "--hourly", hourly, "--out", res)).toBe(0);
+    const rows = readFileSync(hourly, "utf8").trim().split("\n");
+    expect(rows[0]).toBe("time,zenith_deg,azimuth_deg,incidence_deg,ghi_wm2,dni_wm2,dhi_wm2,poa_wm2,current_am2");
+    expect(rows).toHaveLength(8761);
+    const total = rows.slice(1).reduce((a, r) => a + Number(r.split(",")[8]), 0);
+    const doc = JSON.parse(readFileSync(res, "utf8"));
+    expect(Math.abs(total / doc.results[0].chargeAhM2 - 1)).toBeLessThan(1e-4); // rows rounded to 1 mA/m²
+    expect(await run("weather", "--site", SITE, "--check", join(dir, "w.csv"))).toBe(0);
+    expect(out.join("")).toMatch(/8760 hourly records, a full year/);
+  });
+
   it("compare writes <run>/yield/compare.json with a benefit row per site and tilt", async () => {
     const runDir = join(dir, "cmp");
     const code = await run("compare", "--matrix", join(dir, "a.matrix.json"), "--matrix", join(dir, "b.matrix.json"), "--site", SITE, "--site", "configs/sites/tessarit-reg.site.json", "--tilt", "20,35", "--run-dir", runDir);

@@ -21,6 +21,14 @@ describe("planeQuadrature(grid, frame)", () => {
     }
   });
 
+  it("keeps the view factors on azimuth-resolved grids (square folding, periodic list) with a texture rotation", () => {
+    for (const grid of [new AngularGrid(range(0, 90, 10), [0, 15, 30, 45], "square"), new AngularGrid(range(0, 90, 10), [0, 90, 180, 270], "list")]) {
+      const q = planeQuadrature(grid, moduleFrame({ tiltDeg: 60, azimuthDeg: 135, textureRotationDeg: 17 }));
+      expect(Math.abs(sum(q.sky) - (1 + Math.cos(60 * DEG)) / 2)).toBeLessThan(3e-4);
+      expect(Math.abs(sum(q.ground) - (1 - Math.cos(60 * DEG)) / 2)).toBeLessThan(3e-4);
+    }
+  });
+
   it("integrates a cos-shaped response exactly enough: ∫ cos²θ dΩ/π = 2/3 for a horizontal plane", () => {
     // response J = cos θ (linear in θ interpolation error: fine 1° grid); closed form ∫₀^{π/2} cos²θ sinθ dθ · 2π/π = 2/3
     const thetas = range(0, 90, 1);
