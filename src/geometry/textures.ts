@@ -90,7 +90,7 @@ function finish(
  * Random upright pyramids: `count` square pyramids with random centres (uniform over the tile) and
  * base sizes mean·(1 + spread·N(0,1)) (clipped at 0.25·mean), all with the same facet angle and
  * axis-aligned edges (as alkaline etching gives). The surface is the tallest of them at each point
- * (periodic), sampled on a fine grid and triangulated.
+ * (periodic), sampled on a grid of mean/32 and triangulated (centres and sizes snapped to it).
  */
 function randomPyramids(spec: Extract<TextureSpec, { type: "random-pyramids" }>, boundary: BoundaryKind): SurfaceTile {
   const rng = new RandomStream(streamKey(spec.seed, "random-pyramids"));
@@ -109,22 +109,27 @@ function randomPyramids(spec: Extract<TextureSpec, { type: "random-pyramids" }>,
   const tanA = Math.tan(spec.facetAngleDeg * DEG);
   const nGrid = Math.min(MAX_GRID, Math.max(32, Math.ceil((RANDOM_PYRAMID_SAMPLES_PER_BASE * L) / spec.meanBaseUm)));
   const pitch = L / nGrid;
-  const heights = new Float64Array(nGrid * nGrid);
-  for (let j = 0; j < nGrid; j++) {
-    const y = j * pitch;
-    for (let i = 0; i < nGrid; i++) {
-      const x = i * pitch;
-      let h = 0;
-      for (let k = 0; k < n; k++) {
-        const dx = Math.abs(wrap(x - cx[k], L));
-        const dy = Math.abs(wrap(y - cy[k], L));
-        const hk = tanA * (half[k] - Math.max(dx, dy));
-        if (hk > h) h = hk;
-      }
-      heights[j * nGrid + i] = h;
-    }
+  // Centres on grid nodes and half-bases in steps of two pitches: then every edge and every line
+  // where two pyramids meet runs along grid lines or cell diagonals, and the triangulation is
+  // exact except in cells where two such lines cross.
+  for (let k = 0; k < n; k++) {
+    cx[k] = (Math.round(cx[k] / pitch) % nGrid) * pitch;
+    cy[k] = (Math.round(cy[k] / pitch) % nGrid) * pitch;
+    half[k] = Math.max(2, Math.round(half[k] / (2 * pitch))) * 2 * pitch;
   }
-  const verts = heightGridVerts(heights, nGrid, nGrid, pitch, pitch);
+  const heightAt = (x: number, y: number): number => {
+    let h = 0;
+    for (let k = 0; k < n; k++) {
+      const dx = Math.abs(wrap(x - cx[k], L));
+      const dy = Math.abs(wrap(y - cy[k], L));
+      const hk = tanA * (half[k] - Math.max(dx, dy));
+      if (hk > h) h = hk;
+    }
+    return h;
+  };
+  const heights = new Float64Array(nGrid * nGrid);
+  for (let j = 0; j < nGrid; j++) for (let i = 0; i < nGrid; i++) heights[j * nGrid + i] = heightAt(i * pitch, j * pitch);
+  const verts = heightGridVerts(heights, nGrid, nGrid, pitch, pitch, (i, j) => heightAt((i + 0.5) * pitch, (j + 0.5) * pitch));
   const label = `random upright pyramids, ${n} per ${L} µm tile, mean base ${spec.meanBaseUm} µm, spread ${spec.sizeSpread}, seed ${spec.seed}`;
   return finish(verts, L, L, nGrid, nGrid, boundary, label, 0);
 }
@@ -137,23 +142,22 @@ function sphericalCaps(spec: Extract<TextureSpec, { type: "spherical-caps" }>, b
   const n = CAP_SAMPLES_PER_PERIOD;
   const pitch = P / n;
   const sign = spec.inverted ? -1 : 1;
-  const heights = new Float64Array(n * n);
-  for (let j = 0; j < n; j++) {
-    for (let i = 0; i < n; i++) {
-      const dx = i * pitch - P / 2;
-      const dy = j * pitch - P / 2;
-      let h = 0;
-      // Neighbouring caps can overlap the cell when the cap is wider than the period.
-      for (let sy = -1; sy <= 1; sy++) {
-        for (let sx = -1; sx <= 1; sx++) {
-          const r2 = (dx + sx * P) ** 2 + (dy + sy * P) ** 2;
-          if (r2 < R * R) h = Math.max(h, Math.sqrt(R * R - r2) - (R - D));
-        }
+  const heightAt = (x: number, y: number): number => {
+    const dx = x - P / 2;
+    const dy = y - P / 2;
+    let h = 0;
+    // Neighbouring caps can overlap the cell when the cap is wider than the period.
+    for (let sy = -1; sy <= 1; sy++) {
+      for (let sx = -1; sx <= 1; sx++) {
+        const r2 = (dx + sx * P) ** 2 + (dy + sy * P) ** 2;
+        if (r2 < R * R) h = Math.max(h, Math.sqrt(R * R - r2) - (R - D));
       }
-      heights[j * n + i] = sign * h;
     }
-  }
-  const verts = heightGridVerts(heights, n, n, pitch, pitch);
+    return h === 0 ? 0 : sign * h;
+  };
+  const heights = new Float64Array(n * n);
+  for (let j = 0; j < n; j++) for (let i = 0; i < n; i++) heights[j * n + i] = heightAt(i * pitch, j * pitch);
+  const verts = heightGridVerts(heights, n, n, pitch, pitch, (i, j) => heightAt((i + 0.5) * pitch, (j + 0.5) * pitch));
   const label = `spherical ${spec.inverted ? "dimples" : "caps"}, radius ${R} µm, depth ${D} µm, period ${P} µm`;
   return finish(verts, P, P, n, n, boundary, label, 0);
 }

@@ -168,7 +168,8 @@ function texture(ctx: Ctx, raw: unknown, path: string): TextureSpec {
         throw new InputError(`${path}.sizeSpread: expected a relative standard deviation in [0, 1), got ${sizeSpread}`);
       }
       const count = integer(o.count ?? 20, `${path}.count`, 1, 10000);
-      const tileUm = o.tileUm === undefined ? meanBaseUm * Math.sqrt(count) : positive(o.tileUm, `${path}.tileUm`);
+      // Default tile: coverage count·mean²/tile² = 4, so about e^-4 ≈ 2 % of the base plane stays flat.
+      const tileUm = o.tileUm === undefined ? (meanBaseUm * Math.sqrt(count)) / 2 : positive(o.tileUm, `${path}.tileUm`);
       const seed = integer(o.seed ?? 1, `${path}.seed`, 0, 2 ** 31);
       return { type, meanBaseUm, sizeSpread, count, tileUm, facetAngleDeg: facet(), seed };
     }
