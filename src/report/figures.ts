@@ -24,8 +24,10 @@ export function slug(text: string): string {
   return s || "x";
 }
 
+/** Plot-id part of a stack: position, study name and (when swept) its combination folder. */
 export function stackId(stack: StackEntry, index: number): string {
-  return `${index + 1}-${slug(stack.label)}`;
+  const swept = stack.comboKey !== "base" && Object.keys(stack.combo).length > 0;
+  return `${index + 1}-${slug(stack.studyName).slice(0, 32)}${swept ? `-${slug(stack.comboKey)}` : ""}`;
 }
 
 /** Where the light goes vs wavelength at one incidence angle (stacked, bottom: absorber). */
@@ -229,10 +231,67 @@ export function tiltFigure(sweeps: TiltSweep[]): Figure | null {
       title,
       subtitle: `azimuth ${[...new Set(shown.map((s) => s.azimuthDeg))].join(", ")}° (180° = facing south); site: ${[...sites].join(", ")}`,
       width: 660,
-      x: { label: "tilt (°)", tight: true },
+      x: { label: "tilt (°)", tight: true, padding: 0.03 },
       y: { label: `yearly charge per area (${u.unit})`, headroom: 0.08 },
       series,
       marks,
+    }),
+  };
+}
+
+/**
+ * Photocurrent at the report angle vs a swept study parameter (the way engineers pick a thickness):
+ * x = the parameter with the most values, one curve per combination of the others; best point marked.
+ * Null unless some study has three or more combinations with photocurrent summaries.
+ */
+export function parameterSweepFigure(stacks: StackEntry[], angleDeg: number): Figure | null {
+  const byStudy = new Map<string, StackEntry[]>();
+  for (const s of stacks) {
+    if (!s.photocurrent || Object.keys(s.combo).length === 0) continue;
+    byStudy.set(s.studyName, [...(byStudy.get(s.studyName) ?? []), s]);
+  }
+  const study = [...byStudy.entries()].find(([, list]) => list.length >= 3);
+  if (!study) return null;
+  const [studyName, list] = study;
+  const keys = Object.keys(list[0]!.combo);
+  const distinct = (k: string) => new Set(list.map((s) => s.combo[k])).size;
+  const xKey = keys.reduce((a, b) => (distinct(b) > distinct(a) ? b : a));
+  const others = keys.filter((k) => k !== xKey);
+  const groupKey = (s: StackEntry) => others.map((k) => `${k} = ${s.combo[k]}`).join(", ");
+  const groups = new Map<string, StackEntry[]>();
+  for (const s of list) groups.set(groupKey(s), [...(groups.get(groupKey(s)) ?? []), s]);
+  const jAt = (s: StackEntry) => s.photocurrent!.perAngle.find((a) => Math.abs(a.thetaDeg - angleDeg) < 1e-6);
+  const series: LineSeries[] = [];
+  let best: { x: number; y: number; i: number } | null = null;
+  [...groups.entries()].slice(0, 7).forEach(([label, members], i) => {
+    const sorted = [...members].sort((a, b) => a.combo[xKey]! - b.combo[xKey]!);
+    const y = sorted.map((s) => jAt(s)?.absorberMaCm2 ?? NaN);
+    sorted.forEach((s, k) => {
+      if (Number.isFinite(y[k]!) && (!best || y[k]! > best.y)) best = { x: s.combo[xKey]!, y: y[k]!, i };
+    });
+    series.push({
+      label: label || studyName,
+      x: sorted.map((s) => s.combo[xKey]!),
+      y,
+      yErr: sorted.map((s) => jAt(s)?.absorberStderrMaCm2 ?? NaN),
+      markers: true,
+      colour: seriesColour(i),
+    });
+  });
+  const b = best as { x: number; y: number; i: number } | null;
+  const id = "parameter-sweep";
+  const title = `Absorber photocurrent vs ${xKey}`;
+  return {
+    id,
+    title,
+    svg: linePlot({
+      id,
+      title,
+      subtitle: `${studyName} · θ = ${angleDeg}° · whiskers ±1 standard error`,
+      x: { label: xKey, tight: true, padding: 0.04 },
+      y: { label: "absorber photocurrent (mA/cm²)", headroom: 0.1 },
+      series,
+      marks: b ? [{ x: b.x, y: b.y, label: `best ${b.x}`, colour: seriesColour(b.i) }] : [],
     }),
   };
 }

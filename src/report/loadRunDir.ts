@@ -46,6 +46,18 @@ export interface LoadOptions {
  * yield/*.json. Missing optional parts become omitted sections; malformed files are InputErrors.
  */
 export function loadReportInput(runDirs: string[], opts: LoadOptions): ReportInput {
+  try {
+    return loadAll(runDirs, opts);
+  } catch (err) {
+    // A malformed result file: say how to get a good one back.
+    if (err instanceof InputError && err.hint === undefined) {
+      throw new InputError(err.message, "re-run the command that wrote this file (sweep, converge, yield or compare) with this lightfold version");
+    }
+    throw err;
+  }
+}
+
+function loadAll(runDirs: string[], opts: LoadOptions): ReportInput {
   const input: ReportInput = {
     title: "",
     runDirs,

@@ -5,6 +5,7 @@ import {
   convergenceFigure,
   iamFigure,
   monthlyFigure,
+  parameterSweepFigure,
   responseMapFigure,
   spectralFigure,
   tiltFigure,
@@ -136,6 +137,14 @@ export function renderReport(input: ReportInput): RenderedReport {
   });
   if (input.stacks.length > shown.length) sections += note(`Only the first ${MAX_STACK_SECTIONS} of ${input.stacks.length} stacks are plotted.`);
   sections += `</section>`;
+
+  // Parameter sweep (only when a study sweeps parameters)
+  const sweepFig = parameterSweepFigure(input.stacks, input.angleDeg);
+  if (sweepFig) {
+    sections += `<section id="parameter-sweep"><h2>Parameter sweep</h2>`;
+    sections += `<p class="lead">Absorber photocurrent of every combination of the swept study parameters; the highest is circled.</p>`;
+    sections += use(sweepFig) + `</section>`;
+  }
 
   // Angular response
   sections += `<section id="angular"><h2>Angular response</h2>`;

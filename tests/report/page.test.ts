@@ -5,6 +5,7 @@ import { afterAll, describe, expect, it } from "vitest";
 import { escapeText, html } from "../../src/report/escape.js";
 import { loadReportInput } from "../../src/report/loadRunDir.js";
 import { renderReport } from "../../src/report/page.js";
+import { parameterSweepFigure } from "../../src/report/figures.js";
 import { InputError } from "../../src/util/errors.js";
 import { LAYER_NAME, writeTinyRun, XSS_NAME } from "../fixtures/report/tinyRun.js";
 
@@ -126,5 +127,22 @@ describe("loadReportInput errors", () => {
     rmSync(join(empty, "p0"), { recursive: true });
     rmSync(join(empty, "run.json"));
     expect(() => loadReportInput([empty], { angleDeg: 0 })).toThrow(/holds no lightfold results/);
+  });
+});
+
+describe("parameterSweepFigure(stacks, angle)", () => {
+  it("plots the photocurrent over a swept parameter and circles the highest", () => {
+    const base = loadReportInput([writeTinyRun(join(tmp, "sweep"), { matricesOnly: true })], { angleDeg: 0 }).stacks;
+    const stacks = [100, 140, 180].map((t, i) => ({
+      ...base[i % 2]!,
+      studyName: "thick",
+      comboKey: `p${i}`,
+      combo: { "absorber.thicknessUm": t },
+    }));
+    const fig = parameterSweepFigure(stacks, 0)!;
+    expect(fig.id).toBe("parameter-sweep");
+    // p1 is the planar copy (lower current), so the best is one of the textured copies: 100 or 180 (same value; first wins)
+    expect(fig.svg).toContain(">best 100<");
+    expect(parameterSweepFigure(stacks.slice(0, 2), 0)).toBeNull();
   });
 });

@@ -19,6 +19,8 @@ export interface AxisSpec {
   tight?: boolean;
   /** Extra room above the data, as a fraction of the span (for labels over the highest point). */
   headroom?: number;
+  /** Room on both sides of a tight axis, as a fraction of the span (keeps edge markers whole). */
+  padding?: number;
 }
 
 export interface LegendItem {
@@ -83,6 +85,11 @@ function numericScale(axis: AxisSpec, extent: [number, number], range: [number, 
     hi = Math.max(hi, 0);
   }
   if (axis.headroom) hi += axis.headroom * (hi - lo || Math.abs(hi) || 1);
+  if (axis.padding) {
+    const p = axis.padding * (hi - lo || Math.abs(hi) || 1);
+    lo -= p;
+    hi += p;
+  }
   const d = axis.domain ?? (axis.tight && hi > lo ? ([lo, hi] as [number, number]) : niceDomain(lo, hi));
   return linearScale(d, range);
 }
