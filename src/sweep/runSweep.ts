@@ -207,6 +207,10 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
 
   // Point bookkeeping: merge when the planned batches are all in; target mode may plan more.
   const queue: QueuedRun[] = [];
+  /** Queued rays per wavelength block (combo · nλ + il). */
+  const blockRays = new Map<number, number>();
+  const nPerCombo = grid.thetaDeg.length * grid.phiDeg.length * grid.wavelengthNm.length;
+  const blockOf = (p: number): number => Math.floor(p / nPerCombo) * grid.wavelengthNm.length + (p % grid.wavelengthNm.length);
   let pointsDone = 0;
   let raysPlanned = 0;
   let raysDone = raysResumed;
@@ -222,6 +226,9 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
         const b0 = b;
         while (b < st.planned && st.batches[b] === undefined) b++;
         queue.push({ p, b0, b1: b });
+        let n = 0;
+        for (let k = b0; k < b; k++) n += batchRays(rays, k);
+        blockRays.set(blockOf(p), (blockRays.get(blockOf(p)) ?? 0) + n);
       }
       st.requested = st.planned;
       if (st.nDone < st.planned) return;
@@ -241,7 +248,7 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
   // Message size: whole batches, enough messages to keep every worker busy, few enough to be cheap.
   const ownPool = options.pool === undefined;
   const nWorkers = options.pool?.nWorkers ?? options.workers ?? defaultWorkerCount();
-  const raysPerMessage = Math.max(rays.batch, options.raysPerMessage ?? Math.min(32_768, Math.ceil(raysPlanned / (nWorkers * 8))));
+  const raysPerMessage = Math.max(rays.batch, options.raysPerMessage ?? Math.min(131_072, Math.ceil(raysPlanned / (nWorkers * 4))));
   if (options.shuffleSeed !== undefined) shuffle(queue, options.shuffleSeed);
 
   const progress = (): void => {
@@ -259,56 +266,77 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
     }
   } else journal?.close();
 
+  /**
+   * Keeps up to maxInFlight messages on the pool until the queue is empty. On the first failure no
+   * more messages are sent; the promise rejects with it once the messages in flight have settled
+   * (their results are dropped), so the pool is never closed under a running task.
+   */
   async function drain(pool: TracePool, maxInFlight: number): Promise<void> {
     await new Promise<void>((resolve, reject) => {
       let inFlight = 0;
-      let failed = false;
+      let failure: Error | undefined;
+      const settle = (): void => {
+        if (inFlight > 0) return;
+        if (failure !== undefined) reject(failure);
+        else if (queue.length === 0) resolve();
+      };
       const pump = (): void => {
-        while (!failed && inFlight < maxInFlight && queue.length > 0) {
+        while (failure === undefined && inFlight < maxInFlight && queue.length > 0) {
           const { msg, runs } = takeMessage();
           inFlight++;
           pool.run(msg).then(
             (out) => {
               inFlight--;
-              if (failed) return;
-              try {
-                accept(runs, out);
-              } catch (err) {
-                failed = true;
-                reject(err);
-                return;
+              if (failure === undefined) {
+                try {
+                  accept(runs, out);
+                  progress();
+                } catch (err) {
+                  failure = err instanceof Error ? err : new Error(String(err));
+                }
               }
-              progress();
-              if (queue.length === 0 && inFlight === 0) resolve();
-              else pump();
+              if (failure === undefined) pump();
+              settle();
             },
             (err: unknown) => {
               inFlight--;
-              if (!failed) {
-                failed = true;
-                reject(describeFailure(err));
-              }
+              failure ??= describeFailure(err);
+              settle();
             },
           );
         }
-        if (!failed && queue.length === 0 && inFlight === 0) resolve();
+        settle();
       };
       pump();
     });
   }
 
+  /**
+   * Next message from the queue: whole batches, about raysPerMessage rays. A wavelength block (one
+   * combination and λ: the unit a thread compiles a stack for) is kept in one message when it has
+   * up to twice that many rays, so most stacks are compiled by one thread only.
+   */
   function takeMessage(): { msg: TraceMessage; runs: QueuedRun[] } {
     const items: TraceItem[] = [];
     const runs: QueuedRun[] = [];
-    let budget = raysPerMessage;
-    while (queue.length > 0 && budget > 0) {
+    let limit = raysPerMessage;
+    let used = 0;
+    let current = -1;
+    while (queue.length > 0) {
       const run = queue[0];
+      const blk = blockOf(run.p);
+      if (blk !== current) {
+        const rest = blockRays.get(blk) ?? 0;
+        if (items.length === 0) limit = rest <= 2 * raysPerMessage ? Math.max(rest, 1) : raysPerMessage;
+        else if (used + rest > limit) break;
+        current = blk;
+      }
       let b1 = run.b0;
       let n = 0;
-      // Whole batches up to the budget; a message always carries at least one batch.
+      // A message always carries at least one batch.
       while (b1 < run.b1) {
         const r = batchRays(rays, b1);
-        if (n + r > budget && !(items.length === 0 && n === 0)) break;
+        if (used + n + r > limit && !(items.length === 0 && n === 0)) break;
         n += r;
         b1++;
       }
@@ -316,9 +344,11 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
       const piece = { p: run.p, b0: run.b0, b1 };
       if (b1 === run.b1) queue.shift();
       else run.b0 = b1;
+      blockRays.set(blk, (blockRays.get(blk) ?? 0) - n);
       runs.push(piece);
       items.push(itemOf(piece));
-      budget -= n;
+      used += n;
+      if (used >= limit) break;
     }
     return { msg: { items }, runs };
   }
