@@ -37,16 +37,18 @@ export function meshHit(s: SurfaceTile, q: Float64Array, fromBelow: boolean): nu
   const gy = s.gy;
   const lx = s.lxUm;
   const ly = s.lyUm;
-  const csx = lx / gx;
-  const csy = ly / gy;
+  const csx = s.cellXUm;
+  const csy = s.cellYUm;
   const tri = s.tri;
   const cellStart = s.cellStart;
   const cellTri = s.cellTri;
   const tol = EDGE_TOL_REL * (lx + ly);
   const tEps = 1e-12 * (lx + ly);
+  // The ray may only meet triangles from its own side: n·d > 0 from below, < 0 from above.
+  const side = fromBelow ? 1 : -1;
 
-  let ix = Math.floor(ox / csx);
-  let iy = Math.floor(oy / csy);
+  let ix = Math.floor(ox * s.invCellXUm);
+  let iy = Math.floor(oy * s.invCellYUm);
   if (ix >= gx) ix = gx - 1;
   else if (ix < 0) ix = 0;
   if (iy >= gy) iy = gy - 1;
@@ -80,7 +82,7 @@ export function meshHit(s: SurfaceTile, q: Float64Array, fromBelow: boolean): nu
       const ny = tri[o + 1];
       const nz = tri[o + 2];
       const den = nx * dx + ny * dy + nz * dz;
-      if (fromBelow ? den <= 0 : den >= 0) continue;
+      if (den * side <= 0) continue;
       const t = (tri[o + 3] - (nx * px0 + ny * py0 + nz * oz)) / den;
       if (t <= tEps || t >= best) continue;
       const hx = px0 + t * dx;

@@ -27,6 +27,11 @@ export interface SurfaceTile {
   /** Acceleration grid: gx × gy cells; triangles of cell c are cellTri[cellStart[c] .. cellStart[c+1]). */
   gx: number;
   gy: number;
+  /** Grid cell size and its inverse (µm, 1/µm). */
+  cellXUm: number;
+  cellYUm: number;
+  invCellXUm: number;
+  invCellYUm: number;
   cellStart: Int32Array;
   cellTri: Int32Array;
   /** Texture orientation in the plane (rotation of the tile frame against the stack frame). */
@@ -48,6 +53,10 @@ export function planarTile(periodUm = 1, kind = SURFACE_PLANAR): SurfaceTile {
     tri: new Float64Array(0),
     gx: 1,
     gy: 1,
+    cellXUm: periodUm,
+    cellYUm: periodUm,
+    invCellXUm: 1 / periodUm,
+    invCellYUm: 1 / periodUm,
     cellStart: new Int32Array(2),
     cellTri: new Int32Array(0),
     cosRot: 1,
@@ -138,6 +147,10 @@ export function meshTile(
     tri: tri.slice(0, nTri * TRI_STRIDE),
     gx,
     gy,
+    cellXUm: csx,
+    cellYUm: csy,
+    invCellXUm: 1 / csx,
+    invCellYUm: 1 / csy,
     cellStart,
     cellTri,
     cosRot: Math.cos(rot),
