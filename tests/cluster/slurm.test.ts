@@ -55,6 +55,11 @@ function matrices(runDir: string): Map<string, { mean: number[]; stderr: number[
   return out;
 }
 
+/** Every task log of a run, for failure messages. */
+function allLogs(logDir: string): string {
+  return readdirSync(logDir).sort().map((f) => `--- ${f}:\n${readText(join(logDir, f)).slice(-2000)}`).join("\n");
+}
+
 function expectSameMatrices(actualDir: string, referenceDir: string): void {
   const ref = matrices(referenceDir);
   const got = matrices(actualDir);
@@ -110,7 +115,7 @@ describe.skipIf(unavailable !== undefined)("sharded sweep on a real single-node 
     const arrayStates = await waitForJobEnd(c, arrayJob, JOB_TIMEOUT_MS);
     const mergeStates = await waitForJobEnd(c, mergeJob, JOB_TIMEOUT_MS);
     timings.fourShardArrayS = (Date.now() - t0) / 1000;
-    const logs = readdirSync(logDir).map((f) => `${f}:\n${readText(join(logDir, f))}`).join("\n");
+    const logs = allLogs(logDir);
     expect([...arrayStates.entries()].sort(), logs).toEqual(
       Array.from({ length: SHARDS }, (_, i) => [`${arrayJob}_${i + 1}`, "COMPLETED"]),
     );
@@ -142,12 +147,12 @@ describe.skipIf(unavailable !== undefined)("sharded sweep on a real single-node 
     const { arrayJob, mergeJob } = await submit(c, submitScript);
 
     // Cancel the task once its journal holds finished batches but before the shard is done.
-    await waitFor("shard 2 to journal a batch", JOB_TIMEOUT_MS, async () => readText(journal).split("\n").filter((l) => l !== "").length, (n) => n >= 2, 100);
+    await waitFor("shard 2 to journal a batch", JOB_TIMEOUT_MS, async () => readText(journal).split("\n").filter((l) => l !== "").length, (n) => n >= 2, 50);
     await slurm(c, "scancel", [`${arrayJob}_${victim}`]);
     const states = await waitForJobEnd(c, arrayJob, JOB_TIMEOUT_MS);
-    expect(states.get(`${arrayJob}_${victim}`)).toBe("CANCELLED");
+    expect(states.get(`${arrayJob}_${victim}`), allLogs(logDir)).toBe("CANCELLED");
     expect(existsSync(partial), "shard 2 finished before it was cancelled").toBe(false);
-    for (const k of [1, 3, 4]) expect(states.get(`${arrayJob}_${k}`)).toBe("COMPLETED");
+    for (const k of [1, 3, 4]) expect(states.get(`${arrayJob}_${k}`), allLogs(logDir)).toBe("COMPLETED");
     const journalLinesAtCancel = readText(journal).split("\n").filter((l) => l !== "").length;
 
     // The merge waits forever on a failed afterok; lightfold merge itself names the missing shard.
@@ -155,15 +160,15 @@ describe.skipIf(unavailable !== undefined)("sharded sweep on a real single-node 
     await waitFor("the merge to be marked DependencyNeverSatisfied", 30_000, () => jobStates(c, mergeJob),
       (m) => m.get(mergeJob) === "PENDING:DependencyNeverSatisfied");
     const early = await lightfold(["merge", outDir, "--out", join(outDir, "merged")]);
-    expect(early.code).toBe(2);
+    expect(early.code, early.stderr).toBe(2);
     expect(early.stderr).toMatch(/missing shard 2 of 4 \(started but unfinished: 2\)/);
     expect(existsSync(join(outDir, "merged"))).toBe(false);
     await slurm(c, "scancel", [mergeJob]);
 
     const again = await submit(c, submitScript, [String(victim)]);
     const rerun = await waitForJobEnd(c, again.arrayJob, JOB_TIMEOUT_MS);
-    expect([...rerun.entries()]).toEqual([[`${again.arrayJob}_${victim}`, "COMPLETED"]]);
-    expect((await waitForJobEnd(c, again.mergeJob, JOB_TIMEOUT_MS)).get(again.mergeJob)).toBe("COMPLETED");
+    expect([...rerun.entries()], allLogs(logDir)).toEqual([[`${again.arrayJob}_${victim}`, "COMPLETED"]]);
+    expect((await waitForJobEnd(c, again.mergeJob, JOB_TIMEOUT_MS)).get(again.mergeJob), allLogs(logDir)).toBe("COMPLETED");
     expect(journalLinesAtCancel).toBeGreaterThanOrEqual(2);
     // The re-run took the batches journaled before the cancel instead of tracing them again.
     const rerunLog = readText(join(logDir, `lf-cluster-test-tiny_${again.arrayJob}_${victim}.out`));

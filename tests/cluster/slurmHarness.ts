@@ -49,7 +49,9 @@ export interface TestCluster {
 /** Starts munged + slurmctld + slurmd with state in a fresh temp dir; throws with their logs if not. */
 export async function startCluster(): Promise<TestCluster> {
   const dir = mkdtempSync(join(tmpdir(), "lf-slurm-"));
-  const [ctld, slurmd] = [await freePort(), await freePort()];
+  const ctld = await freePort();
+  let slurmd = await freePort();
+  while (slurmd === ctld) slurmd = await freePort();
   try {
     const { stdout } = await run("bash", [join(repoRoot, "scripts", "slurm", "start.sh"), dir, String(ctld), String(slurmd)], {
       encoding: "utf8",
