@@ -3,14 +3,45 @@ import { InputError, EXIT_BAD_INPUT, EXIT_FAILURE } from "../util/errors.js";
 import { toolVersion } from "../util/version.js";
 import { commandModules } from "./commands/index.js";
 
+const EXIT_CODES = "Exit codes: 0 ok, 1 failure (a run that could not finish), 2 bad input (file, field or flag named).";
+
+const GLOBAL_HELP = `
+Typical session:
+  lightfold check configs/demo-random-pyramids.study.json     validate a study without running it
+  lightfold sweep configs/demo-random-pyramids.study.json     response matrix on all cores (resumable)
+  lightfold yield --matrix runs/demo-random-pyramids/base/matrix.json \\
+      --site configs/sites/brevenmark.site.json --weather synthetic --tilt 0:90:5
+  lightfold report runs/demo-random-pyramids                  HTML page with every plot
+
+${EXIT_CODES}
+Output is plain text without colour (NO_COLOR is respected by construction); --json on summary commands.`;
+
+/** Text added after a command's help by addHelpText (commander keeps it in its listeners). */
+function helpTextAfter(cmd: Command): string {
+  let text = "";
+  const probe = { write: (s: string) => { text += s; } };
+  cmd.configureOutput({ writeOut: probe.write, writeErr: probe.write });
+  cmd.outputHelp();
+  cmd.configureOutput({ writeOut: (s) => process.stdout.write(s), writeErr: (s) => process.stderr.write(s) });
+  return text;
+}
+
 /** Builds the commander program; every verb lives in its own file under commands/. */
 export function buildProgram(): Command {
   const program = new Command("lightfold")
     .description("Monte Carlo ray optics for textured crystalline-silicon solar cells and modules")
     .version(toolVersion())
-    .showHelpAfterError("(run with --help for usage and examples)")
+    .showHelpAfterError("hint: run with --help for usage and examples")
+    .configureOutput({ outputError: (text, write) => write(text.replace(/^error:/, "lightfold:")) })
     .exitOverride();
   for (const mod of commandModules) mod.register(program);
+  program.addHelpText("after", GLOBAL_HELP);
+  // Every verb documents the exit codes, unless its own help already does.
+  for (const cmd of program.commands) {
+    cmd.exitOverride();
+    cmd.configureOutput({ outputError: (text, write) => write(text.replace(/^error:/, "lightfold:")) });
+    if (!/Exit codes/.test(helpTextAfter(cmd))) cmd.addHelpText("after", `\n${EXIT_CODES}`);
+  }
   return program;
 }
 
