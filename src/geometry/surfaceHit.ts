@@ -66,6 +66,9 @@ export function meshHit(s: SurfaceTile, q: Float64Array, fromBelow: boolean): nu
   const tDeltaX = csx * invDx;
   const tDeltaY = csy * invDy;
 
+  const cellZMin = s.cellZMin;
+  const cellZMax = s.cellZMax;
+  let tCellStart = 0;
   for (let step = 0; step < MAX_STEPS; step++) {
     let tCellEnd = tNextX < tNextY ? tNextX : tNextY;
     if (tCellEnd > tLimit) tCellEnd = tLimit;
@@ -75,7 +78,13 @@ export function meshHit(s: SurfaceTile, q: Float64Array, fromBelow: boolean): nu
     const c = iy * gx + ix;
     const px0 = ox - offX;
     const py0 = oy - offY;
-    for (let k = cellStart[c], kEnd = cellStart[c + 1]; k < kEnd; k++) {
+    // Skip the cell when the ray's stretch over it stays clear of the cell's height range.
+    const zA = oz + tCellStart * dz;
+    const zB = oz + tCellEnd * dz;
+    const clear = fromBelow ? (zA > zB ? zA : zB) < cellZMin[c] - tol : (zA < zB ? zA : zB) > cellZMax[c] + tol;
+    const kStart = clear ? 0 : cellStart[c];
+    const kStop = clear ? 0 : cellStart[c + 1];
+    for (let k = kStart; k < kStop; k++) {
       const t0 = cellTri[k];
       const o = t0 * TRI_STRIDE;
       const nx = tri[o];
@@ -98,6 +107,7 @@ export function meshHit(s: SurfaceTile, q: Float64Array, fromBelow: boolean): nu
       return bestTri;
     }
     if (tCellEnd >= tLimit) return NO_HIT;
+    tCellStart = tCellEnd;
     // Step to the next cell, wrapping into the neighbouring tile copy.
     if (tNextX < tNextY) {
       ix += stepX;

@@ -34,6 +34,9 @@ export interface SurfaceTile {
   invCellYUm: number;
   cellStart: Int32Array;
   cellTri: Int32Array;
+  /** Height range of the triangles listed in each cell (lets a ray skip cells it passes clear of). */
+  cellZMin: Float64Array;
+  cellZMax: Float64Array;
   /** Texture orientation in the plane (rotation of the tile frame against the stack frame). */
   cosRot: number;
   sinRot: number;
@@ -59,6 +62,8 @@ export function planarTile(periodUm = 1, kind = SURFACE_PLANAR): SurfaceTile {
     invCellYUm: 1 / periodUm,
     cellStart: new Int32Array(2),
     cellTri: new Int32Array(0),
+    cellZMin: new Float64Array(1),
+    cellZMax: new Float64Array(1),
     cosRot: 1,
     sinRot: 0,
     label: kind === SURFACE_LAMBERTIAN ? "ideal Lambertian randomiser" : "planar",
@@ -83,6 +88,7 @@ export function meshTile(
   const nIn = Math.floor(verts.length / 9);
   const tri = new Float64Array(nIn * TRI_STRIDE);
   const keep: number[] = [];
+  const triZ: number[] = [];
   let zMin = Infinity;
   let zMax = -Infinity;
   let nTri = 0;
@@ -116,6 +122,7 @@ export function meshTile(
     edge(tri, o + 7, bx, by, cx, cy);
     edge(tri, o + 10, cx, cy, ax, ay);
     keep.push(Math.min(ax, bx, cx), Math.max(ax, bx, cx), Math.min(ay, by, cy), Math.max(ay, by, cy));
+    triZ.push(az, bz, cz);
     zMin = Math.min(zMin, az, bz, cz);
     zMax = Math.max(zMax, az, bz, cz);
     nTri++;
@@ -136,6 +143,14 @@ export function meshTile(
   for (let c = 0; c < gx * gy; c++) cellStart[c + 1] = cellStart[c] + lists[c].length;
   const cellTri = new Int32Array(cellStart[gx * gy]);
   for (let c = 0; c < gx * gy; c++) cellTri.set(lists[c], cellStart[c]);
+  const cellZMin = new Float64Array(gx * gy).fill(Infinity);
+  const cellZMax = new Float64Array(gx * gy).fill(-Infinity);
+  for (let c = 0; c < gx * gy; c++) {
+    for (const t of lists[c]) {
+      cellZMin[c] = Math.min(cellZMin[c], triZ[3 * t], triZ[3 * t + 1], triZ[3 * t + 2]);
+      cellZMax[c] = Math.max(cellZMax[c], triZ[3 * t], triZ[3 * t + 1], triZ[3 * t + 2]);
+    }
+  }
   const rot = (rotationDeg * Math.PI) / 180;
   return {
     kind: SURFACE_MESH,
@@ -153,6 +168,8 @@ export function meshTile(
     invCellYUm: 1 / csy,
     cellStart,
     cellTri,
+    cellZMin,
+    cellZMax,
     cosRot: Math.cos(rot),
     sinRot: Math.sin(rot),
     label,

@@ -65,7 +65,7 @@ export function buildSurface(spec: TextureSpec, boundary: BoundaryKind, fieldPat
       for (let i = 0; i < heightsUm.length; i++) hMin = Math.min(hMin, heightsUm[i]);
       const shifted = heightsUm.map((h) => h - hMin);
       const verts = heightGridVerts(shifted, nx, ny, spec.pitchUm, spec.pitchUm);
-      return finish(verts, nx * spec.pitchUm, ny * spec.pitchUm, nx, ny, boundary, `height map ${spec.csv} (${nx} × ${ny}, pitch ${spec.pitchUm} µm)`, 0);
+      return finish(verts, nx * spec.pitchUm, ny * spec.pitchUm, accelCells(nx), accelCells(ny), boundary, `height map ${spec.csv} (${nx} × ${ny}, pitch ${spec.pitchUm} µm)`, 0);
     }
   }
 }
@@ -131,7 +131,7 @@ function randomPyramids(spec: Extract<TextureSpec, { type: "random-pyramids" }>,
   for (let j = 0; j < nGrid; j++) for (let i = 0; i < nGrid; i++) heights[j * nGrid + i] = heightAt(i * pitch, j * pitch);
   const verts = heightGridVerts(heights, nGrid, nGrid, pitch, pitch, (i, j) => heightAt((i + 0.5) * pitch, (j + 0.5) * pitch));
   const label = `random upright pyramids, ${n} per ${L} µm tile, mean base ${spec.meanBaseUm} µm, spread ${spec.sizeSpread}, seed ${spec.seed}`;
-  return finish(verts, L, L, nGrid, nGrid, boundary, label, 0);
+  return finish(verts, L, L, accelCells(nGrid), accelCells(nGrid), boundary, label, 0);
 }
 
 /** Spherical caps (or dimples) of radius R and depth D on a square lattice of period P. */
@@ -159,7 +159,15 @@ function sphericalCaps(spec: Extract<TextureSpec, { type: "spherical-caps" }>, b
   for (let j = 0; j < n; j++) for (let i = 0; i < n; i++) heights[j * n + i] = heightAt(i * pitch, j * pitch);
   const verts = heightGridVerts(heights, n, n, pitch, pitch, (i, j) => heightAt((i + 0.5) * pitch, (j + 0.5) * pitch));
   const label = `spherical ${spec.inverted ? "dimples" : "caps"}, radius ${R} µm, depth ${D} µm, period ${P} µm`;
-  return finish(verts, P, P, n, n, boundary, label, 0);
+  return finish(verts, P, P, accelCells(n), accelCells(n), boundary, label, 0);
+}
+
+/**
+ * Acceleration-grid cells along a side of n height samples: one per 2 × 2 samples (8 triangles)
+ * was the fastest of 1, 2, 3, 4 on random pyramids (bench figures in trace-DEVELOPERS.md).
+ */
+function accelCells(n: number): number {
+  return Math.max(1, Math.ceil(n / 2));
 }
 
 /** x wrapped into [−L/2, L/2). */
