@@ -28,6 +28,7 @@ host=$(hostname -s)
 fail() { # name logfile
   echo "start.sh: $1 did not start; last lines of $2:" >&2
   tail -n 20 "$2" >&2 2>/dev/null || true
+  echo "start.sh: stop what did start with: $(dirname "$0")/stop.sh $dir" >&2
   exit 4
 }
 
@@ -39,11 +40,12 @@ munged --force \
   --pid-file="$dir/munge.pid" --log-file="$dir/munge/munged.log" --seed-file="$dir/munge/munged.seed" \
   || fail munged "$dir/munge/munged.log"
 
-# --- slurm.conf: the real hardware line from slurmd -C, ports and paths of our own ------------------
+# --- slurm.conf: the real hardware line from slurmd -C, ports and paths of our own; daemons talk over
+# the loopback address, so the test does not depend on the host name resolving --------------------
 node_line=$(slurmd -C | head -n 1)
 cat > "$dir/slurm.conf" <<CONF
 ClusterName=lightfold-local
-SlurmctldHost=$host
+SlurmctldHost=$host(127.0.0.1)
 SlurmctldPort=$ctld_port
 SlurmdPort=$slurmd_port
 SlurmUser=$user
@@ -69,13 +71,13 @@ MailProg=/bin/true
 JobCompType=jobcomp/filetxt
 JobCompLoc=$dir/jobcomp.log
 MinJobAge=600
-$node_line State=UNKNOWN
+$node_line NodeAddr=127.0.0.1 State=UNKNOWN
 PartitionName=debug Nodes=ALL Default=YES MaxTime=INFINITE State=UP
 CONF
 export SLURM_CONF="$dir/slurm.conf"
 
 slurmctld -c -f "$SLURM_CONF" || fail slurmctld "$dir/slurmctld.log"
-slurmd -f "$SLURM_CONF" || fail slurmd "$dir/slurmd.log"
+slurmd -f "$SLURM_CONF" -N "$host" || fail slurmd "$dir/slurmd.log"
 
 # --- wait until the node reports idle ---------------------------------------------------------------
 for _ in $(seq 1 60); do
