@@ -4,7 +4,7 @@
 // Source of the Slurm behaviour relied on: sbatch(1) (--array, --parsable, --dependency=afterok),
 // scancel(1) (JOBID_TASKID), squeue(1) (-t all), slurm.conf(5) (MinJobAge); Slurm 22.05 manual pages.
 import { execFile } from "node:child_process";
-import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from "node:fs";
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { availableParallelism, tmpdir } from "node:os";
 import { join } from "node:path";
 import { promisify } from "node:util";
@@ -24,7 +24,9 @@ import {
 } from "./slurmHarness.js";
 
 const runFile = promisify(execFile);
-const STUDY = join(repoRoot, "tests", "fixtures", "cluster", "tiny.study.json");
+const FIXTURE = join(repoRoot, "tests", "fixtures", "cluster", "tiny.study.json");
+/** Seconds one shard should trace on one worker: long enough to cancel it mid-run, short for CI. */
+const SHARD_TARGET_S = 2.5;
 const LIGHTFOLD = join(repoRoot, "bin", "lightfold.js");
 const SHARDS = 4;
 const JOB_TIMEOUT_MS = 150_000;
@@ -74,14 +76,34 @@ function expectSameMatrices(actualDir: string, referenceDir: string): void {
   }
 }
 
+/**
+ * The fixture with rays per point chosen so one shard of four takes about SHARD_TARGET_S on one
+ * worker at the rate this machine traces it now (measured on one point), whatever the tracer's speed.
+ */
+async function writeCalibratedStudy(path: string, calibrationDir: string, timings: Record<string, number>): Promise<void> {
+  const doc = JSON.parse(readFileSync(FIXTURE, "utf8")) as { rays: { perPoint: number; batch: number }; grid: unknown };
+  const r = await lightfold(["sweep", FIXTURE, "--out", calibrationDir, "--shard", "1/36", "--workers", "1", "--quiet", "--json"]);
+  if (r.code !== 0) throw new Error(`calibration sweep failed (${r.code}): ${r.stderr}`);
+  const raysPerS = (JSON.parse(r.stdout) as { raysPerS: number }).raysPerS;
+  const pointsPerShard = 36 / SHARDS; // 2 thicknesses x 3 angles x 6 wavelengths, dealt round-robin
+  const batch = doc.rays.batch;
+  const perPoint = Math.min(400 * batch, Math.max(8 * batch, Math.round((raysPerS * SHARD_TARGET_S) / pointsPerShard / batch) * batch));
+  doc.rays.perPoint = perPoint;
+  writeFileSync(path, JSON.stringify(doc, null, 2));
+  timings.calibrationRaysPerS = Math.round(raysPerS);
+  timings.raysPerPoint = perPoint;
+}
+
 describe.skipIf(unavailable !== undefined)("sharded sweep on a real single-node Slurm cluster", () => {
   let cluster: TestCluster | undefined;
   const work = mkdtempSync(join(tmpdir(), "lf-cluster-test-"));
   const refDir = join(work, "single");
   const timings: Record<string, number> = {};
+  const STUDY = join(work, "tiny.study.json");
 
   beforeAll(async () => {
     cluster = await startCluster();
+    await writeCalibratedStudy(STUDY, join(work, "calibration"), timings);
     const t0 = Date.now();
     const single = await lightfold(["sweep", STUDY, "--out", refDir]);
     timings.singleProcessS = (Date.now() - t0) / 1000;
