@@ -14,12 +14,18 @@ export interface JournalHeader {
   shard: [number, number] | null;
 }
 
-/** A completed task: batch `key[4]` of point (combo, it, ip, il) = key[0..3]. */
-export interface JournalEntry {
-  key: [number, number, number, number, number];
-  nRays: number;
-  tally: Float64Array;
-}
+/** Grid coordinates of a point: [combo, θ index, φ index, λ index]. */
+export type PointKey = [number, number, number, number];
+
+/**
+ * A journal entry. "prefix": the point's tally folded over its batches 0 … nBatches−1 (in batch
+ * order, from zero; a later prefix of the same point supersedes an earlier one). "batch": one
+ * finished batch that could not be folded yet (an earlier batch of its point was still running).
+ * Both record `planned`, the point's batch count at the time (target-error decisions so far).
+ */
+export type JournalEntry =
+  | { kind: "prefix"; point: PointKey; nBatches: number; planned: number; nRays: number; tally: Float64Array }
+  | { kind: "batch"; point: PointKey; batch: number; planned: number; nRays: number; tally: Float64Array };
 
 export interface JournalContents {
   header: JournalHeader | undefined;
@@ -43,7 +49,9 @@ export function headerLine(h: JournalHeader): string {
 }
 
 export function entryLine(e: JournalEntry): string {
-  return sealLine({ k: e.key, n: e.nRays, t: Array.from(e.tally) });
+  return e.kind === "prefix"
+    ? sealLine({ p: e.point, k: e.nBatches, m: e.planned, n: e.nRays, t: Array.from(e.tally) })
+    : sealLine({ p: e.point, b: e.batch, m: e.planned, n: e.nRays, t: Array.from(e.tally) });
 }
 
 /** Parses one sealed line; undefined when damaged. */
@@ -59,13 +67,19 @@ function openLine(line: string): Record<string, unknown> | undefined {
   return checksum(JSON.stringify(rest)) === h ? rest : undefined;
 }
 
+const isCount = (v: unknown): v is number => typeof v === "number" && Number.isInteger(v) && v >= 0;
+
 function asEntry(o: Record<string, unknown>): JournalEntry | undefined {
-  const k = o.k;
+  const p = o.p;
   const t = o.t;
-  if (!Array.isArray(k) || k.length !== 5 || !k.every((v) => Number.isInteger(v) && v >= 0)) return undefined;
+  if (!Array.isArray(p) || p.length !== 4 || !p.every(isCount)) return undefined;
   if (!Array.isArray(t) || !t.every((v) => typeof v === "number")) return undefined;
-  if (typeof o.n !== "number") return undefined;
-  return { key: k as JournalEntry["key"], nRays: o.n, tally: Float64Array.from(t as number[]) };
+  if (typeof o.n !== "number" || !isCount(o.m)) return undefined;
+  const point = p as PointKey;
+  const tally = Float64Array.from(t as number[]);
+  if (isCount(o.k) && o.k > 0 && o.b === undefined) return { kind: "prefix", point, nBatches: o.k, planned: o.m, nRays: o.n, tally };
+  if (isCount(o.b) && o.k === undefined) return { kind: "batch", point, batch: o.b, planned: o.m, nRays: o.n, tally };
+  return undefined;
 }
 
 /** Reads a journal, keeping every sound entry and listing the damaged lines. */

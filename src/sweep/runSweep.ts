@@ -21,6 +21,8 @@ import {
   batchRays,
   initialBatches,
   inShard,
+  maxBatches,
+  pointId,
   plannedBatches,
   pointCoords,
   totalPoints,
@@ -29,7 +31,7 @@ import {
 } from "./plan.js";
 import { writeShardPartial } from "./shardFile.js";
 import { journalPath, matrixPath, runJsonPath, shardPartialPath } from "./sweepPaths.js";
-import { sumTallies, tallyLength } from "./tally.js";
+import { tallyLength } from "./tally.js";
 
 export interface SweepProgress {
   /** Rays in finished batches, including those taken from a journal. */
@@ -83,11 +85,20 @@ export interface SweepResult {
   files: string[];
 }
 
+/**
+ * A point's progress. Batch tallies are folded into `acc` strictly in batch order (acc = 0;
+ * acc += t_0; acc += t_1; …), which fixes the floating-point result whatever order batches finish
+ * in; a batch that finishes before an earlier one waits in `pending`.
+ */
 interface PointState {
+  /** Batches the point is to have (grows in target-error mode). */
   planned: number;
+  /** Batches queued or done so far (0 … requested−1). */
   requested: number;
-  batches: (Float64Array | undefined)[];
-  nDone: number;
+  acc: Float64Array;
+  /** Batches folded into acc (0 … k−1). */
+  k: number;
+  pending: Map<number, Float64Array>;
   merged?: Float64Array;
 }
 
@@ -148,13 +159,69 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
   const nTotal = totalPoints(plan);
   const states = new Map<number, PointState>();
   for (let p = 0; p < nTotal; p++) {
-    if (inShard(p, shard)) states.set(p, { planned: initialBatches(rays), requested: 0, batches: [], nDone: 0 });
+    if (inShard(p, shard)) {
+      const len = tallyLength(nChannelsOf(pointCoords(grid, p).combo));
+      states.set(p, { planned: initialBatches(rays), requested: 0, acc: new Float64Array(len), k: 0, pending: new Map() });
+    }
   }
 
   // Journal: resume when it matches, set it aside when it does not.
   let journal: JournalWriter | undefined;
   let raysResumed = 0;
+  let tasksResumed = 0;
   let damaged: number[] = [];
+
+  /**
+   * Restores point states from sound journal entries: per point the longest prefix, then the batch
+   * entries beyond it. Entries that do not fit the plan are ignored (their tasks run again).
+   * Returns the entries of the compacted journal (one prefix per point + pending batches).
+   */
+  function resumeFromEntries(entries: JournalEntry[]): JournalEntry[] {
+    const best = new Map<number, JournalEntry & { kind: "prefix" }>();
+    const loose = new Map<number, Map<number, JournalEntry & { kind: "batch" }>>();
+    for (const e of entries) {
+      const [combo, it, ip, il] = e.point;
+      if (combo >= plan.combos.length || it >= grid.thetaDeg.length || ip >= grid.phiDeg.length || il >= grid.wavelengthNm.length) continue;
+      const p = pointId(grid, { combo, it, ip, il });
+      const st = states.get(p);
+      const nCh = nChannelsOf(combo);
+      if (st === undefined || e.tally.length !== tallyLength(nCh) || e.tally[2 * nCh] !== e.nRays || e.planned > maxBatches(rays)) continue;
+      if (e.kind === "prefix") {
+        let n = 0;
+        for (let b = 0; b < e.nBatches; b++) n += batchRays(rays, b);
+        if (n !== e.nRays || e.nBatches > e.planned) continue;
+        if ((best.get(p)?.nBatches ?? 0) < e.nBatches) best.set(p, e);
+      } else {
+        if (e.nRays !== batchRays(rays, e.batch) || e.batch >= e.planned) continue;
+        let m = loose.get(p);
+        if (m === undefined) loose.set(p, (m = new Map()));
+        m.set(e.batch, e);
+      }
+    }
+    const compacted: JournalEntry[] = [];
+    for (const [p, st] of states) {
+      const pre = best.get(p);
+      const bs = loose.get(p);
+      if (pre === undefined && bs === undefined) continue;
+      if (pre !== undefined) {
+        st.acc = pre.tally.slice();
+        st.k = pre.nBatches;
+        st.planned = Math.max(st.planned, pre.planned);
+        raysResumed += pre.nRays;
+        tasksResumed += pre.nBatches;
+      }
+      for (const [b, e] of bs ?? []) {
+        if (b < st.k) continue;
+        st.pending.set(b, e.tally);
+        st.planned = Math.max(st.planned, e.planned);
+        raysResumed += e.nRays;
+        tasksResumed++;
+      }
+      foldPending(st);
+      compacted.push(...journalEntriesOf(p, st, [...st.pending.keys()]));
+    }
+    return compacted;
+  }
   if (options.outDir !== undefined) {
     const jPath = journalPath(options.outDir, shard);
     mkdirSync(dirname(jPath), { recursive: true });
@@ -186,18 +253,8 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
         );
       } else {
         damaged = old.damagedLines;
-        for (const e of old.entries) {
-          const [combo, it, ip, il, b] = e.key;
-          const p = ((combo * grid.thetaDeg.length + it) * grid.phiDeg.length + ip) * grid.wavelengthNm.length + il;
-          const st = states.get(p);
-          if (st === undefined || combo >= plan.combos.length || it >= grid.thetaDeg.length || ip >= grid.phiDeg.length || il >= grid.wavelengthNm.length) continue;
-          if (e.nRays !== batchRays(rays, b) || e.tally.length !== tallyLength(nChannelsOf(combo)) || st.batches[b] !== undefined) continue;
-          st.batches[b] = e.tally;
-          st.nDone++;
-          raysResumed += e.nRays;
-          kept.push(e);
-        }
-        notice(`resuming from ${jPath}: ${kept.length} finished tasks kept` +
+        kept = resumeFromEntries(old.entries);
+        notice(`resuming from ${jPath}: ${tasksResumed} finished tasks kept` +
           (damaged.length > 0 ? `; ${damaged.length} damaged line(s) (line ${damaged.slice(0, 5).join(", ")}${damaged.length > 5 ? ", …" : ""}) ignored, their tasks are traced again` : ""));
       }
     }
@@ -215,28 +272,25 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
   let raysPlanned = 0;
   let raysDone = raysResumed;
   const advance = (p: number, st: PointState): void => {
-    const combo = Math.floor(p / (grid.thetaDeg.length * grid.phiDeg.length * grid.wavelengthNm.length));
-    const len = tallyLength(nChannelsOf(combo));
+    const combo = pointCoords(grid, p).combo;
     for (;;) {
       for (let b = st.requested; b < st.planned; b++) raysPlanned += batchRays(rays, b);
       // Queue what is missing among the planned batches (contiguous runs).
-      let b = st.requested;
+      let b = Math.max(st.requested, st.k);
       while (b < st.planned) {
-        if (st.batches[b] !== undefined) { b++; continue; }
+        if (st.pending.has(b)) { b++; continue; }
         const b0 = b;
-        while (b < st.planned && st.batches[b] === undefined) b++;
+        while (b < st.planned && !st.pending.has(b)) b++;
         queue.push({ p, b0, b1: b });
         let n = 0;
-        for (let k = b0; k < b; k++) n += batchRays(rays, k);
+        for (let j = b0; j < b; j++) n += batchRays(rays, j);
         blockRays.set(blockOf(p), (blockRays.get(blockOf(p)) ?? 0) + n);
       }
-      st.requested = st.planned;
-      if (st.nDone < st.planned) return;
-      const merged = sumTallies(st.batches.slice(0, st.planned) as Float64Array[], len);
-      const next = plannedBatches(rays, merged, nChannelsOf(combo), targetIdx[combo], st.planned);
+      st.requested = Math.max(st.requested, st.planned);
+      if (st.k < st.planned) return;
+      const next = plannedBatches(rays, st.acc, nChannelsOf(combo), targetIdx[combo], st.planned);
       if (next === st.planned) {
-        st.merged = merged;
-        st.batches = [];
+        st.merged = st.acc;
         pointsDone++;
         return;
       }
@@ -369,25 +423,42 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
 
   function accept(runs: QueuedRun[], out: Float64Array): void {
     let offset = 0;
-    const entries: JournalEntry[] = [];
-    const touched: number[] = [];
+    const added = new Map<number, number[]>();
     for (const r of runs) {
-      const c = pointCoords(grid, r.p);
-      const len = tallyLength(nChannelsOf(c.combo));
+      const len = tallyLength(nChannelsOf(pointCoords(grid, r.p).combo));
       const st = states.get(r.p) as PointState;
+      let list = added.get(r.p);
+      if (list === undefined) added.set(r.p, (list = []));
       for (let b = r.b0; b < r.b1; b++) {
-        const t = out.slice(offset, offset + len);
+        st.pending.set(b, out.slice(offset, offset + len));
         offset += len;
-        st.batches[b] = t;
-        st.nDone++;
         raysDone += batchRays(rays, b);
-        entries.push({ key: [c.combo, c.it, c.ip, c.il, b], nRays: batchRays(rays, b), tally: t });
+        list.push(b);
       }
-      touched.push(r.p);
     }
     if (offset !== out.length) throw new Error(`worker returned ${out.length} tally values, expected ${offset}`);
+    // Journal: per point its new prefix (when it grew) and the batches still waiting for an earlier one.
+    const entries: JournalEntry[] = [];
+    for (const [p, list] of added) {
+      const st = states.get(p) as PointState;
+      const k0 = st.k;
+      foldPending(st);
+      entries.push(...journalEntriesOf(p, st, list.filter((b) => st.pending.has(b)), st.k > k0));
+    }
     journal?.append(entries);
-    for (const p of touched) advance(p, states.get(p) as PointState);
+    for (const p of added.keys()) advance(p, states.get(p) as PointState);
+  }
+
+  function journalEntriesOf(p: number, st: PointState, waiting: number[], withPrefix = true): JournalEntry[] {
+    const c = pointCoords(grid, p);
+    const point: [number, number, number, number] = [c.combo, c.it, c.ip, c.il];
+    const nCh = nChannelsOf(c.combo);
+    const entries: JournalEntry[] = [];
+    if (withPrefix && st.k > 0) entries.push({ kind: "prefix", point, nBatches: st.k, planned: st.planned, nRays: st.acc[2 * nCh], tally: st.acc.slice() });
+    for (const b of waiting) {
+      entries.push({ kind: "batch", point, batch: b, planned: st.planned, nRays: batchRays(rays, b), tally: st.pending.get(b) as Float64Array });
+    }
+    return entries;
   }
 
   // Results.
@@ -503,6 +574,16 @@ export function writeRunOutputs(
   writeFileAtomic(runPath, JSON.stringify(run, null, 2) + "\n");
   files.push(runPath);
   return files;
+}
+
+/** Folds waiting batches into the point's tally while they continue its prefix (batch order). */
+function foldPending(st: PointState): void {
+  for (let t = st.pending.get(st.k); t !== undefined; t = st.pending.get(st.k)) {
+    const acc = st.acc;
+    for (let i = 0; i < acc.length; i++) acc[i] += t[i];
+    st.pending.delete(st.k);
+    st.k++;
+  }
 }
 
 /**

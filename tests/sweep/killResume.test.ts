@@ -12,7 +12,7 @@ const cli = join(root, "bin", "lightfold.js");
 
 function journalEntries(path: string): number {
   if (!existsSync(path)) return 0;
-  return readFileSync(path, "utf8").split("\n").filter((l) => l.startsWith('{"k"')).length;
+  return readFileSync(path, "utf8").split("\n").filter((l) => l.startsWith('{"p"')).length;
 }
 
 describe("lightfold sweep (child process)", () => {
@@ -31,19 +31,19 @@ describe("lightfold sweep (child process)", () => {
     const child = spawn(process.execPath, [cli, "sweep", studyPath, "--out", out, "--workers", "1", "--quiet"], { stdio: "ignore" });
     const exited = new Promise<NodeJS.Signals | null>((resolve) => child.on("exit", (_code, signal) => resolve(signal)));
     const t0 = Date.now();
-    while (journalEntries(jPath) < 3 && Date.now() - t0 < 60_000) await new Promise((r) => setTimeout(r, 20));
+    while (journalEntries(jPath) < 2 && Date.now() - t0 < 60_000) await new Promise((r) => setTimeout(r, 20));
     child.kill("SIGKILL");
     expect(await exited).toBe("SIGKILL");
-    const kept = journalEntries(jPath);
-    expect(kept).toBeGreaterThanOrEqual(3);
-    expect(kept).toBeLessThan(3 * 8 * 24); // it was stopped mid-sweep
-    expect(existsSync(join(out, "run.json"))).toBe(false); // and no final output exists
+    expect(journalEntries(jPath)).toBeGreaterThanOrEqual(2);
+    expect(existsSync(join(out, "run.json"))).toBe(false); // stopped before the end: no final output
 
     // Run again with the same command: resumes automatically.
     const again = spawnSync(process.execPath, [cli, "sweep", studyPath, "--out", out, "--workers", "2", "--quiet", "--json"], { encoding: "utf8" });
     expect(again.status).toBe(0);
     const summary = JSON.parse(again.stdout) as { raysResumed: number; raysTraced: number };
-    expect(summary.raysResumed).toBeGreaterThanOrEqual(kept * 1000 - 1000);
+    // Part came from the journal, the rest was traced: it was interrupted mid-sweep.
+    expect(summary.raysResumed).toBeGreaterThan(0);
+    expect(summary.raysTraced).toBeGreaterThan(0);
     expect(summary.raysResumed + summary.raysTraced).toBe(3 * 8 * 24000);
     expect(again.stderr).toMatch(/resuming from .*journal\.jsonl: \d+ finished tasks kept/);
 

@@ -51,31 +51,47 @@ describe("runSweep(options): determinism", () => {
 });
 
 describe("runSweep(options): journal", () => {
-  it("resumes from a journal, re-running only a corrupted and a truncated line's tasks", async () => {
+  it("resumes from a journal, re-running only the tasks of a corrupted and a truncated line", async () => {
     const study = tinyStudy();
     const out = tempDir("journal");
-    const first = await runSweep({ study, outDir: out, workers: 2, tracerModule: TRACER });
+    // Small messages on one worker: several journal lines per point.
+    const first = await runSweep({ study, outDir: out, workers: 1, raysPerMessage: 40, tracerModule: TRACER });
     const jPath = join(out, "journal.jsonl");
     const lines = readFileSync(jPath, "utf8").split("\n").filter((l) => l !== "");
-    expect(lines.length).toBe(1 + 6 * 4); // header + 6 points × 4 batches
-    // Damage line 5 (flip a digit inside its tally) and cut the last line in half.
-    lines[4] = lines[4].replace(/"t":\[(\d)/, (_, d: string) => `"t":[${(Number(d) + 1) % 10}`);
+    const parsed = lines.slice(1).map((l) => JSON.parse(l) as { p: number[]; k: number });
+    // Every line is a prefix (one worker finishes messages in order); a point's last one has k = 4.
+    expect(parsed.every((e) => e.k >= 1 && e.k <= 4)).toBe(true);
+    expect(parsed.filter((e) => e.k === 4).length).toBe(6);
+    // Rays a damaged final prefix costs: its batches after the point's previous prefix.
+    const sizes = [40, 40, 40, 10];
+    const cost = (j: number): number => {
+      const key = parsed[j].p.join();
+      const prevK = Math.max(0, ...parsed.filter((e, m) => m !== j && e.p.join() === key && e.k < parsed[j].k).map((e) => e.k));
+      return sizes.slice(prevK, parsed[j].k).reduce((a, b) => a + b, 0);
+    };
+    // Damage the line that completes the first point: flip a digit of its tally.
+    const i = parsed.findIndex((e) => e.k === 4);
+    lines[i + 1] = lines[i + 1].replace(/"t":\[(\d)/, (_, d: string) => `"t":[${(Number(d) + 1) % 10}`);
+    // And cut the last line (the last point's final prefix) in half, as a kill during the write would.
+    const nLines = lines.length;
     const last = lines.pop() as string;
+    expect(parsed[parsed.length - 1].k).toBe(4);
     writeFileSync(jPath, lines.join("\n") + "\n" + last.slice(0, Math.floor(last.length / 2)));
     const notices: string[] = [];
     const again = await runSweep({ study, outDir: out, workers: 2, tracerModule: TRACER, onNotice: (m) => notices.push(m) });
-    expect(again.damagedJournalLines).toEqual([5, 25]);
-    expect(notices.join("\n")).toMatch(/2 damaged line\(s\) \(line 5, 25\) ignored/);
-    // Exactly the two damaged tasks were traced again (their batch sizes: 40 or 10 rays).
-    const rerun = again.raysTraced;
-    expect(again.raysResumed + rerun).toBe(6 * 130);
-    expect(rerun === 50 || rerun === 80 || rerun === 20).toBe(true);
+    expect(again.damagedJournalLines).toEqual([i + 2, nLines]);
+    expect(notices.join("\n")).toMatch(new RegExp(`2 damaged line\\(s\\) \\(line ${i + 2}, ${nLines}\\) ignored`));
+    // Exactly the tasks of the two damaged lines were traced again.
+    expect(again.raysTraced).toBe(cost(i) + cost(parsed.length - 1));
+    expect(again.raysTraced).toBeGreaterThan(0);
+    expect(again.raysResumed).toBe(6 * 130 - again.raysTraced);
     expectSameMatrices(first.matrices, again.matrices);
     expectSameMatrices(first.matrices, [readResponseMatrix(join(out, "base", "matrix.json"))]);
-    // The journal was rewritten whole: a third run traces nothing.
+    // A third run traces nothing; it compacts the journal to one prefix per point.
     const third = await runSweep({ study, outDir: out, workers: 1, tracerModule: TRACER });
     expect(third.raysTraced).toBe(0);
     expect(third.damagedJournalLines).toEqual([]);
+    expect(readFileSync(jPath, "utf8").split("\n").filter((l) => l !== "").length).toBe(1 + 6);
   });
 
   it("never reuses the journal of a changed study: it is set aside with a message", async () => {
@@ -169,6 +185,20 @@ describe("runSweep(options): target-error mode", () => {
       expect(m.nRays[q]).toBeGreaterThanOrEqual(50);
     }
     expect(matrixBytes(m)).not.toBe("");
+
+    // Resumed from any cut of its journal, the same batches are chosen and the same bits result.
+    const out = tempDir("target");
+    const full = await runSweep({ study, outDir: out, workers: 1, raysPerMessage: 25, tracerModule: TRACER });
+    expectSameMatrices(a.matrices, full.matrices);
+    const jPath = join(out, "journal.jsonl");
+    const lines = readFileSync(jPath, "utf8").split("\n").filter((l) => l !== "");
+    for (const keep of [Math.floor(lines.length / 3), Math.floor((2 * lines.length) / 3)]) {
+      writeFileSync(jPath, lines.slice(0, keep).join("\n") + "\n");
+      const resumed = await runSweep({ study, outDir: out, workers: 2, tracerModule: TRACER });
+      expect(resumed.raysResumed).toBeGreaterThan(0);
+      expect(resumed.raysTraced).toBeGreaterThan(0);
+      expectSameMatrices(a.matrices, resumed.matrices);
+    }
   });
 });
 
