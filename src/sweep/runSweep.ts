@@ -302,7 +302,7 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
   // Message size: whole batches, enough messages to keep every worker busy, few enough to be cheap.
   const ownPool = options.pool === undefined;
   const nWorkers = options.pool?.nWorkers ?? options.workers ?? defaultWorkerCount();
-  const raysPerMessage = Math.max(rays.batch, options.raysPerMessage ?? Math.min(131_072, Math.ceil(raysPlanned / (nWorkers * 4))));
+  const raysPerMessage = Math.max(rays.batch, options.raysPerMessage ?? Math.min(65_536, Math.ceil(raysPlanned / (nWorkers * 16))));
   if (options.shuffleSeed !== undefined) shuffle(queue, options.shuffleSeed);
 
   const progress = (): void => {

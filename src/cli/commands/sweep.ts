@@ -83,6 +83,15 @@ with the same study; a changed study sets the old journal aside and starts afres
       if (flags.resume === true && !existsSync(journalPath(outDir, shard))) say(`no journal in ${outDir} to resume from; starting`);
       if (shard !== null) say(`shard ${shard.index} of ${shard.count}`);
       const reporter = createProgressReporter(flags.quiet === true ? "quiet" : "auto");
+      // Ctrl-C: say where the work is, then let the signal end the process as usual (the journal
+      // already holds every finished task).
+      const onInterrupt = (signal: NodeJS.Signals): void => {
+        reporter.stop();
+        process.stderr.write(`\nlightfold sweep: interrupted; finished tasks are in ${journalPath(outDir, shard)}; run the same command again to resume\n`);
+        process.kill(process.pid, signal);
+      };
+      process.once("SIGINT", onInterrupt);
+      process.once("SIGTERM", onInterrupt);
       let result;
       try {
         result = await runSweep({
@@ -99,6 +108,8 @@ with the same study; a changed study sets the old journal aside and starts afres
         });
       } finally {
         reporter.stop();
+        process.off("SIGINT", onInterrupt);
+        process.off("SIGTERM", onInterrupt);
       }
       const summary = {
         study: study.name,
