@@ -9,6 +9,7 @@ import type { LoadedStudy } from "../study/load.js";
 import type { StudyCombo } from "../study/studyTypes.js";
 import { writeFileAtomic } from "../util/atomicWrite.js";
 import { InputError } from "../util/errors.js";
+import { nearestWord } from "../study/fieldChecks.js";
 import { toolVersion } from "../util/version.js";
 import { buildId } from "./buildId.js";
 import { defaultWorkerCount, TracePool } from "../workers/pool.js";
@@ -150,7 +151,10 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
     if (rays.mode !== "target") return [];
     return rays.channels.map((name, i) => {
       const k = c.channels.indexOf(name);
-      if (k < 0) throw new InputError(`rays.channels[${i}]: the stack has no channel "${name}" (it has ${c.channels.join(", ")})`);
+      if (k < 0) {
+        const near = nearestWord(name, c.channels);
+        throw new InputError(`rays.channels[${i}]: the stack has no channel "${name}" (it has ${c.channels.join(", ")})`, near !== undefined ? `did you mean "${near}"?` : undefined);
+      }
       return k;
     });
   });

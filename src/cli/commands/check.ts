@@ -4,6 +4,7 @@ import { formatStudySummary, summarizeStudy } from "../../study/summary.js";
 import { loadTracer } from "../../workers/tracerModule.js";
 import { InputError } from "../../util/errors.js";
 import { comboChannels } from "../../sweep/channels.js";
+import { nearestWord } from "../../study/fieldChecks.js";
 
 export function register(program: Command): void {
   program
@@ -39,6 +40,18 @@ Exit codes: 0 valid, 2 invalid (the message names the field path and what was ex
           }
         }
         channels[c.label] = comboChannels(c.study, study.registry, tracer);
+        const r = c.study.rays;
+        if (r.mode === "target") {
+          r.channels.forEach((name, i) => {
+            if (!channels[c.label].includes(name)) {
+              const near = nearestWord(name, channels[c.label]);
+              throw new InputError(
+                `${studyPath}: rays.channels[${i}]: the stack has no channel "${name}" (it has ${channels[c.label].join(", ")})`,
+                near !== undefined ? `did you mean "${near}"?` : undefined,
+              );
+            }
+          });
+        }
       }
       const summary = summarizeStudy(study);
       if (opts.json) {
