@@ -1,5 +1,6 @@
 import type { Command } from "commander";
 import { mergeShards } from "../../sweep/mergeShards.js";
+import { comboTable } from "./sweep.js";
 
 export function register(program: Command): void {
   program
@@ -32,6 +33,7 @@ listed by number (exit 2) unless --allow-partial is given.`,
       ];
       if (r.missing.length > 0) lines.push(`  PARTIAL: missing shard${r.missing.length > 1 ? "s" : ""} ${r.missing.join(", ")}; matrices are marked partial: true`);
       lines.push(...r.files.map((f) => `  wrote ${f}`));
+      if (r.plan.combos.length > 1 && r.missing.length === 0) lines.push(...comboTable(flags.out));
       process.stdout.write(lines.join("\n") + "\n");
     });
 }

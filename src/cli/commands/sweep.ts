@@ -106,6 +106,10 @@ with the same study; a changed study sets the old journal aside and starts afres
             process.stderr.write(`lightfold sweep: ${m}\n`);
           },
         });
+      } catch (err) {
+        // Name the study file in input errors found while running (e.g. a channel name).
+        if (err instanceof InputError && !err.message.startsWith(studyPath)) throw new InputError(`${studyPath}: ${err.message}`, err.hint);
+        throw err;
       } finally {
         reporter.stop();
         process.off("SIGINT", onInterrupt);
