@@ -34,6 +34,7 @@ export class TracePool {
       workerData: setup,
       // A thread per core, one message at a time each: the queue stays in the main thread.
       concurrentTasksPerWorker: 1,
+      execArgv: workerExecArgv(),
     });
   }
 
@@ -44,4 +45,15 @@ export class TracePool {
   async close(): Promise<void> {
     await this.pool.destroy();
   }
+}
+
+/**
+ * Node options of the worker threads. Piscina first tries require() on the task module and falls
+ * back to import(); where Node can require ES modules, a module graph half-loaded by a failed
+ * require() then fails again with an unhelpful internal assertion. Turning require(esm) off in the
+ * threads sends piscina straight to import(), whose errors name the real problem.
+ */
+function workerExecArgv(): string[] {
+  const flag = "--no-experimental-require-module";
+  return process.allowedNodeEnvironmentFlags.has(flag) ? [...process.execArgv, flag] : [...process.execArgv];
 }
