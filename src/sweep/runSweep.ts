@@ -263,11 +263,13 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
       }
     }
     journal = JournalWriter.start(jPath, header, kept);
-    kept = [];
   }
 
   // Point bookkeeping: merge when the planned batches are all in; target mode may plan more.
-  const queue: QueuedRun[] = [];
+  // FIFO of batch runs still to send: queue[qHead …] (a head index, not shift(), keeps it O(1)).
+  let queue: QueuedRun[] = [];
+  let qHead = 0;
+  const queued = (): number => queue.length - qHead;
   /** Queued rays per wavelength block (combo · nλ + il). */
   const blockRays = new Map<number, number>();
   const nPerCombo = grid.thetaDeg.length * grid.phiDeg.length * grid.wavelengthNm.length;
@@ -314,7 +316,7 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
   };
   progress();
 
-  if (queue.length > 0) {
+  if (queued() > 0) {
     const pool = options.pool ?? new TracePool(workerSetupOf(study, options.tracerModule), nWorkers);
     try {
       await drain(pool, nWorkers * 2);
@@ -336,10 +338,10 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
       const settle = (): void => {
         if (inFlight > 0) return;
         if (failure !== undefined) reject(failure);
-        else if (queue.length === 0) resolve();
+        else if (queued() === 0) resolve();
       };
       const pump = (): void => {
-        while (failure === undefined && inFlight < maxInFlight && queue.length > 0) {
+        while (failure === undefined && inFlight < maxInFlight && queued() > 0) {
           const { msg, runs } = takeMessage();
           inFlight++;
           pool.run(msg).then(
@@ -380,8 +382,8 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
     let limit = raysPerMessage;
     let used = 0;
     let current = -1;
-    while (queue.length > 0) {
-      const run = queue[0];
+    while (queued() > 0) {
+      const run = queue[qHead];
       const blk = blockOf(run.p);
       if (blk !== current) {
         const rest = blockRays.get(blk) ?? 0;
@@ -400,8 +402,13 @@ export async function runSweep(options: SweepOptions): Promise<SweepResult> {
       }
       if (b1 === run.b0) break;
       const piece = { p: run.p, b0: run.b0, b1 };
-      if (b1 === run.b1) queue.shift();
-      else run.b0 = b1;
+      if (b1 === run.b1) {
+        qHead++;
+        if (qHead > 4096 && 2 * qHead > queue.length) {
+          queue = queue.slice(qHead);
+          qHead = 0;
+        }
+      } else run.b0 = b1;
       blockRays.set(blk, (blockRays.get(blk) ?? 0) - n);
       runs.push(piece);
       items.push(itemOf(piece));
