@@ -1,3 +1,4 @@
+import { makeReport } from "../../report/makeReport.js";
 import { join } from "node:path";
 import type { Command } from "commander";
 import { readResponseMatrix } from "../../response/matrixFile.js";
@@ -17,7 +18,7 @@ const collect = (value: string, previous: string[] = []): string[] => [...previo
 
 interface CompareOpts {
   matrix: string[]; site: string[]; weather?: string[]; year: string; seed: string; tilt: string; azimuth: string;
-  textureRotation: string; sky: string; channel: string; json?: boolean; out?: string; runDir?: string;
+  textureRotation: string; sky: string; channel: string; json?: boolean; out?: string; runDir?: string; report?: boolean;
 }
 
 /** `lightfold compare --matrix a.json --matrix b.json --site s1 [--site s2] --tilt 20,35` */
@@ -36,6 +37,7 @@ export function register(program: Command): void {
     .option("--sky <model>", "diffuse sky model: isotropic, hay-davies, perez", "perez")
     .option("--channel <name>", "response channel that counts as current", "A_absorber")
     .option("--out <file.json>", "write the comparison JSON to this file")
+    .option("--no-report", "with --run-dir: do not refresh <dir>/report/index.html")
     .option("--run-dir <dir>", "write the comparison JSON to <dir>/yield/compare.json")
     .option("--json", "print the comparison JSON instead of the table")
     .addHelpText(
@@ -85,10 +87,12 @@ matrices' stderr (independent runs). Both use the same weather, sky model and pl
       const text = JSON.stringify(doc, null, 2) + "\n";
       if (opts.out) writeFileAtomic(opts.out, text);
       if (opts.runDir) writeFileAtomic(join(opts.runDir, "yield", "compare.json"), text);
+      const report = opts.runDir && opts.report !== false ? makeReport([opts.runDir]) : undefined;
       if (opts.json) process.stdout.write(text);
       else {
         const label = (i: number): string => `${matrices[i]!.studyName} (${opts.matrix[i]!})`;
         process.stdout.write(formatCompareTable(label(0), label(1), rows));
+        if (report) process.stdout.write(`report: ${report.indexPath}\n`);
       }
     });
 }

@@ -1,3 +1,4 @@
+import { makeReport } from "../../report/makeReport.js";
 import { join } from "node:path";
 import type { Command } from "commander";
 import { readResponseMatrix } from "../../response/matrixFile.js";
@@ -31,7 +32,7 @@ export function slug(name: string): string {
 
 interface YieldOpts {
   matrix: string; site: string; weather: string; year: string; seed: string; tilt: string; azimuth: string;
-  textureRotation: string; sky: string; channel: string; hourly?: string; json?: boolean; out?: string; runDir?: string;
+  textureRotation: string; sky: string; channel: string; hourly?: string; json?: boolean; out?: string; runDir?: string; report?: boolean;
 }
 
 /** `lightfold yield --matrix m --site s --weather csv|synthetic --tilt 30 --azimuth 180` */
@@ -51,6 +52,7 @@ export function register(program: Command): void {
     .option("--channel <name>", "response channel that counts as current", "A_absorber")
     .option("--hourly <file.csv>", "write the hourly POA irradiance and current (single plane only)")
     .option("--out <file.json>", "write the result JSON to this file")
+    .option("--no-report", "with --run-dir: do not refresh <dir>/report/index.html")
     .option("--run-dir <dir>", "write the result JSON to <dir>/yield/yield-<site>.json (for `lightfold report`)")
     .option("--json", "print the result JSON instead of the table")
     .addHelpText(
@@ -86,10 +88,12 @@ only: not an electrical or bankable energy yield.`,
       if (opts.hourly) writeFileAtomic(opts.hourly, hourlyCsv(ctx, results[0]!, formatUtcOffset(site.utcOffsetHours)));
       if (opts.out) writeFileAtomic(opts.out, text);
       if (opts.runDir) writeFileAtomic(join(opts.runDir, "yield", `yield-${slug(site.name)}.json`), text);
+      const report = opts.runDir && opts.report !== false ? makeReport([opts.runDir]) : undefined;
       if (opts.json) process.stdout.write(text);
       else {
         for (const w of ctx.warnings) process.stderr.write(`warning: ${ctx.weatherSource}: ${w}\n`);
         process.stdout.write(formatYieldTable(site.name, sky, results, best));
+        if (report) process.stdout.write(`report: ${report.indexPath}\n`);
       }
     });
 }
