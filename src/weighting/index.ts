@@ -1,4 +1,4 @@
-export { weightedSum, ratioIndependent, type ValueWithError } from "./weightedSum.js";
+export { stridedWeightedSum, ratioIndependent, type ValueWithError } from "./weightedSum.js";
 export {
   photocurrentSummary,
   PHOTOCURRENT_FORMAT,

@@ -1,5 +1,5 @@
 import { CH_ABSORBER, matrixIndex, type ResponseMatrix } from "../response/responseMatrix.js";
-import { ratioIndependent, weightedSum, type ValueWithError } from "./weightedSum.js";
+import { ratioIndependent, stridedWeightedSum, type ValueWithError } from "./weightedSum.js";
 
 export const PHOTOCURRENT_FORMAT = "lightfold.photocurrent";
 export const PHOTOCURRENT_FORMAT_VERSION = 1;
@@ -71,7 +71,7 @@ export function photocurrentSummary(m: ResponseMatrix, w: ArrayLike<number>, lab
   for (let it = 1; it < m.thetaDeg.length; it++) if (Math.abs(m.thetaDeg[it]) < Math.abs(m.thetaDeg[itRef])) itRef = it;
 
   const absorber = (it: number, ip: number): ValueWithError =>
-    weightedSum(w, m.mean, m.stderr, matrixIndex(m, it, ip, 0, ia), nC);
+    stridedWeightedSum(w, m.mean, m.stderr, matrixIndex(m, it, ip, 0, ia), nC);
 
   const directions: DirectionPhotocurrent[] = [];
   for (let it = 0; it < m.thetaDeg.length; it++) {
@@ -80,7 +80,7 @@ export function photocurrentSummary(m: ResponseMatrix, w: ArrayLike<number>, lab
       const losses: ChannelCurrent[] = [];
       for (let ic = 0; ic < nC; ic++) {
         if (ic === ia) continue;
-        const l = weightedSum(w, m.mean, m.stderr, matrixIndex(m, it, ip, 0, ic), nC);
+        const l = stridedWeightedSum(w, m.mean, m.stderr, matrixIndex(m, it, ip, 0, ic), nC);
         losses.push({ channel: m.channels[ic], currentMaCm2: l.value, stderrMaCm2: l.stderr });
       }
       // The reference direction divided by itself is exactly 1 with no error.

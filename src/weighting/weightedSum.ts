@@ -9,7 +9,7 @@ export interface ValueWithError {
 }
 
 /** Σ w[i]·mean[offset + i·stride] and its standard error, i = 0..w.length-1. */
-export function weightedSum(
+export function stridedWeightedSum(
   w: ArrayLike<number>,
   mean: ArrayLike<number>,
   stderr: ArrayLike<number>,

@@ -1,3 +1,4 @@
+import { makeReport } from "../../report/makeReport.js";
 import { basename, join } from "node:path";
 import type { Command } from "commander";
 import { loadStudy, withOverrides } from "../../study/load.js";
@@ -9,6 +10,7 @@ import { journalPath } from "../../sweep/sweepPaths.js";
 import { existsSync, readFileSync } from "node:fs";
 
 interface SweepFlags {
+  report?: boolean;
   out?: string;
   workers?: string;
   resume?: boolean;
@@ -45,6 +47,7 @@ export function register(program: Command): void {
     .option("--target-error <se>", "per point, add batches until the standard error of each --channels entry is below <se>")
     .option("--channels <list>", "channels for --target-error, comma-separated (default: A_absorber)")
     .option("--max-rays <n>", "most rays per point with --target-error (default: 200000)")
+    .option("--no-report", "do not write <out>/report/index.html at the end")
     .option("--quiet", "no progress output")
     .option("--json", "print the final summary as JSON")
     .addHelpText(
@@ -127,6 +130,7 @@ with the same study; a changed study sets the old journal aside and starts afres
         raysPerS: result.wallS > 0 ? result.raysTraced / result.wallS : 0,
         damagedJournalLines: result.damagedJournalLines,
         files: result.files,
+        report: shard === null && flags.report !== false ? makeReport([outDir]).indexPath : null,
       };
       if (flags.json === true) {
         process.stdout.write(JSON.stringify(summary, null, 2) + "\n");
@@ -139,6 +143,7 @@ with the same study; a changed study sets the old journal aside and starts afres
           : [`  wrote ${result.files.length} files under ${outDir}: run.json and per combination <combo>/matrix.json, photocurrent.json, iam.csv`]),
       ];
       if (shard === null && study.combos.length > 1) lines.push(...comboTable(outDir));
+      if (summary.report) lines.push(`  report ${summary.report}`);
       if (shard !== null) lines.push(`  shard ${shard.index}/${shard.count} done; when all shards are done: lightfold merge ${outDir} --out <dir>`);
       process.stdout.write(lines.join("\n") + "\n");
     });

@@ -1,0 +1,23 @@
+/**
+ * lightfold's public API, in the order of the data path:
+ * study → materials/optics → trace kernel → sweep (worker pool) → response matrix → weighting/exports
+ * → yield → report.
+ */
+export { loadStudy, loadStudyFromDocument, withOverrides, type LoadedStudy } from "./study/load.js";
+export * from "./materials/index.js";
+export * from "./spectrum/index.js";
+export * from "./optics/index.js";
+export { RandomStream, streamKey } from "./random/stream.js";
+export * from "./trace/index.js";
+export { runSweep, type SweepOptions, type SweepResult, type SweepProgress } from "./sweep/runSweep.js";
+export { tracePoint, type TracePointOptions, type TracePointResult } from "./sweep/tracePoint.js";
+export * from "./response/responseMatrix.js";
+export { readResponseMatrix, writeResponseMatrix, matrixToJson, matrixFromJson } from "./response/matrixFile.js";
+export * from "./export/index.js";
+export * from "./weighting/index.js";
+export { logLogSlope, buildConvergenceReport, buildConvergenceReportOnPool, convergenceEstimator, replicaSeed, type ConvergeRequest } from "./convergence/index.js";
+export { prepareMatrix, planeList, yieldSweep, bestPlane, type PreparedMatrix } from "./yield/yieldRun.js";
+export { textureBenefit, type Benefit } from "./yield/compare.js";
+export type { YieldResult } from "./yield/annualYield.js";
+export { makeReport, type MakeReportOptions, type MakeReportResult } from "./report/makeReport.js";
+export { InputError } from "./util/errors.js";
