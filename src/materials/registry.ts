@@ -1,6 +1,6 @@
 import { InputError } from "../util/errors.js";
 import { BUILTIN_ALIASES, builtinMaterials } from "./builtins.js";
-import { suggestNames } from "./editDistance.js";
+import { suggestNames } from "../util/didYouMean.js";
 import type { Material } from "./types.js";
 
 export { materialFromSpec, registerStudyMaterials } from "./spec.js";

@@ -1,3 +1,4 @@
+import { nearestWord } from "../util/didYouMean.js";
 import { InputError } from "../util/errors.js";
 
 /** A parsed JSON object of a study file. */
@@ -79,35 +80,4 @@ export function expectOneOf<T extends string>(raw: unknown, path: string, allowe
 
 function join(path: string, key: string): string {
   return path === "" ? key : `${path}.${key}`;
-}
-
-/** Closest allowed word by edit distance (at most max(2, a third of its length)), for did-you-mean. */
-export function nearestWord(word: string, allowed: readonly string[]): string | undefined {
-  let best: string | undefined;
-  let bestD = Infinity;
-  const lw = word.toLowerCase();
-  for (const a of allowed) {
-    const d = editDistance(lw, a.toLowerCase());
-    if (d < bestD) {
-      bestD = d;
-      best = a;
-    }
-  }
-  return best !== undefined && bestD <= Math.max(2, Math.floor(best.length / 3)) ? best : undefined;
-}
-
-/** Levenshtein distance (unit costs for insert, delete, substitute). */
-export function editDistance(a: string, b: string): number {
-  const prev = new Array<number>(b.length + 1);
-  for (let j = 0; j <= b.length; j++) prev[j] = j;
-  for (let i = 1; i <= a.length; i++) {
-    let diag = prev[0];
-    prev[0] = i;
-    for (let j = 1; j <= b.length; j++) {
-      const tmp = prev[j];
-      prev[j] = Math.min(prev[j] + 1, prev[j - 1] + 1, diag + (a[i - 1] === b[j - 1] ? 0 : 1));
-      diag = tmp;
-    }
-  }
-  return prev[b.length];
 }

@@ -1,5 +1,6 @@
 import { InputError } from "../util/errors.js";
-import { describeValue, expectNumber, expectObject, nearestWord, type RawObject } from "./fieldChecks.js";
+import { nearestWord } from "../util/didYouMean.js";
+import { describeValue, expectNumber, expectObject, type RawObject } from "./fieldChecks.js";
 
 /** Parameter sweep: field path relative to "stack" (e.g. "front.films[0].thicknessNm") -> values. */
 export type SweepSpec = Record<string, number[]>;

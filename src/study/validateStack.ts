@@ -1,5 +1,6 @@
 import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
+import { nearestWord } from "../util/didYouMean.js";
 import { InputError } from "../util/errors.js";
 import { parseHeightMapCsv } from "../geometry/heightMapCsv.js";
 import {
@@ -236,7 +237,7 @@ function required(o: Raw, key: string, path: string): unknown {
 function known(o: Raw, path: string, allowed: string[]): void {
   for (const key of Object.keys(o)) {
     if (!allowed.includes(key)) {
-      const near = nearest(key, allowed);
+      const near = nearestWord(key, allowed);
       throw new InputError(
         `${path}.${key}: unknown field`,
         near !== undefined ? `did you mean "${near}"?` : `allowed fields: ${allowed.join(", ") || "(none)"}`,
@@ -278,7 +279,7 @@ function str(raw: unknown, path: string): string {
 
 function oneOf(raw: unknown, path: string, allowed: string[]): string {
   if (typeof raw !== "string" || !allowed.includes(raw)) {
-    const near = typeof raw === "string" ? nearest(raw, allowed) : undefined;
+    const near = typeof raw === "string" ? nearestWord(raw, allowed) : undefined;
     throw new InputError(
       `${path}: expected one of ${allowed.map((a) => JSON.stringify(a)).join(", ")}, got ${describe(raw)}`,
       near !== undefined ? `did you mean "${near}"?` : undefined,
@@ -307,34 +308,4 @@ function describe(raw: unknown): string {
   if (raw === null) return "null";
   if (typeof raw === "object") return "an object";
   return String(raw);
-}
-
-/** Closest allowed word by edit distance (at most a third of its length), for did-you-mean hints. */
-function nearest(word: string, allowed: string[]): string | undefined {
-  let best: string | undefined;
-  let bestD = Infinity;
-  const lw = word.toLowerCase();
-  for (const a of allowed) {
-    const d = editDistance(lw, a.toLowerCase());
-    if (d < bestD) {
-      bestD = d;
-      best = a;
-    }
-  }
-  return best !== undefined && bestD <= Math.max(2, Math.floor(best.length / 3)) ? best : undefined;
-}
-
-function editDistance(a: string, b: string): number {
-  const prev = new Array<number>(b.length + 1);
-  for (let j = 0; j <= b.length; j++) prev[j] = j;
-  for (let i = 1; i <= a.length; i++) {
-    let diag = prev[0];
-    prev[0] = i;
-    for (let j = 1; j <= b.length; j++) {
-      const tmp = prev[j];
-      prev[j] = Math.min(prev[j] + 1, prev[j - 1] + 1, diag + (a[i - 1] === b[j - 1] ? 0 : 1));
-      diag = tmp;
-    }
-  }
-  return prev[b.length];
 }

@@ -9,7 +9,7 @@ import type { LoadedStudy } from "../study/load.js";
 import type { StudyCombo } from "../study/studyTypes.js";
 import { writeFileAtomic } from "../util/atomicWrite.js";
 import { InputError } from "../util/errors.js";
-import { nearestWord } from "../study/fieldChecks.js";
+import { nearestWord } from "../util/didYouMean.js";
 import { toolVersion } from "../util/version.js";
 import { buildId } from "./buildId.js";
 import { defaultWorkerCount, TracePool } from "../workers/pool.js";

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { MaterialRegistry, materialFromSpec, registerStudyMaterials } from "../../src/materials/index.js";
-import { editDistance } from "../../src/materials/editDistance.js";
+import { editDistance } from "../../src/util/didYouMean.js";
 import { InputError } from "../../src/util/errors.js";
 
 function inputErrorOf(fn: () => unknown): string {

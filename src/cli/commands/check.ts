@@ -4,7 +4,7 @@ import { formatStudySummary, summarizeStudy } from "../../study/summary.js";
 import { loadTracer } from "../../workers/tracerModule.js";
 import { InputError } from "../../util/errors.js";
 import { comboChannels } from "../../sweep/channels.js";
-import { nearestWord } from "../../study/fieldChecks.js";
+import { nearestWord } from "../../util/didYouMean.js";
 
 export function register(program: Command): void {
   program
