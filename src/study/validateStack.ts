@@ -1,7 +1,17 @@
 import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
-import { nearestWord } from "../util/didYouMean.js";
 import { InputError } from "../util/errors.js";
+import {
+  describeValue,
+  expectInteger,
+  expectNumber,
+  expectObject,
+  expectOneOf,
+  expectPositive,
+  expectString,
+  rejectUnknownFields,
+  requireField,
+} from "./fieldChecks.js";
 import { parseHeightMapCsv } from "../geometry/heightMapCsv.js";
 import {
   DEFAULT_FACET_ANGLE_DEG,
@@ -26,8 +36,6 @@ export interface ValidateStackOptions {
   readText?: (absPath: string) => string;
 }
 
-type Raw = Record<string, unknown>;
-
 /**
  * Validates the raw "stack" JSON of a study file into a StackSpec: defaults applied, unknown fields
  * rejected with a did-you-mean hint, every error an InputError naming the field path. With a
@@ -41,19 +49,19 @@ export function validateStack(
   options: ValidateStackOptions = {},
 ): StackSpec {
   const ctx: Ctx = { registry, options };
-  const o = object(raw, path);
-  known(o, path, ["incidence", "layers", "front", "absorber", "rear", "boundary"]);
+  const o = expectObject(raw, path);
+  rejectUnknownFields(o, path, ["incidence", "layers", "front", "absorber", "rear", "boundary"]);
   const incidence = material(ctx, o.incidence ?? "air", `${path}.incidence`);
   const layers = layerList(ctx, o.layers, `${path}.layers`);
-  const front = frontSpec(ctx, required(o, "front", path), `${path}.front`);
-  const a = object(required(o, "absorber", path), `${path}.absorber`);
-  known(a, `${path}.absorber`, ["material", "thicknessUm"]);
+  const front = frontSpec(ctx, requireField(o, "front", path), `${path}.front`);
+  const a = expectObject(requireField(o, "absorber", path), `${path}.absorber`);
+  rejectUnknownFields(a, `${path}.absorber`, ["material", "thicknessUm"]);
   const absorber = {
     material: material(ctx, a.material ?? "Si", `${path}.absorber.material`),
-    thicknessUm: positive(required(a, "thicknessUm", `${path}.absorber`), `${path}.absorber.thicknessUm`),
+    thicknessUm: expectPositive(requireField(a, "thicknessUm", `${path}.absorber`), `${path}.absorber.thicknessUm`),
   };
-  const rear = rearSpec(ctx, required(o, "rear", path), `${path}.rear`);
-  const boundary = oneOf(o.boundary ?? "periodic", `${path}.boundary`, ["periodic", "mirror"]) as BoundaryKind;
+  const rear = rearSpec(ctx, requireField(o, "rear", path), `${path}.rear`);
+  const boundary = expectOneOf(o.boundary ?? "periodic", `${path}.boundary`, ["periodic", "mirror"]) as BoundaryKind;
   return { incidence, layers, front, absorber, rear, boundary };
 }
 
@@ -64,14 +72,14 @@ interface Ctx {
 
 function layerList(ctx: Ctx, raw: unknown, path: string): LayerSpec[] {
   if (raw === undefined) return [];
-  if (!Array.isArray(raw)) throw new InputError(`${path}: expected a list of layers, got ${describe(raw)}`);
+  if (!Array.isArray(raw)) throw new InputError(`${path}: expected a list of layers, got ${describeValue(raw)}`);
   const names = new Set<string>();
   return raw.map((item, i) => {
     const p = `${path}[${i}]`;
-    const o = object(item, p);
-    known(o, p, ["name", "material", "thicknessUm", "topFilms"]);
-    const mat = material(ctx, required(o, "material", p), `${p}.material`);
-    const name = o.name === undefined ? mat : str(o.name, `${p}.name`);
+    const o = expectObject(item, p);
+    rejectUnknownFields(o, p, ["name", "material", "thicknessUm", "topFilms"]);
+    const mat = material(ctx, requireField(o, "material", p), `${p}.material`);
+    const name = o.name === undefined ? mat : expectString(o.name, `${p}.name`);
     if (names.has(name)) {
       throw new InputError(`${p}.name: layer name ${JSON.stringify(name)} is used twice`, "give each layer its own name");
     }
@@ -79,15 +87,15 @@ function layerList(ctx: Ctx, raw: unknown, path: string): LayerSpec[] {
     return {
       name,
       material: mat,
-      thicknessUm: positive(required(o, "thicknessUm", p), `${p}.thicknessUm`),
+      thicknessUm: expectPositive(requireField(o, "thicknessUm", p), `${p}.thicknessUm`),
       topFilms: filmList(ctx, o.topFilms, `${p}.topFilms`),
     };
   });
 }
 
 function frontSpec(ctx: Ctx, raw: unknown, path: string): FrontSpec {
-  const o = object(raw, path);
-  known(o, path, ["texture", "films"]);
+  const o = expectObject(raw, path);
+  rejectUnknownFields(o, path, ["texture", "films"]);
   const spec = {
     texture: texture(ctx, o.texture ?? { type: "planar" }, `${path}.texture`),
     films: filmList(ctx, o.films, `${path}.films`),
@@ -99,37 +107,37 @@ function frontSpec(ctx: Ctx, raw: unknown, path: string): FrontSpec {
 }
 
 function rearSpec(ctx: Ctx, raw: unknown, path: string): RearSpec {
-  const o = object(raw, path);
+  const o = expectObject(raw, path);
   if (o.ideal !== undefined) {
-    known(o, path, ["ideal"]);
+    rejectUnknownFields(o, path, ["ideal"]);
     const p = `${path}.ideal`;
-    const ideal = object(o.ideal, p);
-    known(ideal, p, ["kind", "reflectance"]);
-    const kind = oneOf(required(ideal, "kind", p), `${p}.kind`, ["mirror", "lambertian"]) as "mirror" | "lambertian";
-    const reflectance = num(ideal.reflectance ?? 1, `${p}.reflectance`);
+    const ideal = expectObject(o.ideal, p);
+    rejectUnknownFields(ideal, p, ["kind", "reflectance"]);
+    const kind = expectOneOf(requireField(ideal, "kind", p), `${p}.kind`, ["mirror", "lambertian"]) as "mirror" | "lambertian";
+    const reflectance = expectNumber(ideal.reflectance ?? 1, `${p}.reflectance`);
     if (!(reflectance >= 0 && reflectance <= 1)) {
       throw new InputError(`${p}.reflectance: expected a number in [0, 1], got ${reflectance}`);
     }
     return { ideal: { kind, reflectance } };
   }
-  known(o, path, ["texture", "films", "exit", "ideal"]);
+  rejectUnknownFields(o, path, ["texture", "films", "exit", "ideal"]);
   return {
     texture: texture(ctx, o.texture ?? { type: "planar" }, `${path}.texture`),
     films: filmList(ctx, o.films, `${path}.films`),
-    exit: material(ctx, required(o, "exit", path), `${path}.exit`),
+    exit: material(ctx, requireField(o, "exit", path), `${path}.exit`),
   };
 }
 
 function filmList(ctx: Ctx, raw: unknown, path: string): FilmSpec[] {
   if (raw === undefined) return [];
-  if (!Array.isArray(raw)) throw new InputError(`${path}: expected a list of films, got ${describe(raw)}`);
+  if (!Array.isArray(raw)) throw new InputError(`${path}: expected a list of films, got ${describeValue(raw)}`);
   return raw.map((item, i) => {
     const p = `${path}[${i}]`;
-    const o = object(item, p);
-    known(o, p, ["material", "thicknessNm"]);
+    const o = expectObject(item, p);
+    rejectUnknownFields(o, p, ["material", "thicknessNm"]);
     return {
-      material: material(ctx, required(o, "material", p), `${p}.material`),
-      thicknessNm: positive(required(o, "thicknessNm", p), `${p}.thicknessNm`),
+      material: material(ctx, requireField(o, "material", p), `${p}.material`),
+      thicknessNm: expectPositive(requireField(o, "thicknessNm", p), `${p}.thicknessNm`),
     };
   });
 }
@@ -146,11 +154,11 @@ const TEXTURE_FIELDS: Record<TextureSpec["type"], string[]> = {
 };
 
 function texture(ctx: Ctx, raw: unknown, path: string): TextureSpec {
-  const o = object(raw, path);
-  const type = oneOf(required(o, "type", path), `${path}.type`, Object.keys(TEXTURE_FIELDS)) as TextureSpec["type"];
-  known(o, path, ["type", ...TEXTURE_FIELDS[type]]);
+  const o = expectObject(raw, path);
+  const type = expectOneOf(requireField(o, "type", path), `${path}.type`, Object.keys(TEXTURE_FIELDS)) as TextureSpec["type"];
+  rejectUnknownFields(o, path, ["type", ...TEXTURE_FIELDS[type]]);
   const facet = (): number => facetAngle(o.facetAngleDeg ?? DEFAULT_FACET_ANGLE_DEG, `${path}.facetAngleDeg`);
-  const pos = (key: string): number => positive(required(o, key, path), `${path}.${key}`);
+  const pos = (key: string): number => expectPositive(requireField(o, key, path), `${path}.${key}`);
   switch (type) {
     case "planar":
       return { type };
@@ -164,14 +172,14 @@ function texture(ctx: Ctx, raw: unknown, path: string): TextureSpec {
       return { type, baseUm: pos("baseUm"), facetAngleDeg: facet() };
     case "random-pyramids": {
       const meanBaseUm = pos("meanBaseUm");
-      const sizeSpread = num(o.sizeSpread ?? 0.3, `${path}.sizeSpread`);
+      const sizeSpread = expectNumber(o.sizeSpread ?? 0.3, `${path}.sizeSpread`);
       if (!(sizeSpread >= 0 && sizeSpread < 1)) {
         throw new InputError(`${path}.sizeSpread: expected a relative standard deviation in [0, 1), got ${sizeSpread}`);
       }
-      const count = integer(o.count ?? 20, `${path}.count`, 1, 10000);
+      const count = expectInteger(o.count ?? 20, `${path}.count`, 1, 10000);
       // Default tile: coverage count·mean²/tile² = 4, so about e^-4 ≈ 2 % of the base plane stays flat.
-      const tileUm = o.tileUm === undefined ? (meanBaseUm * Math.sqrt(count)) / 2 : positive(o.tileUm, `${path}.tileUm`);
-      const seed = integer(o.seed ?? 1, `${path}.seed`, 0, 2 ** 31);
+      const tileUm = o.tileUm === undefined ? (meanBaseUm * Math.sqrt(count)) / 2 : expectPositive(o.tileUm, `${path}.tileUm`);
+      const seed = expectInteger(o.seed ?? 1, `${path}.seed`, 0, 2 ** 31);
       return { type, meanBaseUm, sizeSpread, count, tileUm, facetAngleDeg: facet(), seed };
     }
     case "grooves":
@@ -179,7 +187,7 @@ function texture(ctx: Ctx, raw: unknown, path: string): TextureSpec {
         type,
         periodUm: pos("periodUm"),
         facetAngleDeg: facet(),
-        orientationDeg: num(o.orientationDeg ?? 0, `${path}.orientationDeg`),
+        orientationDeg: expectNumber(o.orientationDeg ?? 0, `${path}.orientationDeg`),
       };
     case "spherical-caps": {
       const radiusUm = pos("radiusUm");
@@ -197,11 +205,11 @@ function texture(ctx: Ctx, raw: unknown, path: string): TextureSpec {
         );
       }
       const inverted = o.inverted ?? false;
-      if (typeof inverted !== "boolean") throw new InputError(`${path}.inverted: expected true or false, got ${describe(inverted)}`);
+      if (typeof inverted !== "boolean") throw new InputError(`${path}.inverted: expected true or false, got ${describeValue(inverted)}`);
       return { type, radiusUm, periodUm, depthUm, inverted };
     }
     case "height-map": {
-      const csv = str(required(o, "csv", path), `${path}.csv`);
+      const csv = expectString(requireField(o, "csv", path), `${path}.csv`);
       const pitchUm = pos("pitchUm");
       const spec: TextureSpec = { type, csv, pitchUm };
       const { baseDir, readText } = ctx.options;
@@ -222,74 +230,15 @@ function texture(ctx: Ctx, raw: unknown, path: string): TextureSpec {
 
 // ---- primitive checks -------------------------------------------------------------------------
 
-function object(raw: unknown, path: string): Raw {
-  if (raw === null || typeof raw !== "object" || Array.isArray(raw)) {
-    throw new InputError(`${path}: expected an object, got ${describe(raw)}`);
-  }
-  return raw as Raw;
-}
-
-function required(o: Raw, key: string, path: string): unknown {
-  if (o[key] === undefined) throw new InputError(`${path}.${key}: required field is missing`);
-  return o[key];
-}
-
-function known(o: Raw, path: string, allowed: string[]): void {
-  for (const key of Object.keys(o)) {
-    if (!allowed.includes(key)) {
-      const near = nearestWord(key, allowed);
-      throw new InputError(
-        `${path}.${key}: unknown field`,
-        near !== undefined ? `did you mean "${near}"?` : `allowed fields: ${allowed.join(", ") || "(none)"}`,
-      );
-    }
-  }
-}
-
-function num(raw: unknown, path: string): number {
-  if (typeof raw !== "number" || !Number.isFinite(raw)) throw new InputError(`${path}: expected a number, got ${describe(raw)}`);
-  return raw;
-}
-
-function positive(raw: unknown, path: string): number {
-  if (typeof raw !== "number" || !Number.isFinite(raw) || raw <= 0) {
-    throw new InputError(`${path}: expected a positive number, got ${describe(raw)}`);
-  }
-  return raw;
-}
-
-function integer(raw: unknown, path: string, min: number, max: number): number {
-  if (typeof raw !== "number" || !Number.isInteger(raw) || raw < min || raw > max) {
-    throw new InputError(`${path}: expected an integer in [${min}, ${max}], got ${describe(raw)}`);
-  }
-  return raw;
-}
-
 function facetAngle(raw: unknown, path: string): number {
   if (typeof raw !== "number" || !Number.isFinite(raw) || raw <= 0 || raw >= 90) {
-    throw new InputError(`${path}: expected a number in (0, 90), got ${describe(raw)}`);
-  }
-  return raw;
-}
-
-function str(raw: unknown, path: string): string {
-  if (typeof raw !== "string" || raw === "") throw new InputError(`${path}: expected a non-empty string, got ${describe(raw)}`);
-  return raw;
-}
-
-function oneOf(raw: unknown, path: string, allowed: string[]): string {
-  if (typeof raw !== "string" || !allowed.includes(raw)) {
-    const near = typeof raw === "string" ? nearestWord(raw, allowed) : undefined;
-    throw new InputError(
-      `${path}: expected one of ${allowed.map((a) => JSON.stringify(a)).join(", ")}, got ${describe(raw)}`,
-      near !== undefined ? `did you mean "${near}"?` : undefined,
-    );
+    throw new InputError(`${path}: expected a number in (0, 90), got ${describeValue(raw)}`);
   }
   return raw;
 }
 
 function material(ctx: Ctx, raw: unknown, path: string): string {
-  const name = str(raw, path);
+  const name = expectString(raw, path);
   if (ctx.registry !== undefined) {
     try {
       ctx.registry.get(name);
@@ -299,13 +248,4 @@ function material(ctx: Ctx, raw: unknown, path: string): string {
     }
   }
   return name;
-}
-
-function describe(raw: unknown): string {
-  if (raw === undefined) return "nothing";
-  if (typeof raw === "string") return JSON.stringify(raw);
-  if (Array.isArray(raw)) return "a list";
-  if (raw === null) return "null";
-  if (typeof raw === "object") return "an object";
-  return String(raw);
 }
