@@ -1,8 +1,8 @@
 import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { afterAll, describe, expect, it, vi } from "vitest";
-import { main } from "../../src/cli/main.js";
+import { afterAll, describe, expect, it } from "vitest";
+import { runMain as run } from "../helpers/cli.js";
 import { CONVERGENCE_CSV_COLUMNS, type ConvergenceReport } from "../../src/convergence/convergenceReport.js";
 
 const dir = mkdtempSync(join(tmpdir(), "lightfold-converge-cli-"));
@@ -24,19 +24,6 @@ writeFileSync(
     seed: 3,
   }),
 );
-
-async function run(...args: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = "";
-  let err = "";
-  const o = vi.spyOn(process.stdout, "write").mockImplementation((s: string | Uint8Array) => ((out += String(s)), true));
-  const e = vi.spyOn(process.stderr, "write").mockImplementation((s: string | Uint8Array) => ((err += String(s)), true));
-  try {
-    return { code: await main(["node", "lightfold", ...args]), out, err };
-  } finally {
-    o.mockRestore();
-    e.mockRestore();
-  }
-}
 
 describe("lightfold converge", () => {
   it("prints the step table with slopes and the predicted rays", async () => {

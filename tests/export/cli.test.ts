@@ -1,28 +1,14 @@
 import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { afterAll, describe, expect, it, vi } from "vitest";
-import { main } from "../../src/cli/main.js";
+import { afterAll, describe, expect, it } from "vitest";
+import { runMain as run } from "../helpers/cli.js";
 import { writeResponseMatrix } from "../../src/response/matrixFile.js";
 import { parseCsv } from "./csvReader.js";
 import { smallMatrix } from "./matrixFixture.js";
 
 const dir = mkdtempSync(join(tmpdir(), "lightfold-export-cli-"));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
-
-async function run(...args: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = "";
-  let err = "";
-  const o = vi.spyOn(process.stdout, "write").mockImplementation((s: string | Uint8Array) => ((out += String(s)), true));
-  const e = vi.spyOn(process.stderr, "write").mockImplementation((s: string | Uint8Array) => ((err += String(s)), true));
-  try {
-    const code = await main(["node", "lightfold", ...args]);
-    return { code, out, err };
-  } finally {
-    o.mockRestore();
-    e.mockRestore();
-  }
-}
 
 describe("lightfold export", () => {
   const matrixPath = join(dir, "matrix.json");

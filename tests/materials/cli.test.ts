@@ -1,17 +1,8 @@
-import { spawnSync } from "node:child_process";
 import { existsSync, mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
-
-// Runs the built CLI (`npm test` builds first; alone: `npx tsc -p .` then vitest).
-const ROOT = join(import.meta.dirname, "..", "..");
-const BIN = join(ROOT, "bin", "lightfold.js");
-
-function lightfold(...args: string[]): { status: number | null; stdout: string; stderr: string } {
-  const r = spawnSync(process.execPath, [BIN, ...args], { cwd: ROOT, encoding: "utf8", env: { ...process.env, NO_COLOR: "1" } });
-  return { status: r.status, stdout: r.stdout, stderr: r.stderr };
-}
+import { ROOT, spawnLightfold as lightfold } from "../helpers/cli.js";
 
 beforeAll(() => {
   expect(existsSync(join(ROOT, "dist", "src", "cli", "commands", "materials.js")), "build first: npx tsc -p .").toBe(true);

@@ -3,18 +3,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { materialFromSpec, parseNkCsv } from "../../src/materials/index.js";
-import { InputError } from "../../src/util/errors.js";
-
-/** The InputError message thrown by fn (fails the test when nothing or something else is thrown). */
-function inputErrorOf(fn: () => unknown): string {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(InputError);
-    return (e as Error).message;
-  }
-  throw new Error("expected an InputError");
-}
+import { inputErrorOf } from "../helpers/inputError.js";
 
 describe("parseNkCsv(text, label)", () => {
   it("reads comment lines, a header and rows; keeps the exact numbers", () => {

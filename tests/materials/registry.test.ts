@@ -1,17 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { MaterialRegistry, materialFromSpec, registerStudyMaterials } from "../../src/materials/index.js";
 import { editDistance } from "../../src/util/didYouMean.js";
-import { InputError } from "../../src/util/errors.js";
-
-function inputErrorOf(fn: () => unknown): string {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(InputError);
-    return (e as Error).message;
-  }
-  throw new Error("expected an InputError");
-}
+import { inputErrorOf } from "../helpers/inputError.js";
 
 const userSi = () => materialFromSpec({ name: "Si", constant: { n: 3.5, k: 0 } }, ".", "m");
 

@@ -1,16 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { MaterialRegistry, materialFromSpec } from "../../src/materials/index.js";
-import { InputError } from "../../src/util/errors.js";
-
-function inputErrorOf(fn: () => unknown): string {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(InputError);
-    return (e as Error).message;
-  }
-  throw new Error("expected an InputError");
-}
+import { inputErrorOf } from "../helpers/inputError.js";
 
 describe("materialFromSpec(spec, baseDir, fieldPath): formula and constant entries", () => {
   it("constant: n, k at any wavelength in its range", () => {

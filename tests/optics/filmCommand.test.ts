@@ -1,19 +1,5 @@
-import { describe, expect, it, vi } from "vitest";
-import { main } from "../../src/cli/main.js";
-
-async function run(...args: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = "";
-  let err = "";
-  const o = vi.spyOn(process.stdout, "write").mockImplementation((s: string | Uint8Array) => ((out += String(s)), true));
-  const e = vi.spyOn(process.stderr, "write").mockImplementation((s: string | Uint8Array) => ((err += String(s)), true));
-  try {
-    const code = await main(["node", "lightfold", ...args]);
-    return { code, out, err };
-  } finally {
-    o.mockRestore();
-    e.mockRestore();
-  }
-}
+import { describe, expect, it } from "vitest";
+import { runMain as run } from "../helpers/cli.js";
 
 interface Point { wavelengthNm: number; angleDeg: number; Rs: number; Rp: number; R: number; T: number; Ts: number; Tp: number; films: { As: number; Ap: number; A: number }[] }
 

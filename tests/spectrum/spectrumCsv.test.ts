@@ -3,17 +3,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { loadSpectrumCsv, parseSpectrumCsv, spectrumFromSpec, trapezoid } from "../../src/spectrum/index.js";
-import { InputError } from "../../src/util/errors.js";
-
-function inputErrorOf(fn: () => unknown): string {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(InputError);
-    return (e as Error).message;
-  }
-  throw new Error("expected an InputError");
-}
+import { inputErrorOf } from "../helpers/inputError.js";
 
 describe("parseSpectrumCsv / loadSpectrumCsv", () => {
   it("reads wavelength_nm,irradiance_W_m2_nm with comments", () => {
