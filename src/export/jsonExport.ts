@@ -1,4 +1,5 @@
 import { matrixIndex, pointIndex, type ResponseMatrix } from "../response/responseMatrix.js";
+import { matrixProvenance, type MatrixProvenance } from "./provenance.js";
 
 /** Format tag of the nested-array JSON export (distinct from the flat `*.matrix.json` file). */
 export const JSON_EXPORT_FORMAT = "lightfold.response.export";
@@ -7,16 +8,9 @@ export const JSON_EXPORT_VERSION = 1;
 /** Axis names, outermost first; `mean[it][ip][il][ic]` belongs to thetaDeg[it], phiDeg[ip], … */
 export const EXPORT_DIMS = ["theta_deg", "phi_deg", "wavelength_nm", "channel"] as const;
 
-export interface MatrixJsonExport {
+export interface MatrixJsonExport extends MatrixProvenance {
   format: typeof JSON_EXPORT_FORMAT;
   formatVersion: number;
-  toolVersion: string;
-  studyName: string;
-  studyHash: string;
-  seed: number;
-  combo: Record<string, number>;
-  phiMode: ResponseMatrix["phiMode"];
-  partial: boolean;
   dims: string[];
   axes: { theta_deg: number[]; phi_deg: number[]; wavelength_nm: number[]; channel: string[] };
   /** Fractions of incident power, nested [theta][phi][wavelength][channel]. */
@@ -46,13 +40,7 @@ export function matrixToExportObject(m: ResponseMatrix): MatrixJsonExport {
   return {
     format: JSON_EXPORT_FORMAT,
     formatVersion: JSON_EXPORT_VERSION,
-    toolVersion: m.toolVersion,
-    studyName: m.studyName,
-    studyHash: m.studyHash,
-    seed: m.seed,
-    combo: m.combo,
-    phiMode: m.phiMode,
-    partial: m.partial === true,
+    ...matrixProvenance(m),
     dims: [...EXPORT_DIMS],
     axes: { theta_deg: m.thetaDeg, phi_deg: m.phiDeg, wavelength_nm: m.wavelengthNm, channel: m.channels },
     mean: nest4(m, m.mean),

@@ -1,5 +1,7 @@
 import type { ResponseMatrix } from "../response/responseMatrix.js";
+import { EXPORT_DIMS } from "./jsonExport.js";
 import { encodeNpyFloat64 } from "./npy.js";
+import { matrixProvenance, type MatrixProvenance } from "./provenance.js";
 
 export const NPY_SIDECAR_FORMAT = "lightfold.response.npy";
 export const NPY_SIDECAR_VERSION = 1;
@@ -13,16 +15,9 @@ export interface NpyArrayEntry {
   description: string;
 }
 
-export interface NpySidecar {
+export interface NpySidecar extends MatrixProvenance {
   format: typeof NPY_SIDECAR_FORMAT;
   formatVersion: number;
-  toolVersion: string;
-  studyName: string;
-  studyHash: string;
-  seed: number;
-  combo: Record<string, number>;
-  phiMode: ResponseMatrix["phiMode"];
-  partial: boolean;
   axes: { theta_deg: number[]; phi_deg: number[]; wavelength_nm: number[]; channels: string[] };
   arrays: { mean: NpyArrayEntry; stderr: NpyArrayEntry; nRays: NpyArrayEntry; pathRatio: NpyArrayEntry };
 }
@@ -43,8 +38,8 @@ export function matrixToNpy(m: ResponseMatrix, prefix: string): NpyExport {
   const nP = m.phiDeg.length;
   const nL = m.wavelengthNm.length;
   const nC = m.channels.length;
-  const dims4 = ["theta_deg", "phi_deg", "wavelength_nm", "channel"];
-  const dims3 = ["theta_deg", "phi_deg", "wavelength_nm"];
+  const dims4 = [...EXPORT_DIMS];
+  const dims3 = dims4.slice(0, 3);
   const entry = (suffix: string, dims: string[], shape: number[], description: string): NpyArrayEntry => ({
     file: `${prefix}_${suffix}.npy`,
     dtype: "<f8",
@@ -66,13 +61,7 @@ export function matrixToNpy(m: ResponseMatrix, prefix: string): NpyExport {
   const sidecar: NpySidecar = {
     format: NPY_SIDECAR_FORMAT,
     formatVersion: NPY_SIDECAR_VERSION,
-    toolVersion: m.toolVersion,
-    studyName: m.studyName,
-    studyHash: m.studyHash,
-    seed: m.seed,
-    combo: m.combo,
-    phiMode: m.phiMode,
-    partial: m.partial === true,
+    ...matrixProvenance(m),
     axes: { theta_deg: m.thetaDeg, phi_deg: m.phiDeg, wavelength_nm: m.wavelengthNm, channels: m.channels },
     arrays,
   };
