@@ -10,7 +10,7 @@ export function readNkCsvFile(path: string, label = path): NkColumns {
     text = readFileSync(path, "utf8");
   } catch (err) {
     const why = err instanceof Error ? err.message : String(err);
-    throw new InputError(`${label}: cannot read n,k file (${why})`);
+    throw new InputError(`${label}: cannot read n,k file (${why})`, "check the path (a csv path in a study file is relative to the study file's folder)");
   }
   return parseNkCsv(text, label);
 }

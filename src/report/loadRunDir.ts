@@ -16,7 +16,7 @@ function readJsonFile(path: string): Json {
   try {
     text = readFileSync(path, "utf8");
   } catch {
-    throw new InputError(`cannot read ${path}`);
+    throw new InputError(`cannot read ${path}`, "give the --out folder of a `lightfold sweep` run (it holds run.json); an interrupted sweep finishes when rerun with the same --out");
   }
   return parseJson(text, path);
 }

@@ -49,7 +49,10 @@ export function readResponseMatrix(path: string): ResponseMatrix {
   try {
     text = readFileSync(path, "utf8");
   } catch {
-    throw new InputError(`cannot read response matrix file ${path}`);
+    throw new InputError(
+      `cannot read response matrix file ${path}`,
+      "give a matrix.json written by `lightfold sweep` (in <out>/<combination>/matrix.json, e.g. runs/my-study/base/matrix.json)",
+    );
   }
   return matrixFromJson(text, path);
 }

@@ -18,7 +18,10 @@ export function readSiteFile(path: string): Site {
   try {
     text = readFileSync(path, "utf8");
   } catch {
-    throw new InputError(`cannot read site file ${path}`);
+    throw new InputError(
+      `cannot read site file ${path}`,
+      "give a site JSON file (name, latitudeDeg, longitudeDeg, utcOffsetHours, …); examples: configs/sites/*.site.json",
+    );
   }
   return siteFromJson(text, path);
 }

@@ -25,7 +25,10 @@ export function loadSpectrumCsv(path: string): Spectrum {
   try {
     text = readFileSync(path, "utf8");
   } catch (err) {
-    throw new InputError(`${path}: cannot read spectrum file (${err instanceof Error ? err.message : String(err)})`);
+    throw new InputError(
+      `${path}: cannot read spectrum file (${err instanceof Error ? err.message : String(err)})`,
+      "give a CSV with header wavelength_nm,irradiance_W_m2_nm, or the built-in name AM1.5G",
+    );
   }
   return parseSpectrumCsv(text, path);
 }

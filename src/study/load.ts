@@ -31,7 +31,10 @@ export function loadStudy(path: string): LoadedStudy {
   try {
     text = readFileSync(abs, "utf8");
   } catch (err) {
-    throw new InputError(`cannot read study file ${path}: ${(err as NodeJS.ErrnoException).code ?? (err as Error).message}`);
+    throw new InputError(
+      `cannot read study file ${path}: ${(err as NodeJS.ErrnoException).code ?? (err as Error).message}`,
+      "check the path (relative to the current folder); example studies: configs/*.study.json",
+    );
   }
   let doc: unknown;
   try {
@@ -108,7 +111,10 @@ function referencedFiles(doc: unknown, baseDir: string): Record<string, string> 
             try {
               files[v] = readFileSync(resolve(baseDir, v), "utf8");
             } catch (err) {
-              throw new InputError(`${p}: cannot read ${resolve(baseDir, v)} (${(err as NodeJS.ErrnoException).code ?? (err as Error).message})`);
+              throw new InputError(
+                `${p}: cannot read ${resolve(baseDir, v)} (${(err as NodeJS.ErrnoException).code ?? (err as Error).message})`,
+                "csv paths are relative to the folder of the study file",
+              );
             }
           }
         } else visit(v, p);

@@ -104,7 +104,7 @@ function writeSlurmScripts(studyArg: string, flags: SlurmScriptFlags): WrittenSc
   const scriptDir = resolve(flags.scriptDir ?? join(outDir, "slurm"));
   for (const [option, dir] of [["--out-dir", outDir], ["--script-dir", scriptDir]] as const) {
     if (!isSbatchSafePath(dir)) {
-      throw new InputError(`${option}: "${dir}" holds spaces, quotes or %, which #SBATCH lines cannot carry; choose a plain path`);
+      throw new InputError(`${option}: "${dir}" holds spaces, quotes or %, which #SBATCH lines cannot carry; choose a plain path`, "e.g. a folder name of letters, digits, '-', '_', '.' and '/'");
     }
   }
   const job: SlurmJobOptions = {

@@ -52,10 +52,16 @@ benefit % = 100 (Q_A/Q_B − 1); its ± is the Monte Carlo standard error propag
 matrices' stderr (independent runs). Both use the same weather, sky model and planes.`,
     )
     .action((opts: CompareOpts) => {
-      if (opts.matrix.length !== 2) throw new InputError(`--matrix: give exactly two matrices (A then B), got ${opts.matrix.length}`);
+      if (opts.matrix.length !== 2) throw new InputError(
+          `--matrix: give exactly two matrices (A then B), got ${opts.matrix.length}`,
+          "repeat the flag: --matrix candidate.matrix.json --matrix reference.matrix.json",
+        );
       const weatherSpecs = opts.weather ?? opts.site.map(() => "synthetic");
       if (weatherSpecs.length !== opts.site.length) {
-        throw new InputError(`--weather: give one per --site (${opts.site.length}), got ${weatherSpecs.length}`);
+        throw new InputError(
+          `--weather: give one per --site (${opts.site.length}), got ${weatherSpecs.length}`,
+          "give --weather once per --site in the same order (synthetic for a generated year), or leave it out for synthetic everywhere",
+        );
       }
       const sky = skyModelOption(opts.sky);
       const planes = planeList(

@@ -32,14 +32,14 @@ interface ConvergeFlags {
 function num(text: string | undefined, flag: string, check: (v: number) => boolean, expected: string): number | undefined {
   if (text === undefined) return undefined;
   const v = Number(text);
-  if (text.trim() === "" || !Number.isFinite(v) || !check(v)) throw new InputError(`${flag}: expected ${expected}, got "${text}"`);
+  if (text.trim() === "" || !Number.isFinite(v) || !check(v)) throw new InputError(`${flag}: expected ${expected}, got "${text}"`, "run `lightfold converge --help` for each flag's form and examples");
   return v;
 }
 const posInt = (v: number) => Number.isInteger(v) && v >= 1;
 
 function estimatorFlag(text: string | undefined): "analog" | "expected" | undefined {
   if (text === undefined || text === "analog" || text === "expected") return text;
-  throw new InputError(`--estimator: expected "expected" or "analog", got "${text}"`);
+  throw new InputError(`--estimator: expected "expected" or "analog", got "${text}"`, "expected (expected-value weights, the default) or analog, e.g. --estimator analog");
 }
 
 /** `lightfold converge <study> (--wavelength λ | --spectral) [...]` */
@@ -81,7 +81,10 @@ Carlo errors fall as N^-1/2: the fitted log-log slopes should be near -0.5.`,
     )
     .action(async (studyPath: string, flags: ConvergeFlags) => {
       if ((flags.wavelength === undefined) === (flags.spectral !== true)) {
-        throw new InputError("converge: give exactly one of --wavelength <nm> or --spectral");
+        throw new InputError(
+          "converge: give exactly one of --wavelength <nm> or --spectral",
+          "--wavelength 600 converges one channel at 600 nm; --spectral converges the absorber photocurrent over the study's wavelength grid",
+        );
       }
       const loaded = loadStudy(studyPath);
       const req: ConvergeRequest = {

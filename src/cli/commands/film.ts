@@ -56,7 +56,7 @@ Examples:
     .action((opts: { stack: string; wavelength: string; angle: string; json?: boolean }) => {
       const spec = parseStackSpec(opts.stack, "--stack");
       const wavelengths = parseNumberSweep(opts.wavelength, "--wavelength", 1e-3, 1e9, "nm");
-      if (wavelengths.some((w) => w <= 0)) throw new InputError(`--wavelength: wavelengths must be positive`);
+      if (wavelengths.some((w) => w <= 0)) throw new InputError(`--wavelength: wavelengths must be positive`, "e.g. --wavelength 600 or --wavelength 400:1100:50 (nm)");
       const angles = parseNumberSweep(opts.angle, "--angle", 0, 90, "deg");
       const registry = MaterialRegistry.withBuiltins();
       const resolve = (name: string) => registry.get(name);

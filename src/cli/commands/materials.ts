@@ -38,7 +38,7 @@ export function parseWavelengthList(text: string): number[] {
   return parts.map((p) => {
     const v = Number(p);
     if (p === "" || !Number.isFinite(v) || v <= 0) {
-      throw new InputError(`--wavelength: "${p}" is not a wavelength in nm (expected e.g. 600 or 400,600,1000)`);
+      throw new InputError(`--wavelength: "${p}" is not a wavelength in nm (expected e.g. 600 or 400,600,1000)`, "wavelengths are in nm, comma-separated, e.g. --wavelength 400,600,1000");
     }
     return v;
   });
@@ -135,7 +135,7 @@ Examples:
       const wavelengths = opts.wavelength === undefined ? null : parseWavelengthList(opts.wavelength);
       const json = opts.json === true;
       if (opts.csv !== undefined) {
-        if (name !== undefined) throw new InputError(`give either a material name or --csv, not both`);
+        if (name !== undefined) throw new InputError(`give either a material name or --csv, not both`, "lightfold materials Si, or lightfold materials --csv my-film.csv");
         const stem = basename(opts.csv).replace(/\.[^.]*$/, "");
         const label = /^[A-Za-z0-9][A-Za-z0-9_.+\-]*$/.test(stem) ? stem : "csv";
         const m = materialFromSpec({ name: label, csv: opts.csv, description: `user table ${opts.csv}` }, process.cwd(), "--csv");
@@ -144,7 +144,10 @@ Examples:
       }
       const registry = MaterialRegistry.withBuiltins();
       if (name === undefined) {
-        if (wavelengths !== null) throw new InputError(`--wavelength needs a material name (e.g. lightfold materials Si --wavelength ${wavelengths[0]})`);
+        if (wavelengths !== null) throw new InputError(
+          `--wavelength needs a material name (e.g. lightfold materials Si --wavelength ${wavelengths[0]})`,
+          "run `lightfold materials` for the names of the built-ins",
+        );
         listMaterials(registry, json);
         return;
       }

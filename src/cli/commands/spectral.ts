@@ -12,7 +12,10 @@ const NAMED = ["AM1.5G", "AM1.5D", "G173-ETR"];
 export function spectrumOption(text: string): Spectrum {
   if (NAMED.includes(text)) return spectrumFromSpec(text, process.cwd(), "--spectrum");
   if (/\.csv$/i.test(text) || existsSync(text)) return spectrumFromSpec({ csv: text }, process.cwd(), "--spectrum");
-  throw new InputError(`--spectrum: expected ${NAMED.join(", ")} or a CSV file, got "${text}"`);
+  throw new InputError(
+    `--spectrum: expected ${NAMED.join(", ")} or a CSV file, got "${text}"`,
+    "a spectrum CSV has the header wavelength_nm,irradiance_W_m2_nm",
+  );
 }
 
 /** `lightfold spectral <matrix.json> [--spectrum AM1.5G|file.csv] [--json]` */

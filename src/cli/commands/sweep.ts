@@ -30,7 +30,7 @@ export function defaultOutDir(studyPath: string): string {
 
 function positiveInt(text: string, flag: string): number {
   const n = Number(text);
-  if (!Number.isInteger(n) || n < 1) throw new InputError(`${flag}: expected a positive integer, got ${JSON.stringify(text)}`);
+  if (!Number.isInteger(n) || n < 1) throw new InputError(`${flag}: expected a positive integer, got ${JSON.stringify(text)}`, "run `lightfold sweep --help` for each flag's form and examples");
   return n;
 }
 
@@ -66,7 +66,10 @@ with the same study; a changed study sets the old journal aside and starts afres
       let study = loadStudy(studyPath);
       if (flags.targetError !== undefined) {
         const se = Number(flags.targetError);
-        if (!(se > 0 && se < 0.5)) throw new InputError(`--target-error: expected a standard error in (0, 0.5), got ${JSON.stringify(flags.targetError)}`);
+        if (!(se > 0 && se < 0.5)) throw new InputError(
+          `--target-error: expected a standard error in (0, 0.5), got ${JSON.stringify(flags.targetError)}`,
+          "a fraction of incident power, e.g. --target-error 0.002",
+        );
         const base = study.combos[0].study.rays;
         const maxPerPoint = flags.maxRays === undefined ? 200_000 : positiveInt(flags.maxRays, "--max-rays");
         const channels = (flags.channels ?? (base.mode === "target" ? base.channels.join(",") : "A_absorber")).split(",").map((c) => c.trim()).filter((c) => c !== "");
@@ -74,12 +77,12 @@ with the same study; a changed study sets the old journal aside and starts afres
           rays: { mode: "target", targetStdErr: se, channels, maxPerPoint, minPerPoint: Math.min(2 * base.batch, maxPerPoint), batch: base.batch },
         });
       } else if (flags.channels !== undefined || flags.maxRays !== undefined) {
-        throw new InputError("--channels and --max-rays go with --target-error");
+        throw new InputError("--channels and --max-rays go with --target-error", "e.g. --target-error 0.002 --channels A_absorber,R --max-rays 200000");
       }
       const outDir = flags.out ?? defaultOutDir(studyPath);
       const shard = resolveShard(flags.shard);
       const workers = flags.workers === undefined ? undefined : positiveInt(flags.workers, "--workers");
-      if (flags.resume === true && flags.fresh === true) throw new InputError("--resume and --fresh exclude each other");
+      if (flags.resume === true && flags.fresh === true) throw new InputError("--resume and --fresh exclude each other", "--resume continues the run in --out; --fresh sets its journal aside and starts again");
       const say = (line: string): void => {
         if (flags.quiet !== true) process.stderr.write(`lightfold sweep: ${line}\n`);
       };

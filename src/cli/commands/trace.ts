@@ -21,7 +21,7 @@ interface TraceOptions {
 
 function numberOption(name: string, text: string, check: (v: number) => boolean, expected: string): number {
   const v = Number(text);
-  if (text.trim() === "" || !Number.isFinite(v) || !check(v)) throw new InputError(`--${name}: expected ${expected}, got "${text}"`);
+  if (text.trim() === "" || !Number.isFinite(v) || !check(v)) throw new InputError(`--${name}: expected ${expected}, got "${text}"`, "run `lightfold trace --help` for each flag's form and examples");
   return v;
 }
 
@@ -57,10 +57,13 @@ Exit codes: 0 done, 2 bad input (the message names the flag or field).`,
       const wavelengthNm = numberOption("wavelength", opts.wavelength, (v) => v > 0, "a wavelength in nm");
       const nRays = numberOption("rays", opts.rays, (v) => Number.isInteger(v) && v >= 1, "a positive whole number");
       if (!["unpolarized", "s", "p"].includes(opts.polarization)) {
-        throw new InputError(`--polarization: expected unpolarized, s or p, got "${opts.polarization}"`);
+        throw new InputError(`--polarization: expected unpolarized, s or p, got "${opts.polarization}"`, "e.g. --polarization s");
       }
       if (opts.estimator !== "expected" && opts.estimator !== "analog") {
-        throw new InputError(`--estimator: expected "expected" or "analog", got "${opts.estimator}"`);
+        throw new InputError(
+          `--estimator: expected "expected" or "analog", got "${opts.estimator}"`,
+          "expected (expected-value weights, the default) or analog, e.g. --estimator analog",
+        );
       }
       const loaded = loadStudy(studyPath);
       const comboIndex = numberOption("combo", opts.combo, (v) => Number.isInteger(v) && v >= 0 && v < loaded.combos.length, `an index below ${loaded.combos.length}`);

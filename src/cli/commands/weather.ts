@@ -16,7 +16,7 @@ import type { WeatherYear } from "../../weather/weatherYear.js";
 export function intOption(text: string | undefined, flag: string, fallback: number): number {
   if (text === undefined) return fallback;
   const v = Number(text);
-  if (!Number.isInteger(v)) throw new InputError(`${flag}: expected a whole number, got "${text}"`);
+  if (!Number.isInteger(v)) throw new InputError(`${flag}: expected a whole number, got "${text}"`, "e.g. --year 2027 --seed 7");
   return v;
 }
 
@@ -27,7 +27,10 @@ export function loadWeather(spec: string, site: Site, year: number, seed: number
   try {
     text = readFileSync(spec, "utf8");
   } catch {
-    throw new InputError(`--weather: cannot read weather file ${spec} (or use "synthetic")`);
+    throw new InputError(
+      `--weather: cannot read weather file ${spec} (or use "synthetic")`,
+      "give an hourly weather CSV (e.g. one written by `lightfold weather --out`), or --weather synthetic",
+    );
   }
   return parseWeatherCsv(text, spec);
 }
@@ -112,6 +115,6 @@ function readFileSyncOr(path: string): string {
   try {
     return readFileSync(path, "utf8");
   } catch {
-    throw new InputError(`cannot read weather file ${path}`);
+    throw new InputError(`cannot read weather file ${path}`, "give an hourly weather CSV, e.g. one written by `lightfold weather --out`");
   }
 }

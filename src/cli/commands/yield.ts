@@ -16,12 +16,12 @@ import { intOption, loadWeather } from "./weather.js";
 
 export function skyModelOption(text: string): SkyModel {
   if ((SKY_MODELS as readonly string[]).includes(text)) return text as SkyModel;
-  throw new InputError(`--sky: expected one of ${SKY_MODELS.join(", ")}, got "${text}"`);
+  throw new InputError(`--sky: expected one of ${SKY_MODELS.join(", ")}, got "${text}"`, "e.g. --sky perez (the default) or --sky isotropic");
 }
 
 export function textureRotationOption(text: string): number {
   const v = Number(text);
-  if (!Number.isFinite(v)) throw new InputError(`--texture-rotation: expected degrees, got "${text}"`);
+  if (!Number.isFinite(v)) throw new InputError(`--texture-rotation: expected degrees, got "${text}"`, "e.g. --texture-rotation 45");
   return v;
 }
 
@@ -75,7 +75,7 @@ only: not an electrical or bankable energy yield.`,
       const tilts = parseAngleList(opts.tilt, "--tilt", 0, 180, "0 = facing up, 90 = vertical, 180 = facing down");
       const azimuths = parseAngleList(opts.azimuth, "--azimuth", 0, 360, "degrees from north, clockwise");
       const planes = planeList(tilts, azimuths, textureRotationOption(opts.textureRotation));
-      if (opts.hourly && planes.length > 1) throw new InputError("--hourly needs a single tilt and azimuth");
+      if (opts.hourly && planes.length > 1) throw new InputError("--hourly needs a single tilt and azimuth", "e.g. --tilt 30 --azimuth 180 --hourly hourly.csv");
       const matrix = readResponseMatrix(opts.matrix);
       const pm = prepareMatrix(matrix, opts.matrix, opts.channel);
       const weather = loadWeather(opts.weather, site, intOption(opts.year, "--year", 2027), intOption(opts.seed, "--seed", 7));
