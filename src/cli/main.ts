@@ -45,6 +45,13 @@ export function buildProgram(): Command {
   return program;
 }
 
+/** Fallback hint for an InputError that carries none: where the verb's usage and examples are. */
+function helpHint(program: Command, argv: string[]): string {
+  const names = new Set(program.commands.map((c) => c.name()));
+  const verb = argv.slice(2).find((a) => names.has(a));
+  return `run \`lightfold ${verb ?? ""}${verb ? " " : ""}--help\` for usage and examples`;
+}
+
 /** The only place that exits the process. */
 export async function main(argv: string[]): Promise<number> {
   const program = buildProgram();
@@ -58,7 +65,7 @@ export async function main(argv: string[]): Promise<number> {
     }
     if (err instanceof InputError) {
       process.stderr.write(`lightfold: ${err.message}\n`);
-      if (err.hint) process.stderr.write(`hint: ${err.hint}\n`);
+      process.stderr.write(`hint: ${err.hint || helpHint(program, argv)}\n`);
       return EXIT_BAD_INPUT;
     }
     const message = err instanceof Error ? (err.stack ?? err.message) : String(err);
