@@ -19,7 +19,7 @@ Examples:
   lightfold check configs/demo-random-pyramids.study.json
   lightfold check my.study.json --json
 
-Exit codes: 0 valid, 2 invalid (the message names the field path and what was expected).`,
+Exit codes: 0 valid, 1 failure (an unexpected error), 2 invalid (the message names the field path and what was expected).`,
     )
     .action(async (studyPath: string, opts: { json?: boolean }) => {
       const study = loadStudy(studyPath);
