@@ -60,7 +60,7 @@ export function register(program: Command): void {
       "after",
       `
 Examples:
-  lightfold slurm-script configs/demo.study.json --shards 16 --cpus-per-task 4 \\
+  lightfold slurm-script configs/demo-random-pyramids.study.json --shards 16 --cpus-per-task 4 \\
       --time 04:00:00 --mem 8G --out-dir /scratch/$USER/demo --partition compute
       -> /scratch/$USER/demo/slurm/{sweep-array.sbatch, merge.sbatch, submit.sh}
   bash /scratch/$USER/demo/slurm/submit.sh

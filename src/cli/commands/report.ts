@@ -23,11 +23,11 @@ export function register(program: Command): void {
       "after",
       `
 Examples:
-  lightfold report runs/demo/random-pyramids
-      -> runs/demo/random-pyramids/report/index.html and one .svg per plot
+  lightfold report runs/demo/demo-random-pyramids
+      -> runs/demo/demo-random-pyramids/report/index.html and one .svg per plot
   lightfold report runs/a runs/b --angle 30 --out runs/a-vs-b-report
       -> one page for both runs, spectral plot at θ = 30°
-  lightfold report runs/demo/random-pyramids --json | jq .indexPath
+  lightfold report runs/demo/demo-random-pyramids --json | jq .indexPath
 
 Sections whose data are missing (no photocurrent.json, convergence.json or yield/*.json) are left
 out with a short note. Exit codes: 0 written, 1 failure, 2 bad input (missing folder, malformed file,

@@ -59,7 +59,7 @@ export function register(program: Command): void {
       "after",
       `
 Examples:
-  lightfold yield --matrix runs/demo/base/matrix.json --site configs/sites/brevenmark.site.json --tilt 30
+  lightfold yield --matrix runs/demo/demo-random-pyramids/base/matrix.json --site configs/sites/brevenmark.site.json --tilt 30
   lightfold yield --matrix m.json --site configs/sites/nordvik-fjell.site.json \\
       --weather weather-samples/nordvik-fjell-2027.csv --tilt 0:90:5 --run-dir runs/demo
   lightfold yield --matrix m.json --site s.json --weather synthetic --year 2027 --seed 7 --tilt 35 --hourly hours.csv
