@@ -94,7 +94,7 @@ async function writeCalibratedStudy(path: string, calibrationDir: string, timing
   timings.raysPerPoint = perPoint;
 }
 
-describe.skipIf(unavailable !== undefined)("sharded sweep on a real single-node Slurm cluster", () => {
+describe.runIf(unavailable === undefined)("sharded sweep on a real single-node Slurm cluster", () => {
   let cluster: TestCluster | undefined;
   const work = mkdtempSync(join(tmpdir(), "lf-cluster-test-"));
   const refDir = join(work, "single");
