@@ -45,11 +45,30 @@ export function cosIncidence(f: ModuleFrame, zenithDeg: number, azimuthDeg: numb
   return f.n[0] * sz * Math.sin(a) + f.n[1] * sz * Math.cos(a) + f.n[2] * Math.cos(z);
 }
 
-/** Module-relative azimuth (degrees, 0..360) of a direction d (toward the source) in the texture frame. */
+/**
+ * Module-relative azimuth (degrees, 0..360) of a direction d in the texture frame: atan2(d·y, d·x).
+ * For d toward the source this is where the light comes from; the response matrix is indexed by
+ * the travel direction instead (see matrixAzimuthDeg).
+ */
 export function moduleAzimuthDeg(f: ModuleFrame, d: ArrayLike<number>): number {
   const px = f.x[0] * d[0] + f.x[1] * d[1] + f.x[2] * d[2];
   const py = f.y[0] * d[0] + f.y[1] * d[1] + f.y[2] * d[2];
   let phi = Math.atan2(py, px) * RAD;
+  if (phi < 0) phi += 360;
+  return phi;
+}
+
+/**
+ * Azimuth (degrees, 0..360) at which to read the response matrix for light arriving from direction
+ * d (toward the source). The tracer launches a ray at (θ, φ) travelling along
+ * (sinθ cosφ, sinθ sinφ, −cosθ) in the texture frame (src/trace/kernel.ts, launch), so the matrix φ
+ * is the azimuth of the travel direction −d: the source's module azimuth + 180°. (Textures with
+ * 180° rotational symmetry, e.g. pyramids and V-grooves, cannot tell the two apart; height maps can.)
+ */
+export function matrixAzimuthDeg(f: ModuleFrame, d: ArrayLike<number>): number {
+  const px = f.x[0] * d[0] + f.x[1] * d[1] + f.x[2] * d[2];
+  const py = f.y[0] * d[0] + f.y[1] * d[1] + f.y[2] * d[2];
+  let phi = Math.atan2(-py, -px) * RAD;
   if (phi < 0) phi += 360;
   return phi;
 }

@@ -1,5 +1,5 @@
 import type { Plane } from "../site/site.js";
-import { cosIncidence, directionEnu, moduleAzimuthDeg, moduleFrame, type ModuleFrame } from "../sky/moduleFrame.js";
+import { cosIncidence, directionEnu, matrixAzimuthDeg, moduleFrame, type ModuleFrame } from "../sky/moduleFrame.js";
 import { emptySkyParts, poaIrradianceWm2, skyParts, type SkyModel } from "../sky/transposition.js";
 import { RAD } from "../util/math.js";
 import type { AngularGrid } from "./angularGrid.js";
@@ -92,7 +92,7 @@ export function annualYield(ctx: YearContext, setup: PlaneSetup, grid: AngularGr
     const pointWm2 = parts.dniWm2 + parts.circumsolarWm2;
     if (c > 0 && pointWm2 > 0) {
       directionEnu(z, ctx.azimuthDeg[h]!, d);
-      const k = grid.weights(Math.acos(Math.min(1, c)) * RAD, moduleAzimuthDeg(frame, d), idx, w);
+      const k = grid.weights(Math.acos(Math.min(1, c)) * RAD, matrixAzimuthDeg(frame, d), idx, w);
       for (let q = 0; q < k; q++) {
         jSun += w[q]! * tables.beam[idx[q]!]!;
         beamNodeWeight[idx[q]!] += pointWm2 * c * w[q]!;

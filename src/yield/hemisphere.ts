@@ -1,4 +1,4 @@
-import { moduleAzimuthDeg, type ModuleFrame } from "../sky/moduleFrame.js";
+import { matrixAzimuthDeg, type ModuleFrame } from "../sky/moduleFrame.js";
 import { RAD } from "../util/math.js";
 import type { AngularGrid } from "./angularGrid.js";
 
@@ -44,7 +44,7 @@ export function planeQuadrature(grid: AngularGrid, f: ModuleFrame, opts: Quadrat
         d[0] = sz * Math.sin(psi); d[1] = sz * Math.cos(psi); d[2] = cz;
         const c = n[0] * d[0] + n[1] * d[1] + n[2] * d[2];
         if (c <= 0) continue;
-        const k = grid.weights(Math.acos(Math.min(1, c)) * RAD, moduleAzimuthDeg(f, d), idx, w);
+        const k = grid.weights(Math.acos(Math.min(1, c)) * RAD, matrixAzimuthDeg(f, d), idx, w);
         const base = c * dOmegaOverPi;
         for (let q = 0; q < k; q++) target[idx[q]!] += base * w[q]!;
       }
@@ -56,7 +56,7 @@ export function planeQuadrature(grid: AngularGrid, f: ModuleFrame, opts: Quadrat
     d[0] = Math.sin(psi); d[1] = Math.cos(psi); d[2] = 0;
     const c = n[0] * d[0] + n[1] * d[1];
     if (c <= 0) continue;
-    const k = grid.weights(Math.acos(Math.min(1, c)) * RAD, moduleAzimuthDeg(f, d), idx, w);
+    const k = grid.weights(Math.acos(Math.min(1, c)) * RAD, matrixAzimuthDeg(f, d), idx, w);
     for (let q = 0; q < k; q++) horizon[idx[q]!] += 0.5 * c * dh * w[q]!;
   }
   return { sky, ground, horizon };
