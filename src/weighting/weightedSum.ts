@@ -28,11 +28,13 @@ export function stridedWeightedSum(
 }
 
 /**
- * Ratio a/b of two independent estimates; relative errors add in quadrature
- * (first-order error propagation, e.g. Taylor, An Introduction to Error Analysis, §3.8).
+ * Ratio a/b of two independent estimates with first-order error propagation
+ * (Taylor, An Introduction to Error Analysis, general formula §3.11): σ² = (σa/b)² + (a σb/b²)², which is the
+ * quadrature sum of relative errors when a ≠ 0 and stays finite when a = 0 (e.g. no current at grazing
+ * incidence).
  */
 export function ratioIndependent(a: ValueWithError, b: ValueWithError): ValueWithError {
   const value = a.value / b.value;
-  const rel = Math.hypot(a.stderr / a.value, b.stderr / b.value);
-  return { value, stderr: Math.abs(value) * rel };
+  const stderr = Math.hypot(a.stderr, value * b.stderr) / Math.abs(b.value);
+  return { value, stderr };
 }

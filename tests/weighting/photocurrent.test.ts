@@ -3,6 +3,7 @@ import { matrixIndex } from "../../src/response/responseMatrix.js";
 import { RandomStream } from "../../src/random/stream.js";
 import { photocurrentSummary } from "../../src/weighting/photocurrent.js";
 import { iamCsv } from "../../src/weighting/iamCsv.js";
+import { ratioIndependent } from "../../src/weighting/weightedSum.js";
 import { emptyMatrix, fresnelR } from "./fixtures.js";
 
 const CH = ["R", "A_film:front:0:SiNx", "A_absorber", "A_rear", "T", "unresolved"];
@@ -180,5 +181,20 @@ describe("iamCsv(summary)", () => {
     expect(row[3]).toBe(s.directions[1].iamStderr);
     expect(row[4]).toBe(s.directions[1].jscMaCm2);
     expect(row[5]).toBe(s.directions[1].jscStderrMaCm2);
+  });
+});
+
+describe("ratioIndependent(a, b)", () => {
+  it("propagates errors to first order, also when the numerator is 0 (IAM at grazing incidence)", () => {
+    // Taylor, An Introduction to Error Analysis, general propagation formula (§3.11, section from memory): q = a/b, σq² = (∂q/∂a σa)² + (∂q/∂b σb)²
+    //   = (σa/b)² + (a σb/b²)². a = 0 ± 0.02, b = 10 ± 0.1 → q = 0 ± 0.002.
+    const zero = ratioIndependent({ value: 0, stderr: 0.02 }, { value: 10, stderr: 0.1 });
+    expect(zero.value).toBe(0);
+    expect(zero.stderr).toBeCloseTo(0.002, 15);
+    expect(ratioIndependent({ value: 0, stderr: 0 }, { value: 10, stderr: 0.1 }).stderr).toBe(0);
+    // a = 4 ± 0.03, b = 8 ± 0.04: q = 0.5, relative errors 0.0075 and 0.005 in quadrature.
+    const r = ratioIndependent({ value: 4, stderr: 0.03 }, { value: 8, stderr: 0.04 });
+    expect(r.value).toBe(0.5);
+    expect(r.stderr).toBeCloseTo(0.5 * Math.hypot(0.0075, 0.005), 15);
   });
 });
