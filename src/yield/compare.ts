@@ -9,6 +9,9 @@ export interface Benefit {
 /**
  * 100 (Q_A/Q_B − 1). The two matrices come from independent Monte Carlo runs, so the relative errors
  * add in quadrature (first-order propagation): se = 100 (Q_A/Q_B) sqrt((se_A/Q_A)² + (se_B/Q_B)²).
+ * Two studies traced with the same seed draw the same random streams per point (streamKey of seed and
+ * point): their errors are then positively correlated and this figure overstates the error of the
+ * difference (conservative, never too small).
  */
 export function textureBenefit(a: YieldResult, b: YieldResult): Benefit {
   const ratio = a.chargeAhM2 / b.chargeAhM2;
