@@ -133,3 +133,88 @@ export function meshHit(s: SurfaceTile, q: Float64Array, fromBelow: boolean): nu
   }
   return LOST;
 }
+
+/**
+ * Nearest hit of a ray with regular square pyramids (tile.pyramidSign ≠ 0), the same query and
+ * result convention as meshHit but returning the facet (0..3: +u, −u, +v, −v; normals in
+ * tile.pyramidNormals). Over the square footprint of one pyramid the upright surface is the lowest
+ * of its four facet planes, h = min_k P_k, so along the ray z − h = max_k g_k(t) with g_k linear:
+ * the ray is under the surface exactly on the interval [tLo, tHi] where every g_k ≤ 0 (tLo from the
+ * planes it moves down through, tHi from those it moves up through). From above the hit is at tLo,
+ * from below at tHi, when that lies in the ray's stretch over the footprint; the walk goes from
+ * footprint to footprint (Amanatides & Woo 1987 traversal with one cell per pyramid). Inverted
+ * pyramids are upright ones seen with z reversed. A plane the ray moves away from bounds the
+ * interval on the far side, so the facet a ray has just left is never hit again.
+ */
+export function pyramidHit(s: SurfaceTile, q: Float64Array, fromBelow: boolean): number {
+  const a = s.pyramidPeriodUm;
+  const c = 0.5 * a;
+  const T = s.pyramidTan;
+  const H = s.pyramidHeightUm;
+  const flip = s.pyramidSign < 0;
+  const below = flip ? !fromBelow : fromBelow;
+  const ox = q[Q_OX];
+  const oy = q[Q_OY];
+  const oz = flip ? -q[Q_OZ] : q[Q_OZ];
+  const du = q[Q_DX];
+  const dv = q[Q_DY];
+  const dz = flip ? -q[Q_DZ] : q[Q_DZ];
+  const tLimit = q[Q_LIMIT];
+  const tol = EDGE_TOL_REL * (s.lxUm + s.lyUm);
+  const tEps = 1e-12 * (s.lxUm + s.lyUm);
+  // Origin relative to the apex of the pyramid it lies over; it shifts by ∓a per step.
+  let u0 = ox - a * Math.floor(ox / a) - c;
+  let v0 = oy - a * Math.floor(oy / a) - c;
+  const invDu = du !== 0 ? 1 / Math.abs(du) : Infinity;
+  const invDv = dv !== 0 ? 1 / Math.abs(dv) : Infinity;
+  const stepU = du > 0 ? a : -a;
+  const stepV = dv > 0 ? a : -a;
+  let tNextU = du > 0 ? (c - u0) * invDu : du < 0 ? (c + u0) * invDu : Infinity;
+  let tNextV = dv > 0 ? (c - v0) * invDv : dv < 0 ? (c + v0) * invDv : Infinity;
+  const tDeltaU = a * invDu;
+  const tDeltaV = a * invDv;
+  // Slopes of g_k = z − P_k along the ray (the same in every footprint).
+  const tdu = T * du;
+  const tdv = T * dv;
+  const b0 = dz + tdu, b1 = dz - tdu, b2 = dz + tdv, b3 = dz - tdv;
+  const zH = oz - H;
+  let tA = 0;
+  for (let step = 0; step < MAX_STEPS; step++) {
+    let tB = tNextU < tNextV ? tNextU : tNextV;
+    if (tB > tLimit) tB = tLimit;
+    let tLo = -Infinity;
+    let tHi = Infinity;
+    let kLo = -1;
+    let kHi = -1;
+    let empty = false;
+    // g_k(t) = a_k + b_k t with a_k = g_k(0).
+    const tu = T * u0;
+    const tv = T * v0;
+    const a0 = zH + tu, a1 = zH - tu, a2 = zH + tv, a3 = zH - tv;
+    if (b0 > 0) { const r = -a0 / b0; if (r < tHi) { tHi = r; kHi = 0; } } else if (b0 < 0) { const r = -a0 / b0; if (r > tLo) { tLo = r; kLo = 0; } } else if (a0 > 0) empty = true;
+    if (b1 > 0) { const r = -a1 / b1; if (r < tHi) { tHi = r; kHi = 1; } } else if (b1 < 0) { const r = -a1 / b1; if (r > tLo) { tLo = r; kLo = 1; } } else if (a1 > 0) empty = true;
+    if (b2 > 0) { const r = -a2 / b2; if (r < tHi) { tHi = r; kHi = 2; } } else if (b2 < 0) { const r = -a2 / b2; if (r > tLo) { tLo = r; kLo = 2; } } else if (a2 > 0) empty = true;
+    if (b3 > 0) { const r = -a3 / b3; if (r < tHi) { tHi = r; kHi = 3; } } else if (b3 < 0) { const r = -a3 / b3; if (r > tLo) { tLo = r; kLo = 3; } } else if (a3 > 0) empty = true;
+    if (!empty) {
+      if (below) {
+        if (kHi >= 0 && tHi > tEps && tHi >= tA - tol && tHi <= tB + tol && tHi >= tLo - tol) {
+          q[Q_T] = tHi;
+          return kHi;
+        }
+      } else if (kLo >= 0 && tLo > tEps && tLo >= tA - tol && tLo <= tB + tol && tLo <= tHi + tol) {
+        q[Q_T] = tLo;
+        return kLo;
+      }
+    }
+    if (tB >= tLimit) return NO_HIT;
+    tA = tB;
+    if (tNextU < tNextV) {
+      u0 -= stepU;
+      tNextU += tDeltaU;
+    } else {
+      v0 -= stepV;
+      tNextV += tDeltaV;
+    }
+  }
+  return LOST;
+}

@@ -40,8 +40,25 @@ export interface SurfaceTile {
   /** Texture orientation in the plane (rotation of the tile frame against the stack frame). */
   cosRot: number;
   sinRot: number;
+  /**
+   * Regular square pyramids (same surface as the triangles, searched analytically, see pyramidHit):
+   * +1 upright, −1 inverted, 0 not such a texture. Period (base) in µm, tan of the facet angle,
+   * apex height, and the four facet normals (+u, −u, +v, −v; 3 numbers each, outward).
+   */
+  pyramidSign: number;
+  pyramidPeriodUm: number;
+  pyramidTan: number;
+  pyramidHeightUm: number;
+  pyramidNormals: Float64Array;
   /** Human-readable description (for `trace` output and errors). */
   label: string;
+}
+
+/** Regular square pyramids of a tile (an analytic description of its triangles). */
+export interface PyramidShape {
+  inverted: boolean;
+  baseUm: number;
+  facetAngleDeg: number;
 }
 
 /** A flat interface; `periodUm` only sets the launch cell when it is the front. */
@@ -66,6 +83,11 @@ export function planarTile(periodUm = 1, kind = SURFACE_PLANAR): SurfaceTile {
     cellZMax: new Float64Array(1),
     cosRot: 1,
     sinRot: 0,
+    pyramidSign: 0,
+    pyramidPeriodUm: 0,
+    pyramidTan: 0,
+    pyramidHeightUm: 0,
+    pyramidNormals: new Float64Array(12),
     label: kind === SURFACE_LAMBERTIAN ? "ideal Lambertian randomiser" : "planar",
   };
 }
@@ -84,6 +106,7 @@ export function meshTile(
   gy: number,
   label: string,
   rotationDeg = 0,
+  pyramid: PyramidShape | null = null,
 ): SurfaceTile {
   const nIn = Math.floor(verts.length / 9);
   const tri = new Float64Array(nIn * TRI_STRIDE);
@@ -152,6 +175,15 @@ export function meshTile(
     }
   }
   const rot = (rotationDeg * Math.PI) / 180;
+  const tanA = pyramid === null ? 0 : Math.tan((pyramid.facetAngleDeg * Math.PI) / 180);
+  const sign = pyramid === null ? 0 : pyramid.inverted ? -1 : 1;
+  const pyramidNormals = new Float64Array(12);
+  if (pyramid !== null) {
+    // Facet z = ±(H − T·w) over w ∈ {u, −u, v, −v} from the apex: normal (±T·∇w, 1)/√(1 + T²).
+    const inv = 1 / Math.sqrt(1 + tanA * tanA);
+    const g = sign * tanA * inv;
+    pyramidNormals.set([g, 0, inv, -g, 0, inv, 0, g, inv, 0, -g, inv]);
+  }
   return {
     kind: SURFACE_MESH,
     lxUm,
@@ -172,6 +204,11 @@ export function meshTile(
     cellZMax,
     cosRot: Math.cos(rot),
     sinRot: Math.sin(rot),
+    pyramidSign: sign,
+    pyramidPeriodUm: pyramid === null ? 0 : pyramid.baseUm,
+    pyramidTan: tanA,
+    pyramidHeightUm: pyramid === null ? 0 : (tanA * pyramid.baseUm) / 2,
+    pyramidNormals,
     label,
   };
 }

@@ -2,7 +2,7 @@ import { InputError } from "../util/errors.js";
 import { RandomStream, streamKey } from "../random/stream.js";
 import type { BoundaryKind, TextureSpec } from "../study/stackTypes.js";
 import { heightGridVerts } from "./heightField.js";
-import { meshTile, mirroredVerts, planarTile, SURFACE_LAMBERTIAN, type SurfaceTile } from "./surfaceTile.js";
+import { meshTile, mirroredVerts, planarTile, SURFACE_LAMBERTIAN, type PyramidShape, type SurfaceTile } from "./surfaceTile.js";
 
 const DEG = Math.PI / 180;
 
@@ -37,7 +37,8 @@ export function buildSurface(spec: TextureSpec, boundary: BoundaryKind, fieldPat
         0, a, 0, 0, 0, 0, c, c, apexZ,
       ];
       const label = `${spec.type === "upright-pyramids" ? "upright" : "inverted"} pyramids, base ${a} µm, facets ${spec.facetAngleDeg}°`;
-      return finish(verts, a, a, 2, 2, boundary, label, 0);
+      const shape: PyramidShape = { inverted: spec.type === "inverted-pyramids", baseUm: a, facetAngleDeg: spec.facetAngleDeg };
+      return finish(verts, a, a, 2, 2, boundary, label, 0, shape);
     }
     case "grooves": {
       const p = spec.periodUm;
@@ -79,11 +80,13 @@ function finish(
   boundary: BoundaryKind,
   label: string,
   rotationDeg: number,
+  pyramid: PyramidShape | null = null,
 ): SurfaceTile {
+  // Regular pyramids are symmetric, so their mirror images are the same periodic pyramids.
   if (boundary === "mirror") {
-    return meshTile(mirroredVerts(verts, lx, ly), 2 * lx, 2 * ly, 2 * gx, 2 * gy, `${label}, mirror walls`, rotationDeg);
+    return meshTile(mirroredVerts(verts, lx, ly), 2 * lx, 2 * ly, 2 * gx, 2 * gy, `${label}, mirror walls`, rotationDeg, pyramid);
   }
-  return meshTile(verts, lx, ly, gx, gy, label, rotationDeg);
+  return meshTile(verts, lx, ly, gx, gy, label, rotationDeg, pyramid);
 }
 
 /**

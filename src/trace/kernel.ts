@@ -1,7 +1,7 @@
 import { InputError } from "../util/errors.js";
 import type { RandomStream } from "../random/stream.js";
 import { lookupInterface } from "../optics/interfaceTable.js";
-import { LOST, NO_HIT, Q_DX, Q_DY, Q_DZ, Q_LIMIT, Q_OX, Q_OY, Q_OZ, Q_T, meshHit } from "../geometry/surfaceHit.js";
+import { LOST, NO_HIT, Q_DX, Q_DY, Q_DZ, Q_LIMIT, Q_OX, Q_OY, Q_OZ, Q_T, meshHit, pyramidHit } from "../geometry/surfaceHit.js";
 import { SURFACE_LAMBERTIAN, SURFACE_MESH, TRI_STRIDE, type SurfaceTile } from "../geometry/surfaceTile.js";
 import {
   REAR_IDEAL_LAMBERTIAN,
@@ -18,6 +18,8 @@ const X = 0, Y = 1, Z = 2, DX = 3, DY = 4, DZ = 5, EX = 6, EY = 7, EZ = 8;
 const W = 9, TAU = 10, PATH = 11, NX = 12, NY = 13, NZ = 14, ANALOG = 15, T = 16;
 // Polarisation update inputs: s vector and the two amplitudes (see setPolarization).
 const SX = 17, SY = 18, SZ = 19, PA = 20, PB = 21;
+// Launch direction of the batch: sin θ, cos θ, cos φ, sin φ (φ per ray when the azimuth is random).
+const L_SIN_T = 22, L_COS_T = 23, L_COS_P = 24, L_SIN_P = 25;
 // Doubles travel through these slots, never as arguments or return values of non-inlined
 // functions, so the hot path allocates no boxed numbers.
 /** Search result: a hit, its distance in st[T]. */
@@ -60,9 +62,19 @@ export function traceBatch(
   let events = 0;
   let pathSum = 0;
   let pathSumSq = 0;
+  st[L_SIN_T] = sinT;
+  st[L_COS_T] = cosT;
+  if (phiDeg !== null) {
+    st[L_COS_P] = Math.cos(phiDeg * DEG);
+    st[L_SIN_P] = Math.sin(phiDeg * DEG);
+  }
   for (let r = 0; r < nRays; r++) {
-    const phi = phiDeg === null ? TWO_PI * rng.next() : phiDeg * DEG;
-    events += traceRay(cs, sinT, cosT, phi, polMode, rng);
+    if (phiDeg === null) {
+      const phi = TWO_PI * rng.next();
+      st[L_COS_P] = Math.cos(phi);
+      st[L_SIN_P] = Math.sin(phi);
+    }
+    events += traceRay(cs, polMode, rng);
     for (let c = 0; c < nC; c++) {
       const v = contrib[c];
       tally[2 * c] += v;
@@ -80,7 +92,7 @@ export function traceBatch(
 }
 
 /** One ray from launch to its end; returns the number of interface events. */
-function traceRay(cs: CompiledStack, sinT: number, cosT: number, phi: number, polMode: number, rng: RandomStream): number {
+function traceRay(cs: CompiledStack, polMode: number, rng: RandomStream): number {
   const st = cs.state;
   const contrib = cs.contrib;
   const nL = cs.nLayers;
@@ -90,8 +102,9 @@ function traceRay(cs: CompiledStack, sinT: number, cosT: number, phi: number, po
   const maxEvents = cs.maxEvents;
 
   // Launch: uniform over the front unit cell, above everything, travelling down.
-  const cp = Math.cos(phi);
-  const sp = Math.sin(phi);
+  const sinT = st[L_SIN_T], cosT = st[L_COS_T];
+  const cp = st[L_COS_P];
+  const sp = st[L_SIN_P];
   const dx = sinT * cp, dy = sinT * sp, dz = -cosT;
   st[DX] = dx;
   st[DY] = dy;
@@ -111,8 +124,12 @@ function traceRay(cs: CompiledStack, sinT: number, cosT: number, phi: number, po
   st[Z] = nL > 0 ? cs.layerTopZUm[1] : cs.frontTile.zMaxUm + 1;
   st[W] = 1;
   st[PATH] = 0;
-  st[TAU] = -Math.log(rng.next());
-  st[ANALOG] = cs.estimator === "analog" ? 1 : 0;
+  // The optical-depth budget is drawn for every ray (same random stream in both estimators) but
+  // only the analog one reads it: expected-value rays draw a fresh one when they turn analog.
+  const uTau = rng.next();
+  const analog = cs.estimator === "analog";
+  st[TAU] = analog ? -Math.log(uTau) : 0;
+  st[ANALOG] = analog ? 1 : 0;
 
   let m = 0;
   let events = 0;
@@ -376,14 +393,25 @@ function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBe
   q[Q_DY] = dyl;
   q[Q_DZ] = dzl;
   q[Q_LIMIT] = tLimit;
-  const tri = meshHit(tile, q, fromBelow);
-  if (tri < 0) return tri === NO_HIT && !mustHit ? NO_HIT : LOST;
-  const o = tri * TRI_STRIDE;
-  const nxl = tile.tri[o];
-  const nyl = tile.tri[o + 1];
+  let nxl: number, nyl: number, nzl: number;
+  if (tile.pyramidSign !== 0) {
+    const k = pyramidHit(tile, q, fromBelow);
+    if (k < 0) return k === NO_HIT && !mustHit ? NO_HIT : LOST;
+    const nrm = tile.pyramidNormals;
+    nxl = nrm[3 * k];
+    nyl = nrm[3 * k + 1];
+    nzl = nrm[3 * k + 2];
+  } else {
+    const tri = meshHit(tile, q, fromBelow);
+    if (tri < 0) return tri === NO_HIT && !mustHit ? NO_HIT : LOST;
+    const o = tri * TRI_STRIDE;
+    nxl = tile.tri[o];
+    nyl = tile.tri[o + 1];
+    nzl = tile.tri[o + 2];
+  }
   st[NX] = c * nxl - s * nyl;
   st[NY] = s * nxl + c * nyl;
-  st[NZ] = tile.tri[o + 2];
+  st[NZ] = nzl;
   st[T] = t0 + q[Q_T];
   return HIT;
 }

@@ -1,0 +1,65 @@
+import { describe, expect, it } from "vitest";
+import { RandomStream, streamKey } from "../../src/random/stream.js";
+import { LOST, meshHit, NO_HIT, pyramidHit, Q_DX, Q_DY, Q_DZ, Q_LENGTH, Q_LIMIT, Q_OX, Q_OY, Q_OZ, Q_T } from "../../src/geometry/surfaceHit.js";
+import { TRI_STRIDE } from "../../src/geometry/surfaceTile.js";
+import { buildSurface } from "../../src/geometry/textures.js";
+
+// The analytic pyramid search must find what the triangle search finds (the same surface):
+// same distance (to rounding), same outward normal, same misses, for rays from either side.
+describe("analytic pyramid search agrees with the triangle mesh", () => {
+  const cases: ["upright-pyramids" | "inverted-pyramids", "periodic" | "mirror", number][] = [
+    ["upright-pyramids", "periodic", 54.74],
+    ["inverted-pyramids", "periodic", 54.74],
+    ["upright-pyramids", "mirror", 40],
+    ["inverted-pyramids", "mirror", 62],
+  ];
+  for (const [type, boundary, angle] of cases) {
+    it(`${type}, ${boundary} boundary, ${angle}° facets`, () => {
+      const tile = buildSurface({ type, baseUm: 7, facetAngleDeg: angle }, boundary, "t");
+      expect(tile.pyramidSign).toBe(type === "upright-pyramids" ? 1 : -1);
+      const rng = new RandomStream(streamKey(7, "pyramid-hit", type, boundary));
+      const q = new Float64Array(Q_LENGTH);
+      let hits = 0;
+      let compared = 0;
+      for (let i = 0; i < 10000; i++) {
+        const fromBelow = i % 2 === 0;
+        const x = rng.next() * tile.lxUm, y = rng.next() * tile.lyUm;
+        // Start on the surface's own side: strictly above (below) the height at (x, y), inside the slab.
+        const h = surfaceHeight(tile.pyramidSign, tile.pyramidTan, 7, x, y);
+        const z = fromBelow ? tile.zMinUm + rng.next() * (h - tile.zMinUm) : h + rng.next() * (tile.zMaxUm - h);
+        const cz = 2 * rng.next() - 1;
+        const ph = 2 * Math.PI * rng.next();
+        const sz = Math.sqrt(1 - cz * cz);
+        const dx = sz * Math.cos(ph), dy = sz * Math.sin(ph), dz = cz;
+        const limit = dz > 0 ? (tile.zMaxUm - z) / dz : dz < 0 ? (tile.zMinUm - z) / dz : 50;
+        const set = (): void => {
+          q[Q_OX] = x; q[Q_OY] = y; q[Q_OZ] = z; q[Q_DX] = dx; q[Q_DY] = dy; q[Q_DZ] = dz; q[Q_LIMIT] = limit;
+        };
+        set();
+        const tri = meshHit(tile, q, fromBelow);
+        const tMesh = q[Q_T];
+        set();
+        const k = pyramidHit(tile, q, fromBelow);
+        const tPyr = q[Q_T];
+        if (tri === LOST || Math.abs(h - z) < 1e-6) continue; // grazing start: either answer is fair
+        compared++;
+        expect(k >= 0).toBe(tri >= 0);
+        if (tri === NO_HIT) continue;
+        hits++;
+        expect(Math.abs(tPyr - tMesh)).toBeLessThan(1e-9);
+        const o = tri * TRI_STRIDE;
+        for (let j = 0; j < 3; j++) expect(Math.abs(tile.pyramidNormals[3 * k + j] - tile.tri[o + j])).toBeLessThan(1e-12);
+      }
+      expect(compared).toBeGreaterThan(9500);
+      expect(hits).toBeGreaterThan(2500);
+    });
+  }
+});
+
+/** Height of regular pyramids of base a (apex at the centre of each a × a square). */
+function surfaceHeight(sign: number, tanA: number, a: number, x: number, y: number): number {
+  const u = x - a * Math.floor(x / a) - a / 2;
+  const v = y - a * Math.floor(y / a) - a / 2;
+  const H = (tanA * a) / 2;
+  return sign * (H - tanA * Math.max(Math.abs(u), Math.abs(v)));
+}
