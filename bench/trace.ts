@@ -23,6 +23,8 @@ export const BENCH_STACK: StackSpec = {
 export const BENCH_WAVELENGTHS_NM = [1000, 600, 1150];
 export const BENCH_RAYS = 100_000;
 export const BENCH_SEED = 20240601;
+/** Timed repetitions per wavelength (the fastest counts). */
+export const BENCH_REPEATS = 5;
 
 export interface TraceBenchRow {
   wavelengthNm: number;
@@ -48,15 +50,22 @@ export function traceBenchRows(estimator: Estimator = "expected", nRays = BENCH_
     const cs = compileStack(BENCH_STACK, registry, wavelengthNm, { estimator });
     // Warm-up so the timed run measures optimised code.
     traceBatch(cs, 0, 0, 20000, new RandomStream(streamKey(BENCH_SEED, "warmup", wavelengthNm)), createTally(cs));
-    const tally = createTally(cs);
-    const rng = new RandomStream(streamKey(BENCH_SEED, "bench", wavelengthNm));
-    const t0 = process.hrtime.bigint();
-    const c0 = process.cpuUsage();
-    traceBatch(cs, 0, 0, nRays, rng, tally);
-    const cpu = process.cpuUsage(c0);
-    const wallSeconds = Number(process.hrtime.bigint() - t0) * 1e-9;
-    // CPU time of this (single-threaded) process: the figure for one core even on a busy machine.
-    const seconds = (cpu.user + cpu.system) * 1e-6;
+    // The same seeded run BENCH_REPEATS times (identical tallies); the fastest is reported, which
+    // on a shared machine is the closest to the speed of an unloaded core.
+    let tally = createTally(cs);
+    let seconds = Infinity;
+    let wallSeconds = Infinity;
+    for (let rep = 0; rep < BENCH_REPEATS; rep++) {
+      tally = createTally(cs);
+      const rng = new RandomStream(streamKey(BENCH_SEED, "bench", wavelengthNm));
+      const t0 = process.hrtime.bigint();
+      const c0 = process.cpuUsage();
+      traceBatch(cs, 0, 0, nRays, rng, tally);
+      const cpu = process.cpuUsage(c0);
+      wallSeconds = Math.min(wallSeconds, Number(process.hrtime.bigint() - t0) * 1e-9);
+      // CPU time of this (single-threaded) process: the figure for one core even on a busy machine.
+      seconds = Math.min(seconds, (cpu.user + cpu.system) * 1e-6);
+    }
     const s = summarizeTally(cs.channels, tally);
     const at = (name: string): number => s.mean[cs.channels.indexOf(name)];
     rows.push({
@@ -82,7 +91,7 @@ export async function runTraceBench(): Promise<void> {
   const rows = traceBenchRows();
   process.stdout.write(
     "trace: upright 54.74° pyramids 10 µm, 180 µm Si (Green 2008), ideal rear mirror 0.95, normal incidence, " +
-      `${BENCH_RAYS} rays, one thread, ${rows[0].estimator}-value estimator (per CPU second of this process)\n`,
+      `${BENCH_RAYS} rays, one thread, ${rows[0].estimator}-value estimator (per CPU second of this process, fastest of ${BENCH_REPEATS})\n`,
   );
   process.stdout.write("  λ (nm)   rays/s    events/ray  facet events/s      R        A_Si     A_rear     T      wall s\n");
   for (const r of rows) {
