@@ -67,7 +67,7 @@ export interface HeightMapTexture {
   grid?: HeightGrid;
 }
 
-/** Ideal Lambertian randomiser (reference case; front only, no films): see docs/drafts/trace-DEVELOPERS.md. */
+/** Ideal Lambertian randomiser (reference case; front only, no films): see README "Physics and assumptions". */
 export interface LambertianTexture {
   type: "lambertian";
 }

@@ -2,7 +2,7 @@ import type { InterfaceTable } from "../optics/types.js";
 import type { SurfaceTile } from "../geometry/surfaceTile.js";
 import type { StackSpec } from "../study/stackTypes.js";
 
-/** How bulk absorption is sampled (docs/drafts/trace-DEVELOPERS.md, "Estimator"). */
+/** How bulk absorption is sampled (README "Physics and assumptions"; DEVELOPERS.md "Geometry and tracer"). */
 export type Estimator = "analog" | "expected";
 
 export const REAR_INTERFACE = 0;
