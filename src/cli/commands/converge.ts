@@ -109,6 +109,11 @@ Carlo errors fall as N^-1/2: the fitted log-log slopes should be near -0.5.`,
       // Everything is computed; now the files (each written atomically).
       if (flags.csv !== undefined) writeFileAtomic(flags.csv, convergenceCsv(report));
       if (flags.out !== undefined) writeFileAtomic(join(flags.out, CONVERGENCE_FILE), JSON.stringify(report, null, 2) + "\n");
-      process.stdout.write(flags.json ? JSON.stringify(report, null, 2) + "\n" : formatConvergenceTable(report));
+      if (flags.json) process.stdout.write(JSON.stringify(report, null, 2) + "\n");
+      else {
+        process.stdout.write(formatConvergenceTable(report));
+        if (flags.csv !== undefined) process.stdout.write(`wrote ${flags.csv}\n`);
+        if (flags.out !== undefined) process.stdout.write(`wrote ${join(flags.out, CONVERGENCE_FILE)}\n`);
+      }
     });
 }
