@@ -1,45 +1,31 @@
-import { makeReport } from "../../report/makeReport.js";
-import { join } from "node:path";
 import type { Command } from "commander";
+import { addResultOptions, addYearPlaneOptions, writeResult, yearPlaneOf, type ResultFlags, type YearPlaneFlags } from "../yearPlaneOptions.js";
 import { readResponseMatrix } from "../../response/matrixFile.js";
 import { readSiteFile } from "../../site/siteFile.js";
-import { writeFileAtomic } from "../../util/atomicWrite.js";
 import { InputError } from "../../util/errors.js";
 import { toolVersion } from "../../util/version.js";
-import { parseAngleList } from "../../yield/angleList.js";
 import { textureBenefit } from "../../yield/compare.js";
 import { yearContext } from "../../yield/yearContext.js";
 import { compareJson, formatCompareTable, matrixInfo, siteInfo, weatherInfo, type CompareRow } from "../../yield/yieldJson.js";
-import { planeList, prepareMatrix, yieldSweep } from "../../yield/yieldRun.js";
-import { intOption, loadWeather } from "./weather.js";
-import { skyModelOption, textureRotationOption } from "./yield.js";
+import { prepareMatrix, yieldSweep } from "../../yield/yieldRun.js";
+import { loadWeather } from "./weather.js";
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
 
-interface CompareOpts {
-  matrix: string[]; site: string[]; weather?: string[]; year: string; seed: string; tilt: string; azimuth: string;
-  textureRotation: string; sky: string; channel: string; json?: boolean; out?: string; runDir?: string; report?: boolean;
+interface CompareOpts extends YearPlaneFlags, ResultFlags {
+  matrix: string[]; site: string[]; weather?: string[];
 }
 
 /** `lightfold compare --matrix a.json --matrix b.json --site s1 [--site s2] --tilt 20,35` */
 export function register(program: Command): void {
-  program
+  const cmd = program
     .command("compare")
     .description("texture benefit: yearly absorbed charge of matrix A relative to matrix B, per site and tilt, with Monte Carlo error")
     .requiredOption("--matrix <matrix.json>", "give twice: A (candidate) then B (reference)", collect)
     .requiredOption("--site <site.json>", "site file; repeat for several sites", collect)
-    .option("--weather <file.csv|synthetic>", "weather per site, in the order of --site (default: synthetic for all)", collect)
-    .option("--year <year>", "year of synthetic weather", "2027")
-    .option("--seed <n>", "seed of synthetic weather", "7")
-    .option("--tilt <deg|list|from:to:step>", "tilt(s)", "20,35")
-    .option("--azimuth <deg|list>", "facing direction(s) from north, clockwise (180 = south)", "180")
-    .option("--texture-rotation <deg>", "texture rotation on the module (both matrices)", "0")
-    .option("--sky <model>", "diffuse sky model: isotropic, hay-davies, perez", "perez")
-    .option("--channel <name>", "response channel that counts as current", "A_absorber")
-    .option("--out <file.json>", "write the comparison JSON to this file")
-    .option("--no-report", "with --run-dir: do not refresh <dir>/report/index.html")
-    .option("--run-dir <dir>", "write the comparison JSON to <dir>/yield/compare.json")
-    .option("--json", "print the comparison JSON instead of the table")
+    .option("--weather <file.csv|synthetic>", "weather per site, in the order of --site (default: synthetic for all)", collect);
+  addYearPlaneOptions(cmd, { tilt: "20,35" });
+  addResultOptions(cmd, "compare.json", "comparison")
     .addHelpText(
       "after",
       `
@@ -63,16 +49,10 @@ matrices' stderr (independent runs). Both use the same weather, sky model and pl
           "give --weather once per --site in the same order (synthetic for a generated year), or leave it out for synthetic everywhere",
         );
       }
-      const sky = skyModelOption(opts.sky);
-      const planes = planeList(
-        parseAngleList(opts.tilt, "--tilt", 0, 180, "0 = facing up, 90 = vertical"),
-        parseAngleList(opts.azimuth, "--azimuth", 0, 360, "degrees from north, clockwise"),
-        textureRotationOption(opts.textureRotation),
-      );
+      const { year, seed, planes, sky } = yearPlaneOf(opts);
       const sites = opts.site.map((s) => readSiteFile(s));
       const matrices = opts.matrix.map((f) => readResponseMatrix(f));
       const prepared = matrices.map((m, i) => prepareMatrix(m, opts.matrix[i]!, opts.channel));
-      const year = intOption(opts.year, "--year", 2027), seed = intOption(opts.seed, "--seed", 7);
       const rows: CompareRow[] = [];
       const weatherInfos: Record<string, unknown>[] = [];
       sites.forEach((site, i) => {
@@ -91,14 +71,12 @@ matrices' stderr (independent runs). Both use the same weather, sky model and pl
         rows,
       });
       const text = JSON.stringify(doc, null, 2) + "\n";
-      if (opts.out) writeFileAtomic(opts.out, text);
-      if (opts.runDir) writeFileAtomic(join(opts.runDir, "yield", "compare.json"), text);
-      const report = opts.runDir && opts.report !== false ? makeReport([opts.runDir]) : undefined;
+      const report = writeResult(opts, "compare.json", text);
       if (opts.json) process.stdout.write(text);
       else {
         const label = (i: number): string => `${matrices[i]!.studyName} (${opts.matrix[i]!})`;
         process.stdout.write(formatCompareTable(label(0), label(1), rows));
-        if (report) process.stdout.write(`report: ${report.indexPath}\n`);
+        if (report) process.stdout.write(`report: ${report}\n`);
       }
     });
 }
