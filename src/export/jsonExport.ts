@@ -1,5 +1,5 @@
 import { matrixIndex, pointIndex, type ResponseMatrix } from "../response/responseMatrix.js";
-import { matrixProvenance, type MatrixProvenance } from "./provenance.js";
+import { matrixProvenance, type MatrixProvenance } from "../response/provenance.js";
 
 /** Format tag of the nested-array JSON export (distinct from the flat `*.matrix.json` file). */
 export const JSON_EXPORT_FORMAT = "lightfold.response.export";

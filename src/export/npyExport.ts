@@ -1,7 +1,7 @@
 import type { ResponseMatrix } from "../response/responseMatrix.js";
 import { EXPORT_DIMS } from "./jsonExport.js";
 import { encodeNpyFloat64 } from "./npy.js";
-import { matrixProvenance, type MatrixProvenance } from "./provenance.js";
+import { matrixProvenance, type MatrixProvenance } from "../response/provenance.js";
 
 export const NPY_SIDECAR_FORMAT = "lightfold.response.npy";
 export const NPY_SIDECAR_VERSION = 1;

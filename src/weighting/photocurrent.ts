@@ -1,3 +1,4 @@
+import { matrixProvenance, type MatrixProvenance } from "../response/provenance.js";
 import { CH_ABSORBER, matrixIndex, type ResponseMatrix } from "../response/responseMatrix.js";
 import { ratioIndependent, stridedWeightedSum, type ValueWithError } from "./weightedSum.js";
 
@@ -24,14 +25,10 @@ export interface DirectionPhotocurrent {
   iamStderr: number | null;
 }
 
-export interface PhotocurrentSummary {
+/** Photocurrent file: the matrix's provenance, then the weighting under one spectrum. */
+export interface PhotocurrentSummary extends MatrixProvenance {
   format: typeof PHOTOCURRENT_FORMAT;
   formatVersion: number;
-  toolVersion: string;
-  studyName: string;
-  studyHash: string;
-  seed: number;
-  combo: Record<string, number>;
   spectrum: string;
   wavelengthMinNm: number;
   wavelengthMaxNm: number;
@@ -39,9 +36,6 @@ export interface PhotocurrentSummary {
   totalAvailableMaCm2: number;
   absorberChannel: string;
   lossChannels: string[];
-  phiMode: ResponseMatrix["phiMode"];
-  /** True when the matrix came from an incomplete set of shards (missing points count as zero). */
-  partial: boolean;
   /** Incidence angle the IAM divides by (0° when the grid has it, else the smallest angle). */
   iamReferenceThetaDeg: number;
   /** One entry per (theta, phi), theta outermost. */
@@ -102,19 +96,14 @@ export function photocurrentSummary(m: ResponseMatrix, w: ArrayLike<number>, lab
   return {
     format: PHOTOCURRENT_FORMAT,
     formatVersion: PHOTOCURRENT_FORMAT_VERSION,
+    ...matrixProvenance(m),
     toolVersion: labels.toolVersion ?? m.toolVersion,
-    studyName: m.studyName,
-    studyHash: m.studyHash,
-    seed: m.seed,
-    combo: m.combo,
     spectrum: labels.spectrumName,
     wavelengthMinNm: Math.min(...m.wavelengthNm),
     wavelengthMaxNm: Math.max(...m.wavelengthNm),
     totalAvailableMaCm2: total,
     absorberChannel: CH_ABSORBER,
     lossChannels: m.channels.filter((_, ic) => ic !== ia),
-    phiMode: m.phiMode,
-    partial: m.partial === true,
     iamReferenceThetaDeg: m.thetaDeg[itRef],
     directions,
   };

@@ -1,6 +1,6 @@
-import type { ResponseMatrix } from "../response/responseMatrix.js";
+import type { ResponseMatrix } from "./responseMatrix.js";
 
-/** Where an exported matrix came from: the fields every export copies from its response matrix. */
+/** Where a matrix came from: the fields every file derived from it (exports, photocurrent summary) copies. */
 export interface MatrixProvenance {
   toolVersion: string;
   studyName: string;
@@ -8,6 +8,7 @@ export interface MatrixProvenance {
   seed: number;
   combo: Record<string, number>;
   phiMode: ResponseMatrix["phiMode"];
+  /** True when the matrix came from an incomplete set of shards (missing points count as zero). */
   partial: boolean;
 }
 
