@@ -18,6 +18,16 @@ export interface Figure {
   svg: string;
 }
 
+/** A figure whose plot carries the same id and title as the figure itself. */
+function figure<O extends { id: string; title: string }>(id: string, title: string, plot: (o: O) => string, rest: Omit<O, "id" | "title">): Figure {
+  return { id, title, svg: plot({ id, title, ...rest } as O) };
+}
+
+/** How the azimuths of a matrix were combined, for plot subtitles. */
+function phiNote(m: StackEntry["matrix"]): string {
+  return m.phiMode === "averaged" ? "azimuth-averaged" : `mean over φ = ${m.phiDeg.join(", ")}°`;
+}
+
 /** Lower-case ASCII slug for file names (user text never reaches a path unfiltered). */
 export function slug(text: string): string {
   const s = text.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 40);
@@ -47,21 +57,14 @@ export function spectralFigure(stack: StackEntry, index: number, angleDeg: numbe
   for (const o of order) if (o.group === "frontReflection") add(o.ic, CHANNEL_COLOURS.frontReflection);
   const id = `spectral-${stackId(stack, index)}`;
   const title = `Where the light goes at θ = ${angleDeg}°`;
-  const phiNote = m.phiMode === "averaged" ? "azimuth-averaged" : `mean over φ = ${m.phiDeg.join(", ")}°`;
-  return {
-    id,
-    title,
-    svg: stackedArea({
-      id,
-      title,
-      subtitle: `${stack.label} · ${phiNote}`,
-      width: 660,
-      x: { label: "wavelength (nm)" },
-      y: { label: "fraction of incident power", domain: [0, 1] },
-      xValues: m.wavelengthNm,
-      layers,
-    }),
-  };
+  return figure(id, title, stackedArea, {
+    subtitle: `${stack.label} · ${phiNote(m)}`,
+    width: 660,
+    x: { label: "wavelength (nm)" },
+    y: { label: "fraction of incident power", domain: [0, 1] },
+    xValues: m.wavelengthNm,
+    layers,
+  });
 }
 
 /** θ × λ map of absorber absorptance. */
@@ -69,25 +72,19 @@ export function responseMapFigure(stack: StackEntry, index: number): Figure {
   const m = stack.matrix;
   const id = `response-map-${stackId(stack, index)}`;
   const title = "Absorber absorptance over angle and wavelength";
-  return {
-    id,
-    title,
-    svg: heatMap({
-      id,
-      title,
-      subtitle: `${stack.label} · ${m.phiMode === "averaged" ? "azimuth-averaged" : `mean over φ = ${m.phiDeg.join(", ")}°`}`,
-      width: 560,
-      height: 380,
-      x: { label: "wavelength (nm)" },
-      y: { label: "incidence angle θ (°)" },
-      xValues: m.wavelengthNm,
-      yValues: m.thetaDeg,
-      z: channelMap(m, CH_ABSORBER),
-      zLabel: "absorber absorptance",
-      zDomain: [0, 1],
-      yLimits: [0, 90],
-    }),
-  };
+  return figure(id, title, heatMap, {
+    subtitle: `${stack.label} · ${phiNote(m)}`,
+    width: 560,
+    height: 380,
+    x: { label: "wavelength (nm)" },
+    y: { label: "incidence angle θ (°)" },
+    xValues: m.wavelengthNm,
+    yValues: m.thetaDeg,
+    z: channelMap(m, CH_ABSORBER),
+    zLabel: "absorber absorptance",
+    zDomain: [0, 1],
+    yLimits: [0, 90],
+  });
 }
 
 /** Angular modifier J(θ)/J(0) of every stack that has a photocurrent summary; null when none has. */
@@ -101,20 +98,14 @@ export function iamFigure(stacks: StackEntry[]): Figure | null {
   if (series.length === 0) return null;
   const id = "angular-modifier";
   const title = "Angular modifier of the absorber photocurrent";
-  return {
-    id,
-    title,
-    svg: linePlot({
-      id,
-      title,
-      subtitle: "J(θ) / J(0); whiskers ±1 standard error",
-      width: 560,
-      height: 380,
-      x: { label: "incidence angle θ (°)", domain: [0, 90], ticks: [0, 15, 30, 45, 60, 75, 90] },
-      y: { label: "J(θ) / J(0)", domain: [0, 1.05], ticks: [0, 0.2, 0.4, 0.6, 0.8, 1] },
-      series,
-    }),
-  };
+  return figure(id, title, linePlot, {
+    subtitle: "J(θ) / J(0); whiskers ±1 standard error",
+    width: 560,
+    height: 380,
+    x: { label: "incidence angle θ (°)", domain: [0, 90], ticks: [0, 15, 30, 45, 60, 75, 90] },
+    y: { label: "J(θ) / J(0)", domain: [0, 1.05], ticks: [0, 0.2, 0.4, 0.6, 0.8, 1] },
+    series,
+  });
 }
 
 /** Standard error (and deviation from a reference, when present) vs rays, log–log, with 1/√N. */
@@ -151,18 +142,12 @@ export function convergenceFigure(all: ConvergenceSeries[]): Figure | null {
   const id = "convergence";
   const title = "Monte Carlo convergence";
   const unit = sameUnit ? usable[0]!.unit : "relative";
-  return {
-    id,
-    title,
-    svg: linePlot({
-      id,
-      title,
-      subtitle: usable.length === 1 ? `${usable[0]!.quantity} — ${usable[0]!.label}` : usable.map((c) => c.quantity).filter((q, i, a) => a.indexOf(q) === i).join("; "),
-      x: { label: "rays per point N", kind: "log" },
-      y: { label: sameUnit ? `error (${unit})` : "relative error", kind: "log" },
-      series,
-    }),
-  };
+  return figure(id, title, linePlot, {
+    subtitle: usable.length === 1 ? `${usable[0]!.quantity} — ${usable[0]!.label}` : usable.map((c) => c.quantity).filter((q, i, a) => a.indexOf(q) === i).join("; "),
+    x: { label: "rays per point N", kind: "log" },
+    y: { label: sameUnit ? `error (${unit})` : "relative error", kind: "log" },
+    series,
+  });
 }
 
 /** Charge unit for plots: kA·h/m² when values run into the tens of thousands (keeps tick labels short). */
@@ -191,20 +176,14 @@ export function monthlyFigure(yields: YieldEntry[]): Figure | null {
   const title = "Monthly absorbed photon charge";
   const sites = [...new Set(shown.map((y) => y.siteName))];
   const u = chargeUnit(Math.max(...shown.flatMap((y) => y.monthlyAhM2)));
-  return {
-    id,
-    title,
-    svg: barChart({
-      id,
-      title,
-      subtitle: `site: ${sites.join(", ")}`,
-      xLabel: "month",
-      y: { label: `charge per area (${u.unit})` },
-      categories: MONTHS,
-      groups: shown.map((y) => ({ label: yieldLabel(y, shown, true), values: y.monthlyAhM2.map((v) => v * u.factor) })),
-      width: 820,
-    }),
-  };
+  return figure(id, title, barChart, {
+    subtitle: `site: ${sites.join(", ")}`,
+    xLabel: "month",
+    y: { label: `charge per area (${u.unit})` },
+    categories: MONTHS,
+    groups: shown.map((y) => ({ label: yieldLabel(y, shown, true), values: y.monthlyAhM2.map((v) => v * u.factor) })),
+    width: 820,
+  });
 }
 
 /** Yearly charge vs tilt, best tilt marked on each curve. */
@@ -223,20 +202,14 @@ export function tiltFigure(sweeps: TiltSweep[]): Figure | null {
   const marks: PointMark[] = shown.map((s, i) => ({ x: s.bestTiltDeg, y: s.bestAnnualAhM2 * u.factor, label: `best ${s.bestTiltDeg}°`, colour: seriesColour(i) }));
   const id = "tilt-sweep";
   const title = "Yearly absorbed charge vs module tilt";
-  return {
-    id,
-    title,
-    svg: linePlot({
-      id,
-      title,
-      subtitle: `azimuth ${[...new Set(shown.map((s) => s.azimuthDeg))].join(", ")}° (180° = facing south); site: ${[...sites].join(", ")}`,
-      width: 660,
-      x: { label: "tilt (°)", tight: true, padding: 0.03 },
-      y: { label: `yearly charge per area (${u.unit})`, headroom: 0.08 },
-      series,
-      marks,
-    }),
-  };
+  return figure(id, title, linePlot, {
+    subtitle: `azimuth ${[...new Set(shown.map((s) => s.azimuthDeg))].join(", ")}° (180° = facing south); site: ${[...sites].join(", ")}`,
+    width: 660,
+    x: { label: "tilt (°)", tight: true, padding: 0.03 },
+    y: { label: `yearly charge per area (${u.unit})`, headroom: 0.08 },
+    series,
+    marks,
+  });
 }
 
 /**
@@ -281,17 +254,11 @@ export function parameterSweepFigure(stacks: StackEntry[], angleDeg: number): Fi
   const b = best as { x: number; y: number; i: number } | null;
   const id = "parameter-sweep";
   const title = `Absorber photocurrent vs ${xKey}`;
-  return {
-    id,
-    title,
-    svg: linePlot({
-      id,
-      title,
-      subtitle: `${studyName} · θ = ${angleDeg}° · whiskers ±1 standard error`,
-      x: { label: xKey, tight: true, padding: 0.04 },
-      y: { label: "absorber photocurrent (mA/cm²)", headroom: 0.1 },
-      series,
-      marks: b ? [{ x: b.x, y: b.y, label: `best ${b.x}`, colour: seriesColour(b.i) }] : [],
-    }),
-  };
+  return figure(id, title, linePlot, {
+    subtitle: `${studyName} · θ = ${angleDeg}° · whiskers ±1 standard error`,
+    x: { label: xKey, tight: true, padding: 0.04 },
+    y: { label: "absorber photocurrent (mA/cm²)", headroom: 0.1 },
+    series,
+    marks: b ? [{ x: b.x, y: b.y, label: `best ${b.x}`, colour: seriesColour(b.i) }] : [],
+  });
 }
