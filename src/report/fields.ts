@@ -1,15 +1,11 @@
 /** Checked field access for the JSON files the report reads; errors name the file and field path. */
 import { InputError } from "../util/errors.js";
+import { parseJsonInput } from "../util/inputFile.js";
 
 export type Json = Record<string, unknown>;
 
 export function parseJson(text: string, source: string): Json {
-  let v: unknown;
-  try {
-    v = JSON.parse(text);
-  } catch (err) {
-    throw new InputError(`${source}: not valid JSON (${(err as Error).message})`);
-  }
+  const v = parseJsonInput(text, source);
   if (v === null || typeof v !== "object" || Array.isArray(v)) throw new InputError(`${source}: expected a JSON object at the top level`);
   return v as Json;
 }

@@ -1,8 +1,9 @@
 /** Reads run directories into the report's typed input (the only file reading of the report). */
-import { existsSync, readdirSync, readFileSync, statSync } from "node:fs";
+import { existsSync, readdirSync, statSync } from "node:fs";
 import { basename, join } from "node:path";
 import { readResponseMatrix } from "../response/matrixFile.js";
 import { InputError } from "../util/errors.js";
+import { readInputText } from "../util/inputFile.js";
 import { toolVersion } from "../util/version.js";
 import { adaptConvergence } from "./adaptConvergence.js";
 import { adaptPhotocurrent } from "./adaptPhotocurrent.js";
@@ -12,12 +13,11 @@ import type { ReportInput, StackEntry } from "./inputs.js";
 import { thetaIndex } from "./spectralBreakdown.js";
 
 function readJsonFile(path: string): Json {
-  let text: string;
-  try {
-    text = readFileSync(path, "utf8");
-  } catch {
-    throw new InputError(`cannot read ${path}`, "give the --out folder of a `lightfold sweep` run (it holds run.json); an interrupted sweep finishes when rerun with the same --out");
-  }
+  const text = readInputText(
+    path,
+    "run file",
+    "give the --out folder of a `lightfold sweep` run (it holds run.json); an interrupted sweep finishes when rerun with the same --out",
+  );
   return parseJson(text, path);
 }
 

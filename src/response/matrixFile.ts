@@ -1,4 +1,4 @@
-import { readFileSync } from "node:fs";
+import { parseJsonInput, readInputText } from "../util/inputFile.js";
 import { writeFileAtomic } from "../util/atomicWrite.js";
 import { InputError } from "../util/errors.js";
 import { RESPONSE_FORMAT, RESPONSE_FORMAT_VERSION, type ResponseMatrix } from "./responseMatrix.js";
@@ -14,12 +14,7 @@ export function matrixToJson(m: ResponseMatrix): string {
 
 /** Parses and checks a matrix file's text; `source` names the file in errors. */
 export function matrixFromJson(text: string, source: string): ResponseMatrix {
-  let raw: Record<string, unknown>;
-  try {
-    raw = JSON.parse(text) as Record<string, unknown>;
-  } catch (err) {
-    throw new InputError(`${source}: not valid JSON (${(err as Error).message})`);
-  }
+  const raw = parseJsonInput(text, source) as Record<string, unknown>;
   if (raw.format !== RESPONSE_FORMAT) {
     throw new InputError(`${source}: not a lightfold response matrix (format is ${JSON.stringify(raw.format)}, expected "${RESPONSE_FORMAT}")`);
   }
@@ -45,15 +40,11 @@ export function matrixFromJson(text: string, source: string): ResponseMatrix {
 }
 
 export function readResponseMatrix(path: string): ResponseMatrix {
-  let text: string;
-  try {
-    text = readFileSync(path, "utf8");
-  } catch {
-    throw new InputError(
-      `cannot read response matrix file ${path}`,
-      "give a matrix.json written by `lightfold sweep` (in <out>/<combination>/matrix.json, e.g. runs/my-study/base/matrix.json)",
-    );
-  }
+  const text = readInputText(
+    path,
+    "response matrix file",
+    "give a matrix.json written by `lightfold sweep` (in <out>/<combination>/matrix.json, e.g. runs/my-study/base/matrix.json)",
+  );
   return matrixFromJson(text, path);
 }
 

@@ -1,6 +1,7 @@
 import { readFileSync } from "node:fs";
 import { dirname, resolve } from "node:path";
 import { InputError } from "../util/errors.js";
+import { parseJsonInput, readInputText } from "../util/inputFile.js";
 import type { MaterialRegistry } from "../materials/registry.js";
 import { canonicalJson, studyHash } from "./canonical.js";
 import { resolveStudyDocument } from "./resolveStudy.js";
@@ -27,21 +28,8 @@ export interface LoadedStudy {
 /** Reads, validates and resolves a study file (JSON). Throws InputError naming the field path. */
 export function loadStudy(path: string): LoadedStudy {
   const abs = resolve(path);
-  let text: string;
-  try {
-    text = readFileSync(abs, "utf8");
-  } catch (err) {
-    throw new InputError(
-      `cannot read study file ${path}: ${(err as NodeJS.ErrnoException).code ?? (err as Error).message}`,
-      "check the path (relative to the current folder); example studies: configs/*.study.json",
-    );
-  }
-  let doc: unknown;
-  try {
-    doc = JSON.parse(text);
-  } catch (err) {
-    throw new InputError(`${path}: not valid JSON: ${jsonErrorWhere(text, err as Error)}`);
-  }
+  const text = readInputText(path, "study file", "check the path (relative to the current folder); example studies: configs/*.study.json");
+  const doc = parseJsonInput(text, path);
   try {
     return loadStudyFromDocument(doc, { baseDir: dirname(abs), path: abs });
   } catch (err) {
@@ -126,16 +114,6 @@ function referencedFiles(doc: unknown, baseDir: string): Record<string, string> 
 }
 
 /** "line L, column C (…message…)" for a JSON.parse error. */
-function jsonErrorWhere(text: string, err: Error): string {
-  const m = /position (\d+)/.exec(err.message);
-  if (m === null) return err.message;
-  const pos = Number(m[1]);
-  const before = text.slice(0, pos);
-  const line = before.split("\n").length;
-  const col = pos - before.lastIndexOf("\n");
-  return `line ${line}, column ${col} (${err.message})`;
-}
-
 /** Canonical text of a combination's study (what its hash covers, without file contents). */
 export function canonicalStudyText(study: Study): string {
   return canonicalJson(study);
