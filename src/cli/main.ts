@@ -16,16 +16,6 @@ Typical session:
 ${EXIT_CODES}
 Output is plain text without colour (NO_COLOR is respected by construction); --json on summary commands.`;
 
-/** Text added after a command's help by addHelpText (commander keeps it in its listeners). */
-function helpTextAfter(cmd: Command): string {
-  let text = "";
-  const probe = { write: (s: string) => { text += s; } };
-  cmd.configureOutput({ writeOut: probe.write, writeErr: probe.write });
-  cmd.outputHelp();
-  cmd.configureOutput({ writeOut: (s) => process.stdout.write(s), writeErr: (s) => process.stderr.write(s) });
-  return text;
-}
-
 /** Builds the commander program; every verb lives in its own file under commands/. */
 export function buildProgram(): Command {
   const program = new Command("lightfold")
@@ -36,11 +26,11 @@ export function buildProgram(): Command {
     .exitOverride();
   for (const mod of commandModules) mod.register(program);
   program.addHelpText("after", GLOBAL_HELP);
-  // Every verb documents the exit codes, unless its own help already does.
+  // Every verb documents the same exit codes.
   for (const cmd of program.commands) {
     cmd.exitOverride();
     cmd.configureOutput({ outputError: (text, write) => write(text.replace(/^error:/, "lightfold:")) });
-    if (!/Exit codes/.test(helpTextAfter(cmd))) cmd.addHelpText("after", `\n${EXIT_CODES}`);
+    cmd.addHelpText("after", `\n${EXIT_CODES}`);
   }
   return program;
 }

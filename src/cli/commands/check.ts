@@ -19,7 +19,8 @@ Examples:
   lightfold check configs/demo-random-pyramids.study.json
   lightfold check my.study.json --json
 
-Exit codes: 0 valid, 1 failure (an unexpected error), 2 invalid (the message names the field path and what was expected).`,
+A study is valid when every field checks out and the stack compiles at every wavelength (exit 0);
+an invalid one exits 2 with the field path and what was expected.`,
     )
     .action(async (studyPath: string, opts: { json?: boolean }) => {
       const study = loadStudy(studyPath);

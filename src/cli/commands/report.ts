@@ -30,8 +30,7 @@ Examples:
   lightfold report runs/demo/demo-random-pyramids --json | jq .indexPath
 
 Sections whose data are missing (no photocurrent.json, convergence.json or yield/*.json) are left
-out with a short note. Exit codes: 0 written, 1 failure, 2 bad input (missing folder, malformed file,
-angle not on the grid).`,
+out with a short note; a missing folder, a malformed file or an angle not on the grid is bad input.`,
     )
     .action((runDirs: string[], opts: { angle: string; out?: string; json?: boolean }) => {
       const result = makeReport(runDirs, { angleDeg: parseAngle(opts.angle), outDir: opts.out });

@@ -48,8 +48,7 @@ Examples:
 
 Channels: R (escape to the incidence side), T (into a transparent rear exit), A_absorber,
 A_layer:<name>, A_film:<where>:<i>:<material>, A_rear (rear metal or ideal reflector),
-unresolved (bounce limit). Each mean comes with its standard error from per-ray contributions.
-Exit codes: 0 done, 1 failure (a run that could not finish), 2 bad input (the message names the flag or field).`,
+unresolved (bounce limit). Each mean comes with its standard error from per-ray contributions.`,
     )
     .action((studyPath: string, opts: TraceOptions) => {
       const thetaDeg = numberOption("angle", opts.angle, (v) => v >= 0 && v < 90, "a polar angle in [0, 90) degrees");
