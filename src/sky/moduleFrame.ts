@@ -61,7 +61,7 @@ export function moduleAzimuthDeg(f: ModuleFrame, d: ArrayLike<number>): number {
 /**
  * Azimuth (degrees, 0..360) at which to read the response matrix for light arriving from direction
  * d (toward the source). The tracer launches a ray at (θ, φ) travelling along
- * (sinθ cosφ, sinθ sinφ, −cosθ) in the texture frame (src/trace/kernel.ts, launch), so the matrix φ
+ * (sinθ cosφ, sinθ sinφ, −cosθ) in the texture frame (src/trace/launch.ts), so the matrix φ
  * is the azimuth of the travel direction −d: the source's module azimuth + 180°. (Textures with
  * 180° rotational symmetry, e.g. pyramids and V-grooves, cannot tell the two apart; height maps can.)
  */

@@ -39,3 +39,21 @@ function meanAndStderr(sum: number, sumSq: number, n: number): [number, number] 
   const variance = Math.max(0, (sumSq - n * mean * mean) / (n - 1));
   return [mean, Math.sqrt(variance / n)];
 }
+
+/** Adds one ray's channel contributions (and their squares) to the tally and clears them for the next ray. */
+export function foldRayContributions(contrib: Float64Array, nChannels: number, tally: Float64Array): void {
+  for (let c = 0; c < nChannels; c++) {
+    const v = contrib[c];
+    tally[2 * c] += v;
+    tally[2 * c + 1] += v * v;
+    contrib[c] = 0;
+  }
+}
+
+/** Adds a batch's ray count, path sums and event count after the channel entries. */
+export function foldBatchTotals(tally: Float64Array, nChannels: number, nRays: number, pathSum: number, pathSumSq: number, events: number): void {
+  tally[2 * nChannels] += nRays;
+  tally[2 * nChannels + 1] += pathSum;
+  tally[2 * nChannels + 2] += pathSumSq;
+  tally[2 * nChannels + 3] += events;
+}

@@ -1,0 +1,84 @@
+import type { RandomStream } from "../random/stream.js";
+import { REAR_IDEAL_MIRROR, type CompiledStack } from "./compiledStack.js";
+import { rouletteCheck } from "./bulkTransport.js";
+import { ANALOG, DX, DY, DZ, EX, EY, EZ, TWO_PI, W } from "./rayState.js";
+
+/**
+ * Ideal rear reflector (planar, normal +z into the absorber): reflectance r, the rest → A_rear.
+ * Mirror: specular; Lambertian: cosine-weighted, depolarising. Returns true when the ray ended.
+ */
+export function idealRear(cs: CompiledStack, st: Float64Array, rng: RandomStream): boolean {
+  const r = cs.rearReflectance;
+  const u = rng.next();
+  if (st[ANALOG] !== 0) {
+    if (u >= r) {
+      cs.contrib[cs.chRear] += st[W];
+      return true;
+    }
+  } else {
+    const dep = st[W] * (1 - r);
+    cs.contrib[cs.chRear] += dep;
+    st[W] -= dep;
+    if (!(st[W] > 0)) return true;
+    rouletteCheck(cs, st, rng);
+  }
+  if (cs.rearKind === REAR_IDEAL_MIRROR) {
+    // Specular at a horizontal plane: z flips; the polarisation keeps its line (r_s = r_p).
+    st[DZ] = -st[DZ];
+    st[EZ] = -st[EZ];
+  } else {
+    lambertianDirection(st, 1, rng);
+    randomPolarization(st, rng);
+  }
+  return false;
+}
+
+/**
+ * Ideal randomiser front, ray arriving from the absorber: escapes with probability (n_out/n_in)²
+ * (the escape-cone fraction of isotropic light) into a Lambertian direction of the medium above,
+ * otherwise it is sent back into the absorber in a Lambertian direction. Returns true on escape.
+ */
+export function lambertianFrontFromBelow(cs: CompiledStack, st: Float64Array, rng: RandomStream): boolean {
+  const ratio = cs.mediumN[cs.nLayers] / cs.mediumN[cs.nLayers + 1];
+  const pEscape = ratio < 1 ? ratio * ratio : 1;
+  const escape = rng.next() < pEscape;
+  lambertianDirection(st, escape ? 1 : -1, rng);
+  randomPolarization(st, rng);
+  return escape;
+}
+
+/** Cosine-weighted direction about ±z (Lambertian): cosθ = √u. */
+export function lambertianDirection(st: Float64Array, zSign: number, rng: RandomStream): void {
+  const cosT = Math.sqrt(rng.next());
+  const sinT = Math.sqrt(1 - cosT * cosT);
+  const ph = TWO_PI * rng.next();
+  st[DX] = sinT * Math.cos(ph);
+  st[DY] = sinT * Math.sin(ph);
+  st[DZ] = zSign * cosT;
+}
+
+/** Uniformly random line of polarisation ⊥ d. */
+export function randomPolarization(st: Float64Array, rng: RandomStream): void {
+  const dx = st[DX], dy = st[DY], dz = st[DZ];
+  // e1 = normalise(a × d) with a the axis least aligned with d; e2 = d × e1.
+  let e1x: number, e1y: number, e1z: number;
+  if (Math.abs(dx) < 0.9) {
+    e1x = 0;
+    e1y = -dz;
+    e1z = dy;
+  } else {
+    e1x = dz;
+    e1y = 0;
+    e1z = -dx;
+  }
+  const l = Math.sqrt(e1x * e1x + e1y * e1y + e1z * e1z);
+  e1x /= l;
+  e1y /= l;
+  e1z /= l;
+  const e2x = dy * e1z - dz * e1y, e2y = dz * e1x - dx * e1z, e2z = dx * e1y - dy * e1x;
+  const psi = TWO_PI * rng.next();
+  const c = Math.cos(psi), s = Math.sin(psi);
+  st[EX] = c * e1x + s * e2x;
+  st[EY] = c * e1y + s * e2y;
+  st[EZ] = c * e1z + s * e2z;
+}

@@ -1,0 +1,160 @@
+import type { RandomStream } from "../random/stream.js";
+import { lookupInterface } from "../optics/interfaceTable.js";
+import type { CompiledInterface, CompiledStack } from "./compiledStack.js";
+import { rouletteCheck } from "./bulkTransport.js";
+import { ANALOG, DIED, DX, DY, DZ, EX, EY, EZ, NX, NY, NZ, PA, PB, REFLECT, SX, SY, SZ, TRANSMIT, W } from "./rayState.js";
+
+/**
+ * Scattering at an interface with films, normal N (state NX..NZ) pointing into the upper medium.
+ * The ray's linear polarisation is split into s and p parts in the local plane of incidence; the
+ * outcome (reflect, transmit, absorb in film i) is drawn with the s/p-weighted power fractions from
+ * the interface table, and the polarisation after the event follows the amplitude ratios
+ * (√R, √T of each part; phase and ellipticity neglected).
+ */
+export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: CompiledInterface, rng: RandomStream): number {
+  const dx = st[DX], dy = st[DY], dz = st[DZ];
+  const nx = st[NX], ny = st[NY], nz = st[NZ];
+  const dn = dx * nx + dy * ny + dz * nz;
+  const up = dn > 0;
+  const cosI = up ? dn : -dn;
+  const row = cs.scratchRow;
+  lookupInterface(iface.table, up ? 1 : 0, cosI, row, 0);
+
+  // s = d × N (normalised), p_i = s × d.
+  let sx = dy * nz - dz * ny;
+  let sy = dz * nx - dx * nz;
+  let sz = dx * ny - dy * nx;
+  const sl = Math.sqrt(sx * sx + sy * sy + sz * sz);
+  const ex = st[EX], ey = st[EY], ez = st[EZ];
+  if (sl > 1e-12) {
+    sx /= sl;
+    sy /= sl;
+    sz /= sl;
+  } else {
+    // Normal incidence: any direction ⊥ d is "s"; take the polarisation itself.
+    sx = ex;
+    sy = ey;
+    sz = ez;
+  }
+  const Es = ex * sx + ey * sy + ez * sz;
+  const Ep = ex * (sy * dz - sz * dy) + ey * (sz * dx - sx * dz) + ez * (sx * dy - sy * dx);
+  const e2 = Es * Es + Ep * Ep;
+  const fs = e2 > 0 ? (Es * Es) / e2 : 1;
+  const fp = 1 - fs;
+  const Rs = row[0], Rp = row[1], Ts = row[2], Tp = row[3];
+  const Rpow = fs * Rs + fp * Rp;
+  const Tpow = fs * Ts + fp * Tp;
+  const nF = iface.nFilms;
+  const sink = up ? -1 : iface.lowerSinkChan;
+  const contrib = cs.contrib;
+  const u = rng.next();
+  let reflect: boolean;
+  if (st[ANALOG] !== 0) {
+    if (u < Rpow) {
+      reflect = true;
+    } else if (u < Rpow + Tpow) {
+      if (sink >= 0) {
+        contrib[sink] += st[W];
+        return DIED;
+      }
+      reflect = false;
+    } else {
+      // Absorbed in a film (or, by rounding, nowhere: then transmit/reflect).
+      let acc = Rpow + Tpow;
+      for (let i = 0; i < nF; i++) {
+        acc += fs * row[4 + i] + fp * row[4 + nF + i];
+        if (u < acc || i === nF - 1) {
+          contrib[iface.filmChan0 + i] += st[W];
+          return DIED;
+        }
+      }
+      if (Tpow > 0 && sink >= 0) {
+        contrib[sink] += st[W];
+        return DIED;
+      }
+      reflect = Tpow <= 0;
+    }
+  } else {
+    // Expected value: absorption in films (and in a sink below) is tallied as weight.
+    const w = st[W];
+    let dep = 0;
+    for (let i = 0; i < nF; i++) {
+      const d = w * (fs * row[4 + i] + fp * row[4 + nF + i]);
+      contrib[iface.filmChan0 + i] += d;
+      dep += d;
+    }
+    let pT = Tpow;
+    if (sink >= 0) {
+      const d = w * Tpow;
+      contrib[sink] += d;
+      dep += d;
+      pT = 0;
+    }
+    const wNew = w - dep;
+    if (!(wNew > 0) || Rpow + pT <= 0) {
+      if (wNew > 0) contrib[sink >= 0 ? sink : iface.filmChan0 >= 0 ? iface.filmChan0 : cs.chUnresolved] += wNew;
+      return DIED;
+    }
+    st[W] = wNew;
+    reflect = u * (Rpow + pT) < Rpow;
+    rouletteCheck(cs, st, rng);
+  }
+
+  if (reflect) {
+    const rdx = dx - 2 * dn * nx, rdy = dy - 2 * dn * ny, rdz = dz - 2 * dn * nz;
+    st[DX] = rdx;
+    st[DY] = rdy;
+    st[DZ] = rdz;
+    // E' = √Rs·Es·s − √Rp·Ep·p_r (keeps the line of polarisation at normal incidence).
+    st[SX] = sx;
+    st[SY] = sy;
+    st[SZ] = sz;
+    st[PA] = Es * Math.sqrt(Rs);
+    st[PB] = -Ep * Math.sqrt(Rp);
+    setPolarization(st);
+    return REFLECT;
+  }
+  // Snell (real indices): t = η d + (η cosθi − cosθt) n_i, n_i the normal facing the incoming ray.
+  const n1 = up ? iface.nLower : iface.nUpper;
+  const n2 = up ? iface.nUpper : iface.nLower;
+  const eta = n1 / n2;
+  const sin2T = eta * eta * (1 - cosI * cosI);
+  const cosTr = sin2T < 1 ? Math.sqrt(1 - sin2T) : 0;
+  const k = (eta * cosI - cosTr) * (up ? -1 : 1);
+  let tx = eta * dx + k * nx, ty = eta * dy + k * ny, tz = eta * dz + k * nz;
+  const tl = Math.sqrt(tx * tx + ty * ty + tz * tz);
+  tx /= tl;
+  ty /= tl;
+  tz /= tl;
+  st[DX] = tx;
+  st[DY] = ty;
+  st[DZ] = tz;
+  st[SX] = sx;
+  st[SY] = sy;
+  st[SZ] = sz;
+  st[PA] = Es * Math.sqrt(Ts);
+  st[PB] = Ep * Math.sqrt(Tp);
+  setPolarization(st);
+  return TRANSMIT;
+}
+
+/** E = a·s + b·(s × d) from the state slots (d = the new direction), normalised; s when both vanish. */
+function setPolarization(st: Float64Array): void {
+  const sx = st[SX], sy = st[SY], sz = st[SZ], dx = st[DX], dy = st[DY], dz = st[DZ], a = st[PA], b = st[PB];
+  let ex = a * sx + b * (sy * dz - sz * dy);
+  let ey = a * sy + b * (sz * dx - sx * dz);
+  let ez = a * sz + b * (sx * dy - sy * dx);
+  const l = Math.sqrt(ex * ex + ey * ey + ez * ez);
+  if (l > 1e-300) {
+    ex /= l;
+    ey /= l;
+    ez /= l;
+  } else {
+    ex = sx;
+    ey = sy;
+    ez = sz;
+  }
+  st[EX] = ex;
+  st[EY] = ey;
+  st[EZ] = ez;
+}

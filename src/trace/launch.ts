@@ -1,0 +1,60 @@
+import type { RandomStream } from "../random/stream.js";
+import type { CompiledStack } from "./compiledStack.js";
+import { ANALOG, DX, DY, DZ, EX, EY, EZ, L_COS_P, L_COS_T, L_SIN_P, L_SIN_T, PATH, TAU, TWO_PI, W, X, Y, Z } from "./rayState.js";
+
+/** Polarisation of the incident light: s/p relative to the macroscopic plane of incidence (z, d). */
+export type Polarization = "unpolarized" | "s" | "p";
+
+/** 0 = unpolarised (random line per ray), 1 = s, 2 = p. */
+export function polarizationMode(polarization: Polarization): number {
+  return polarization === "s" ? 1 : polarization === "p" ? 2 : 0;
+}
+
+/** Sets the batch's launch direction (θ; φ unless it is drawn per ray) in the state. */
+export function setLaunchAngles(st: Float64Array, sinT: number, cosT: number): void {
+  st[L_SIN_T] = sinT;
+  st[L_COS_T] = cosT;
+}
+
+/** Sets the launch azimuth (cos φ, sin φ) in the state. */
+export function setLaunchAzimuth(st: Float64Array, phiRad: number): void {
+  st[L_COS_P] = Math.cos(phiRad);
+  st[L_SIN_P] = Math.sin(phiRad);
+}
+
+/**
+ * Launches one ray: uniform over the front unit cell, above everything, travelling down along the
+ * batch direction (sinθ cosφ, sinθ sinφ, −cosθ), with its line of polarisation (s, p or a uniformly
+ * random line), weight 1 and, for the analog estimator, its optical-depth budget.
+ */
+export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream): void {
+  const st = cs.state;
+  const sinT = st[L_SIN_T], cosT = st[L_COS_T];
+  const cp = st[L_COS_P];
+  const sp = st[L_SIN_P];
+  const dx = sinT * cp, dy = sinT * sp, dz = -cosT;
+  st[DX] = dx;
+  st[DY] = dy;
+  st[DZ] = dz;
+  // s = (sinφ, −cosφ, 0) ⊥ plane of incidence; p = s × d.
+  const sx = sp, sy = -cp;
+  const px = sy * dz, py = -sx * dz, pz = sx * dy - sy * dx;
+  const psi = TWO_PI * rng.next();
+  const a = polMode === 1 ? 1 : polMode === 2 ? 0 : Math.cos(psi);
+  const b = polMode === 1 ? 0 : polMode === 2 ? 1 : Math.sin(psi);
+  st[EX] = a * sx + b * px;
+  st[EY] = a * sy + b * py;
+  st[EZ] = b * pz;
+  st[X] = rng.next() * cs.frontTile.lxUm;
+  st[Y] = rng.next() * cs.frontTile.lyUm;
+  // Without layers: start 1 µm above the texture (the incidence medium does not absorb).
+  st[Z] = cs.nLayers > 0 ? cs.layerTopZUm[1] : cs.frontTile.zMaxUm + 1;
+  st[W] = 1;
+  st[PATH] = 0;
+  // The optical-depth budget is drawn for every ray (same random stream in both estimators) but
+  // only the analog one reads it: expected-value rays draw a fresh one when they turn analog.
+  const uTau = rng.next();
+  const analog = cs.estimator === "analog";
+  st[TAU] = analog ? -Math.log(uTau) : 0;
+  st[ANALOG] = analog ? 1 : 0;
+}

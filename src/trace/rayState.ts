@@ -1,0 +1,42 @@
+/**
+ * The state of the one ray in flight, kept in a Float64Array (cs.state): nothing is allocated per
+ * ray or event, and doubles travel through these slots, never as arguments or return values of
+ * non-inlined functions, so the hot path boxes no numbers.
+ */
+
+// Position, direction, line of polarisation (unit vector ⊥ direction).
+export const X = 0, Y = 1, Z = 2, DX = 3, DY = 4, DZ = 5, EX = 6, EY = 7, EZ = 8;
+/** Weight; remaining optical-depth budget (analog); weighted path in the absorber; surface normal; analog flag; step length. */
+export const W = 9, TAU = 10, PATH = 11, NX = 12, NY = 13, NZ = 14, ANALOG = 15, T = 16;
+/** Polarisation update inputs: s vector and the two amplitudes (see setPolarization). */
+export const SX = 17, SY = 18, SZ = 19, PA = 20, PB = 21;
+/** Launch direction of the batch: sin θ, cos θ, cos φ, sin φ (φ per ray when the azimuth is random). */
+export const L_SIN_T = 22, L_COS_T = 23, L_COS_P = 24, L_SIN_P = 25;
+/** Interface events of the ray so far. */
+export const EVENTS = 26;
+/** Number of state slots. */
+export const STATE_LENGTH = 27;
+
+/** Search result: a hit, its distance in st[T] (NO_HIT and LOST come from the geometry). */
+export const HIT = 0;
+
+/** Interface outcomes. */
+export const REFLECT = 0;
+export const TRANSMIT = 1;
+export const DIED = 2;
+
+export const TWO_PI = 2 * Math.PI;
+
+/** Moves the ray by st[T]. */
+export function advance(st: Float64Array): void {
+  const t = st[T];
+  st[X] += t * st[DX];
+  st[Y] += t * st[DY];
+  st[Z] += t * st[DZ];
+}
+
+export function setNormal(st: Float64Array, nx: number, ny: number, nz: number): void {
+  st[NX] = nx;
+  st[NY] = ny;
+  st[NZ] = nz;
+}
