@@ -1,3 +1,4 @@
+import { readCsvRows } from "../util/csvRows.js";
 import { InputError } from "../util/errors.js";
 
 /** A numeric CSV table: header names (lower-cased, trimmed), one Float64Array per column, source lines. */
@@ -12,57 +13,50 @@ export interface NumericTable {
 // Strict decimal number: optional sign, digits with optional fraction, optional exponent.
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
-/** "Wavelength (nm)" / "wavelength [nm]" / "wavelength_nm" → "wavelength_nm"; "N" → "n". */
+/**
+ * "Wavelength (nm)" / "wavelength [nm]" / "Wavelength, nm" / "wavelength_nm" → "wavelength_nm";
+ * "N" → "n". (Cells arrive unquoted from the CSV reader.)
+ */
 export function normalizeHeaderCell(cell: string): string {
   return cell
     .trim()
-    .replace(/^"(.*)"$/, "$1")
     .toLowerCase()
     .replace(/\s*[([]\s*([^)\]]*?)\s*[)\]]\s*$/, "_$1")
+    .replace(/\s*,\s*/g, "_")
     .replace(/\s+/g, "_");
 }
 
 /**
- * Parses text holding '#' comment lines, blank lines, one header line and rows of numbers.
- * Fields are separated by commas, tabs or semicolons (chosen from the header line). Every error
- * names `label` (the file) and the line number.
+ * Parses text holding '#' comment lines, blank lines, one header line and rows of numbers
+ * (readCsvRows: quoted cells allowed; commas, tabs, semicolons or spaces, chosen from the header
+ * line). Every error names `label` (the file) and the line number.
  */
 export function parseNumericTable(text: string, label: string): NumericTable {
-  const rawLines = text.split(/\r?\n/);
-  let header: string[] | null = null;
-  let sep: RegExp = /,/;
-  const rows: number[][] = [];
-  const lineNos: number[] = [];
-  for (let li = 0; li < rawLines.length; li++) {
-    const line = rawLines[li]!.replace(/^\uFEFF/, "").trim();
-    const lineNo = li + 1;
-    if (line === "" || line.startsWith("#")) continue;
-    if (header === null) {
-      sep = line.includes(",") ? /,/ : line.includes("\t") ? /\t/ : line.includes(";") ? /;/ : /\s+/;
-      header = line.split(sep).map(normalizeHeaderCell);
-      if (header.some((h) => h === "")) throw new InputError(`${label}:${lineNo}: empty column name in header "${line}"`);
-      continue;
-    }
-    const fields = line.split(sep).map((f) => f.trim());
-    if (fields.length !== header.length) {
+  const rows = readCsvRows(text, label);
+  if (rows.length === 0) throw new InputError(`${label}: no header line found (expected e.g. "wavelength_nm,n,k")`);
+  const head = rows[0]!;
+  const header = head.cells.map(normalizeHeaderCell);
+  if (header.some((h) => h === "")) {
+    throw new InputError(`${label}:${head.line}: empty column name in header "${head.cells.join(",")}"`);
+  }
+  const nRows = rows.length - 1;
+  const columns = header.map(() => new Float64Array(nRows));
+  const lines = new Int32Array(nRows);
+  for (let r = 0; r < nRows; r++) {
+    const { cells, line } = rows[r + 1]!;
+    if (cells.length !== header.length) {
       throw new InputError(
-        `${label}:${lineNo}: row has ${fields.length} fields, the header (${header.join(",")}) has ${header.length}`,
+        `${label}:${line}: row has ${cells.length} fields, the header (${header.join(",")}) has ${header.length}`,
       );
     }
-    const row: number[] = [];
-    for (let c = 0; c < fields.length; c++) {
-      const f = fields[c]!;
-      if (!NUMBER.test(f)) {
-        throw new InputError(`${label}:${lineNo}: column "${header[c]}": "${f}" is not a number`);
-      }
-      row.push(Number(f));
+    for (let c = 0; c < cells.length; c++) {
+      const f = cells[c]!;
+      if (!NUMBER.test(f)) throw new InputError(`${label}:${line}: column "${header[c]}": "${f}" is not a number`);
+      columns[c]![r] = Number(f);
     }
-    rows.push(row);
-    lineNos.push(lineNo);
+    lines[r] = line;
   }
-  if (header === null) throw new InputError(`${label}: no header line found (expected e.g. "wavelength_nm,n,k")`);
-  const columns = header.map((_, c) => Float64Array.from(rows, (r) => r[c]!));
-  return { header, columns, lines: Int32Array.from(lineNos), label };
+  return { header, columns, lines, label };
 }
 
 /** Throws unless column `c` is strictly increasing (names the offending line). */

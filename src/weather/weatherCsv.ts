@@ -1,3 +1,4 @@
+import { readCsvRows } from "../util/csvRows.js";
 import { InputError } from "../util/errors.js";
 import { HOUR_MS, type WeatherYear } from "./weatherYear.js";
 
@@ -37,7 +38,7 @@ const DHI_SLACK_WM2 = 1;
 
 /** Parses and validates weather CSV text; `src` names the file. Errors list line numbers. */
 export function parseWeatherCsv(text: string, src: string): WeatherYear {
-  const lines = text.split(/\r?\n/);
+  const rows = readCsvRows(text, src, ",");
   const errors: string[] = [];
   const fail = (msg: string): void => {
     errors.push(msg);
@@ -46,18 +47,15 @@ export function parseWeatherCsv(text: string, src: string): WeatherYear {
   let hasAlbedo = false;
   const t: number[] = [], ghi: number[] = [], dni: number[] = [], dhi: number[] = [], alb: number[] = [];
   const lineOf: number[] = [];
-  for (let i = 0; i < lines.length && errors.length < MAX_LISTED; i++) {
-    const raw = lines[i]!.trim();
-    if (raw === "" || raw.startsWith("#")) continue;
-    const lineNo = i + 1;
-    const cells = raw.split(",").map((c) => c.trim());
+  for (let i = 0; i < rows.length && errors.length < MAX_LISTED; i++) {
+    const { cells, line: lineNo } = rows[i]!;
     if (headerLine < 0) {
       const expected = WEATHER_HEADER.join(",");
       const got = cells.join(",");
       if (got === expected) hasAlbedo = false;
       else if (got === `${expected},albedo`) hasAlbedo = true;
       else {
-        throw new InputError(`${src}: line ${lineNo}: header must be "${expected}" or "${expected},albedo", got "${raw}"`);
+        throw new InputError(`${src}: line ${lineNo}: header must be "${expected}" or "${expected},albedo", got "${cells.join(",")}"`);
       }
       headerLine = lineNo;
       continue;
