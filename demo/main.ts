@@ -21,6 +21,7 @@ import { runSweep } from "../src/sweep/runSweep.js";
 import { writeFileAtomic } from "../src/util/atomicWrite.js";
 import { packageRoot } from "../src/util/packageRoot.js";
 import { photocurrentForMatrix } from "../src/weighting/writePhotocurrent.js";
+import { writeRunPhotocurrent } from "../src/weighting/runSummaries.js";
 import type { PhotocurrentSummary } from "../src/weighting/index.js";
 import { runDemoYield } from "./yieldStage.js";
 
@@ -52,10 +53,12 @@ async function sweepStack(studyPath: string, workers: number): Promise<StackRun>
   } finally {
     reporter.stop();
   }
+  // the sweep wrote matrices and run.json; the weighting adds <combo>/photocurrent.json and iam.csv
+  if (result.runRecord !== undefined) writeRunPhotocurrent(dir, result.plan, result.matrices, result.runRecord, (m) => say(`note: ${m}`));
   const matrix = result.matrices[0]!;
   const study = loaded.combos[0]!.study;
   const spectrum = spectrumFromSpec(study.spectrum, loaded.baseDir);
-  // the sweep has written <combo>/photocurrent.json; the same numbers, for the summary table
+  // the same numbers as photocurrent.json, for the summary table
   const photocurrent = photocurrentForMatrix(matrix, spectrum);
   return { loaded, dir, matrix, photocurrent, wallS: result.wallS, rays: result.raysTraced };
 }

@@ -6,7 +6,7 @@ import { InputError } from "../util/errors.js";
 import { canonicalJson } from "../study/canonical.js";
 import { inShard, totalPoints, type SweepPlan } from "./plan.js";
 import { readShardPartial, type ShardPartial } from "./shardFile.js";
-import { writeRunOutputs } from "./runSweep.js";
+import { writeRunOutputs, type RunRecord } from "./runFiles.js";
 
 export interface MergeOptions {
   /** Run directories (with shards/…), shard directories or partial.json files. */
@@ -15,7 +15,6 @@ export interface MergeOptions {
   outDir?: string;
   /** Write matrices even when shards are missing, marked `partial: true`. */
   allowPartial?: boolean;
-  onNotice?: (message: string) => void;
 }
 
 export interface MergeResult {
@@ -29,6 +28,8 @@ export interface MergeResult {
   matrices: ResponseMatrix[];
   files: string[];
   raysTraced: number;
+  /** What was written to run.json (with an outDir), for callers that add to it. */
+  runRecord?: RunRecord;
 }
 
 const SHARD_DIR = /^shard-(\d+)-of-(\d+)$/;
@@ -137,13 +138,13 @@ export function mergeShards(options: MergeOptions): MergeResult {
   }
   const partial = missing.length > 0;
   const matrices = plan.combos.map((_, ci) => matrixFromTallies(plan, ci, (p) => tallies.get(p), partial));
-  const files = options.outDir === undefined ? [] : writeRunOutputs(options.outDir, plan, matrices, {
+  const written = options.outDir === undefined ? undefined : writeRunOutputs(options.outDir, plan, matrices, {
     raysTraced,
     raysResumed: 0,
     wallS: Math.max(...[...byIndex.values()].map((s) => s.wallS)),
     shards: count,
     partial,
     missingShards: missing,
-  }, options.onNotice);
-  return { plan, shardCount: count, present, missing, unfinished, matrices, files, raysTraced };
+  });
+  return { plan, shardCount: count, present, missing, unfinished, matrices, files: written?.files ?? [], raysTraced, runRecord: written?.record };
 }

@@ -74,6 +74,16 @@ export function batchRays(rays: RaysPlan, b: number): number {
   return Math.max(0, Math.min(rays.batch, cap - b * rays.batch));
 }
 
+/**
+ * Rays of batches b0 … b1−1 of a point, in closed form (batches fill [0, cap) in order, so the sum
+ * is the overlap of [b0·batch, b1·batch) with it): planning stays O(points), whatever the ray count.
+ */
+export function raysInBatches(rays: RaysPlan, b0: number, b1: number): number {
+  const cap = rays.mode === "fixed" ? rays.perPoint : rays.maxPerPoint;
+  const at = (b: number): number => Math.max(0, Math.min(cap, b * rays.batch));
+  return b1 > b0 ? at(b1) - at(b0) : 0;
+}
+
 /** Most batches a point can have. */
 export function maxBatches(rays: RaysPlan): number {
   return Math.ceil((rays.mode === "fixed" ? rays.perPoint : rays.maxPerPoint) / rays.batch);

@@ -1,5 +1,6 @@
 import type { Command } from "commander";
 import { mergeShards } from "../../sweep/mergeShards.js";
+import { writeRunPhotocurrent } from "../../weighting/runSummaries.js";
 import { comboTable } from "./sweep.js";
 
 export function register(program: Command): void {
@@ -22,9 +23,13 @@ Refuses shards of a different study hash, lightfold version or shard count. Miss
 listed by number (exit 2) unless --allow-partial is given.`,
     )
     .action((inputs: string[], flags: { out: string; allowPartial?: boolean; json?: boolean }) => {
-      const r = mergeShards({ inputs, outDir: flags.out, allowPartial: flags.allowPartial === true, onNotice: (m) => process.stderr.write(`lightfold merge: ${m}\n`) });
+      const merged = mergeShards({ inputs, outDir: flags.out, allowPartial: flags.allowPartial === true });
+      // The merge writes matrices and run.json; the spectral weighting adds the photocurrent summaries.
+      const files = merged.runRecord === undefined ? merged.files
+        : writeRunPhotocurrent(flags.out, merged.plan, merged.matrices, merged.runRecord, (m) => process.stderr.write(`lightfold merge: ${m}\n`));
+      const r = { ...merged, files };
       if (flags.json === true) {
-        const { matrices: _m, plan, ...rest } = r;
+        const { matrices: _m, plan, runRecord: _r, ...rest } = r;
         process.stdout.write(JSON.stringify({ study: plan.studyName, studyHash: plan.studyHash, partial: r.missing.length > 0, ...rest }, null, 2) + "\n");
         return;
       }

@@ -8,6 +8,7 @@ import { runSweep } from "../../sweep/runSweep.js";
 import { resolveShard } from "../../sweep/shardSource.js";
 import { journalPath } from "../../sweep/sweepPaths.js";
 import { existsSync, readFileSync } from "node:fs";
+import { writeRunPhotocurrent } from "../../weighting/runSummaries.js";
 
 interface SweepFlags {
   report?: boolean;
@@ -121,6 +122,9 @@ with the same study; a changed study sets the old journal aside and starts afres
         process.off("SIGINT", onInterrupt);
         process.off("SIGTERM", onInterrupt);
       }
+      // The sweep writes matrices and run.json; the spectral weighting adds the photocurrent summaries.
+      const files = result.runRecord === undefined ? result.files
+        : writeRunPhotocurrent(outDir, result.plan, result.matrices, result.runRecord, (m) => process.stderr.write(`lightfold sweep: ${m}\n`));
       const summary = {
         study: study.name,
         studyHash: study.hash,
@@ -132,7 +136,7 @@ with the same study; a changed study sets the old journal aside and starts afres
         raysResumed: result.raysResumed,
         raysPerS: result.wallS > 0 ? result.raysTraced / result.wallS : 0,
         damagedJournalLines: result.damagedJournalLines,
-        files: result.files,
+        files,
         report: shard === null && flags.report !== false ? makeReport([outDir]).indexPath : null,
       };
       if (flags.json === true) {
@@ -141,9 +145,9 @@ with the same study; a changed study sets the old journal aside and starts afres
       }
       const lines = [
         `${study.name}: ${result.raysTraced.toExponential(3)} rays traced${result.raysResumed > 0 ? ` (+${result.raysResumed.toExponential(3)} from the journal)` : ""} in ${result.wallS.toFixed(1)} s on ${result.workers} worker(s), ${Math.round(summary.raysPerS)} rays/s`,
-        ...(result.files.length <= 6
-          ? result.files.map((f) => `  wrote ${f}`)
-          : [`  wrote ${result.files.length} files under ${outDir}: run.json and per combination <combo>/matrix.json, photocurrent.json, iam.csv`]),
+        ...(files.length <= 6
+          ? files.map((f) => `  wrote ${f}`)
+          : [`  wrote ${files.length} files under ${outDir}: run.json and per combination <combo>/matrix.json, photocurrent.json, iam.csv`]),
       ];
       if (shard === null && study.combos.length > 1) lines.push(...comboTable(outDir));
       if (summary.report) lines.push(`  report ${summary.report}`);

@@ -1,0 +1,52 @@
+import { dirname, relative } from "node:path";
+import type { ResponseMatrix } from "../response/responseMatrix.js";
+import { spectrumFromSpec, type Spectrum } from "../spectrum/index.js";
+import type { SweepPlan } from "../sweep/plan.js";
+import { writeRunJson, type RunRecord } from "../sweep/runFiles.js";
+import { matrixPath } from "../sweep/sweepPaths.js";
+import { writePhotocurrentSummary } from "./writePhotocurrent.js";
+
+/**
+ * Spectral weighting of a finished run directory: per combination `photocurrent.json` and `iam.csv`
+ * under the study's spectrum beside its matrix, then run.json rewritten with the summaries' names and
+ * the first direction's Jsc. A photocurrent that cannot be computed (e.g. a grid outside the
+ * spectrum) is reported through onNotice; the matrices stand. Partial matrices get no summary.
+ * Returns every file of the run: per combination its matrix and summaries, then run.json.
+ */
+export function writeRunPhotocurrent(
+  outDir: string,
+  plan: SweepPlan,
+  matrices: ResponseMatrix[],
+  record: RunRecord,
+  onNotice: (message: string) => void = () => {},
+): string[] {
+  let spectrum: Spectrum | undefined;
+  try {
+    spectrum = spectrumFromSpec(plan.spectrum, plan.baseDir);
+  } catch (err) {
+    onNotice(`no photocurrent summaries: ${(err as Error).message}`);
+  }
+  const files: string[] = [];
+  const combos = record.combos.map((c) => ({ ...c }));
+  matrices.forEach((m, i) => {
+    const path = matrixPath(outDir, plan.combos[i].label);
+    files.push(path);
+    if (spectrum === undefined || m.partial === true) return;
+    try {
+      const w = writePhotocurrentSummary(dirname(path), m, spectrum);
+      files.push(...w.files);
+      const d = w.summary.directions[0];
+      const { rays, ...head } = combos[i];
+      combos[i] = {
+        ...head,
+        summaries: w.files.map((f) => relative(outDir, f)),
+        ...(d !== undefined ? { jscFirstDirection: { thetaDeg: d.thetaDeg, phiDeg: d.phiDeg, jscMaCm2: d.jscMaCm2, jscStderrMaCm2: d.jscStderrMaCm2 } } : {}),
+        rays,
+      };
+    } catch (err) {
+      onNotice(`${plan.combos[i].label}: no photocurrent summary: ${(err as Error).message}`);
+    }
+  });
+  files.push(writeRunJson(outDir, { ...record, combos }));
+  return files;
+}
