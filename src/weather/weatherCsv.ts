@@ -43,6 +43,12 @@ export function parseWeatherCsv(text: string, src: string): WeatherYear {
   const fail = (msg: string): void => {
     errors.push(msg);
   };
+  /** Rows refused above: the gap check does not count them as missing hours. */
+  const badLines: number[] = [];
+  const refuse = (lineNo: number, msg: string): void => {
+    badLines.push(lineNo);
+    fail(`line ${lineNo}: ${msg}`);
+  };
   let headerLine = -1;
   let hasAlbedo = false;
   const t: number[] = [], ghi: number[] = [], dni: number[] = [], dhi: number[] = [], alb: number[] = [];
@@ -62,12 +68,12 @@ export function parseWeatherCsv(text: string, src: string): WeatherYear {
     }
     const nCols = hasAlbedo ? 5 : 4;
     if (cells.length !== nCols) {
-      fail(`line ${lineNo}: expected ${nCols} fields, got ${cells.length}`);
+      refuse(lineNo, `expected ${nCols} fields, got ${cells.length}`);
       continue;
     }
     const ms = parseIsoWithOffset(cells[0]!);
     if (Number.isNaN(ms)) {
-      fail(`line ${lineNo}: time "${cells[0]}" is not ISO-8601 with an offset (e.g. 2027-06-01T12:00:00+01:00)`);
+      refuse(lineNo, `time "${cells[0]}" is not ISO-8601 with an offset (e.g. 2027-06-01T12:00:00+01:00)`);
       continue;
     }
     const vals: number[] = [];
@@ -88,9 +94,12 @@ export function parseWeatherCsv(text: string, src: string): WeatherYear {
       }
       vals.push(v);
     }
-    if (!ok) continue;
+    if (!ok) {
+      badLines.push(lineNo);
+      continue;
+    }
     if (vals[2]! > vals[0]! + DHI_SLACK_WM2) {
-      fail(`line ${lineNo}: dhi_wm2 ${vals[2]} exceeds ghi_wm2 ${vals[0]} (diffuse cannot exceed global)`);
+      refuse(lineNo, `dhi_wm2 ${vals[2]} exceeds ghi_wm2 ${vals[0]} (diffuse cannot exceed global)`);
       continue;
     }
     t.push(ms);
@@ -105,6 +114,9 @@ export function parseWeatherCsv(text: string, src: string): WeatherYear {
   for (let k = 1; k < t.length && errors.length < MAX_LISTED; k++) {
     const dt = t[k]! - t[k - 1]!;
     if (dt === HOUR_MS) continue;
+    // A refused row between the two is already reported; its hour is not "missing" as well.
+    const refusedBetween = badLines.filter((l) => l > lineOf[k - 1]! && l < lineOf[k]!).length;
+    if (refusedBetween > 0 && dt === (refusedBetween + 1) * HOUR_MS) continue;
     const here = `line ${lineOf[k]} (${new Date(t[k]!).toISOString()})`;
     if (dt === 0) fail(`${here}: duplicated hour (same time as line ${lineOf[k - 1]})`);
     else if (dt < 0) fail(`${here}: time goes backwards after line ${lineOf[k - 1]}`);
@@ -122,6 +134,7 @@ export function parseWeatherCsv(text: string, src: string): WeatherYear {
     ghiWm2: Float64Array.from(ghi),
     dniWm2: Float64Array.from(dni),
     dhiWm2: Float64Array.from(dhi),
+    lineNumbers: Int32Array.from(lineOf),
     warnings: [],
   };
   if (hasAlbedo) w.albedo = Float64Array.from(alb);

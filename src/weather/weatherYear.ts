@@ -8,6 +8,8 @@ export interface WeatherYear {
   dhiWm2: Float64Array;
   /** Per-hour ground albedo when the file has the column. */
   albedo?: Float64Array;
+  /** Line of the source file each record came from (for messages), when the reader kept it. */
+  lineNumbers?: Int32Array;
   /** Non-fatal findings (with counts), shown to the user. */
   warnings: string[];
 }

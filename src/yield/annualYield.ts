@@ -87,6 +87,13 @@ export function annualYield(ctx: YearContext, setup: PlaneSetup, grid: AngularGr
     const z = ctx.zenithDeg[h]!;
     skyParts(opts.skyModel, z, ctx.ghiWm2[h]!, ctx.dniWm2[h]!, ctx.dhiWm2[h]!, ctx.albedo[h]!, ctx.e0nWm2[h]!, parts);
     const c = z < 90 ? cosIncidence(frame, z, ctx.azimuthDeg[h]!) : -1;
+    // Perez (F1 > 1, F2 < 0 in the clearest bins) can give a plane facing away from the sun a
+    // negative sky diffuse: it is clipped at zero, as common open implementations do (from memory).
+    if (parts.circumsolarWm2 * Math.max(0, c) + parts.isoSkyWm2 * 0.5 * (1 + cb) + parts.horizonWm2 * sb < 0) {
+      parts.circumsolarWm2 = 0;
+      parts.isoSkyWm2 = 0;
+      parts.horizonWm2 = 0;
+    }
     // beam and circumsolar: at the sun's direction in the module frame
     let jSun = 0;
     const pointWm2 = parts.dniWm2 + parts.circumsolarWm2;

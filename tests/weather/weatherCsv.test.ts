@@ -70,7 +70,7 @@ describe("parseWeatherCsv(text, src)", () => {
 });
 
 describe("checkAgainstSun(weather, track)", () => {
-  it("zeros DNI at night and counts gross closure violations as warnings", () => {
+  it("zeros DNI at night and counts closure failures (Long & Shi 2008 comparison test) as warnings", () => {
     // 45° N 7° E, 21 June: 00:00 local is night; 12:00 local the sun is high (z ≈ 22°)
     const rows = [
       "2027-06-21T00:00+01:00,0,50,0", // night beam → set to 0
@@ -83,6 +83,6 @@ describe("checkAgainstSun(weather, track)", () => {
     const w2 = parseWeatherCsv(csv(["2027-06-21T12:00+01:00,900,100,100", "2027-06-21T13:00+01:00,800,750,120"]), "c.csv");
     checkAgainstSun(w2, sunTrack(w2.hourStartUtcMs, 45, 7));
     // first hour: DNI cos z + DHI ≈ 193 ≪ 900 → violation; second: ≈ 800 → consistent
-    expect(w2.warnings.join()).toMatch(/^1 hour\(s\) violate closure/);
+    expect(w2.warnings.join()).toMatch(/^1 hour\(s\) fail closure GHI ≈ DNI·cos z \+ DHI .*first: line 3 \(2027-06-21T11:00Z\)/);
   });
 });
