@@ -5,6 +5,7 @@ import { parseJsonInput, readInputText } from "../util/inputFile.js";
 import type { MaterialRegistry } from "../materials/registry.js";
 import { canonicalJson, studyHash } from "./canonical.js";
 import { resolveStudyDocument } from "./resolveStudy.js";
+import { checkStudyDocument } from "./studySchema.js";
 import type { SweepSpec } from "./sweepCombos.js";
 import type { RaysPlan, Study, StudyCombo, StudyGrid } from "./studyTypes.js";
 import { buildMaterialRegistry } from "./userMaterials.js";
@@ -40,6 +41,7 @@ export function loadStudy(path: string): LoadedStudy {
 
 /** Same as loadStudy for a document already parsed (relative files resolve against baseDir). */
 export function loadStudyFromDocument(doc: unknown, options: { baseDir: string; path?: string }): LoadedStudy {
+  checkStudyDocument(doc); // before any file named in it is read
   const baseDir = resolve(options.baseDir);
   const files = referencedFiles(doc, baseDir);
   const materials = doc !== null && typeof doc === "object" ? (doc as Record<string, unknown>).materials : undefined;
@@ -113,7 +115,6 @@ function referencedFiles(doc: unknown, baseDir: string): Record<string, string> 
   return files;
 }
 
-/** "line L, column C (…message…)" for a JSON.parse error. */
 /** Canonical text of a combination's study (what its hash covers, without file contents). */
 export function canonicalStudyText(study: Study): string {
   return canonicalJson(study);

@@ -1,17 +1,7 @@
 import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
 import { InputError } from "../util/errors.js";
-import {
-  describeValue,
-  expectInteger,
-  expectNumber,
-  expectObject,
-  expectOneOf,
-  expectPositive,
-  expectString,
-  rejectUnknownFields,
-  requireField,
-} from "./fieldChecks.js";
+import { checkStudySchema } from "./studySchema.js";
 import { parseHeightMapCsv } from "../geometry/heightMapCsv.js";
 import {
   DEFAULT_FACET_ANGLE_DEG,
@@ -37,10 +27,12 @@ export interface ValidateStackOptions {
 }
 
 /**
- * Validates the raw "stack" JSON of a study file into a StackSpec: defaults applied, unknown fields
- * rejected with a did-you-mean hint, every error an InputError naming the field path. With a
- * registry, material names are checked too. Height maps are read (relative to options.baseDir) when
- * a base directory or a reader is given; otherwise `grid` stays unset.
+ * Validates the raw "stack" JSON of a study file into a StackSpec: the schema
+ * (schema/study.schema.json, `$defs/stack`) checks every field (types, ranges, unknown fields with
+ * a did-you-mean hint); this code applies defaults and the checks that relate several fields or
+ * need the material registry. Every error is an InputError naming the field path. Height maps are
+ * read (relative to options.baseDir) when a base directory or a reader is given; otherwise `grid`
+ * stays unset.
  */
 export function validateStack(
   raw: unknown,
@@ -48,117 +40,76 @@ export function validateStack(
   registry?: MaterialLookup,
   options: ValidateStackOptions = {},
 ): StackSpec {
+  checkStudySchema("stack", raw, path);
   const ctx: Ctx = { registry, options };
-  const o = expectObject(raw, path);
-  rejectUnknownFields(o, path, ["incidence", "layers", "front", "absorber", "rear", "boundary"]);
-  const incidence = material(ctx, o.incidence ?? "air", `${path}.incidence`);
-  const layers = layerList(ctx, o.layers, `${path}.layers`);
-  const front = frontSpec(ctx, requireField(o, "front", path), `${path}.front`);
-  const a = expectObject(requireField(o, "absorber", path), `${path}.absorber`);
-  rejectUnknownFields(a, `${path}.absorber`, ["material", "thicknessUm"]);
-  const absorber = {
-    material: material(ctx, a.material ?? "Si", `${path}.absorber.material`),
-    thicknessUm: expectPositive(requireField(a, "thicknessUm", `${path}.absorber`), `${path}.absorber.thicknessUm`),
+  const o = raw as RawStack;
+  const front: FrontSpec = {
+    texture: texture(ctx, o.front.texture ?? { type: "planar" }, `${path}.front.texture`),
+    films: filmList(ctx, o.front.films, `${path}.front.films`),
   };
-  const rear = rearSpec(ctx, requireField(o, "rear", path), `${path}.rear`);
-  const boundary = expectOneOf(o.boundary ?? "periodic", `${path}.boundary`, ["periodic", "mirror"]) as BoundaryKind;
-  return { incidence, layers, front, absorber, rear, boundary };
+  if (front.texture.type === "lambertian" && front.films.length > 0) {
+    throw new InputError(`${path}.front.films: the ideal Lambertian randomiser takes no films`);
+  }
+  return {
+    incidence: material(ctx, o.incidence ?? "air", `${path}.incidence`),
+    layers: layerList(ctx, o.layers ?? [], `${path}.layers`),
+    front,
+    absorber: {
+      material: material(ctx, o.absorber.material ?? "Si", `${path}.absorber.material`),
+      thicknessUm: o.absorber.thicknessUm,
+    },
+    rear: rearSpec(ctx, o.rear, `${path}.rear`),
+    boundary: o.boundary ?? "periodic",
+  };
 }
+
+/** The stack as the schema admits it (optional fields still unset). */
+interface RawStack {
+  incidence?: string;
+  layers?: { name?: string; material: string; thicknessUm: number; topFilms?: FilmSpec[] }[];
+  front: { texture?: RawTexture; films?: FilmSpec[] };
+  absorber: { material?: string; thicknessUm: number };
+  rear: { ideal: { kind: "mirror" | "lambertian"; reflectance?: number } } | { texture?: RawTexture; films?: FilmSpec[]; exit: string };
+  boundary?: BoundaryKind;
+}
+type RawTexture = { type: TextureSpec["type"] } & Record<string, number | boolean | string | undefined>;
 
 interface Ctx {
   registry: MaterialLookup | undefined;
   options: ValidateStackOptions;
 }
 
-function layerList(ctx: Ctx, raw: unknown, path: string): LayerSpec[] {
-  if (raw === undefined) return [];
-  if (!Array.isArray(raw)) throw new InputError(`${path}: expected a list of layers, got ${describeValue(raw)}`);
+function layerList(ctx: Ctx, raw: NonNullable<RawStack["layers"]>, path: string): LayerSpec[] {
   const names = new Set<string>();
-  return raw.map((item, i) => {
+  return raw.map((o, i) => {
     const p = `${path}[${i}]`;
-    const o = expectObject(item, p);
-    rejectUnknownFields(o, p, ["name", "material", "thicknessUm", "topFilms"]);
-    const mat = material(ctx, requireField(o, "material", p), `${p}.material`);
-    const name = o.name === undefined ? mat : expectString(o.name, `${p}.name`);
+    const mat = material(ctx, o.material, `${p}.material`);
+    const name = o.name ?? mat;
     if (names.has(name)) {
       throw new InputError(`${p}.name: layer name ${JSON.stringify(name)} is used twice`, "give each layer its own name");
     }
     names.add(name);
-    return {
-      name,
-      material: mat,
-      thicknessUm: expectPositive(requireField(o, "thicknessUm", p), `${p}.thicknessUm`),
-      topFilms: filmList(ctx, o.topFilms, `${p}.topFilms`),
-    };
+    return { name, material: mat, thicknessUm: o.thicknessUm, topFilms: filmList(ctx, o.topFilms, `${p}.topFilms`) };
   });
 }
 
-function frontSpec(ctx: Ctx, raw: unknown, path: string): FrontSpec {
-  const o = expectObject(raw, path);
-  rejectUnknownFields(o, path, ["texture", "films"]);
-  const spec = {
-    texture: texture(ctx, o.texture ?? { type: "planar" }, `${path}.texture`),
-    films: filmList(ctx, o.films, `${path}.films`),
-  };
-  if (spec.texture.type === "lambertian" && spec.films.length > 0) {
-    throw new InputError(`${path}.films: the ideal Lambertian randomiser takes no films`);
-  }
-  return spec;
-}
-
-function rearSpec(ctx: Ctx, raw: unknown, path: string): RearSpec {
-  const o = expectObject(raw, path);
-  if (o.ideal !== undefined) {
-    rejectUnknownFields(o, path, ["ideal"]);
-    const p = `${path}.ideal`;
-    const ideal = expectObject(o.ideal, p);
-    rejectUnknownFields(ideal, p, ["kind", "reflectance"]);
-    const kind = expectOneOf(requireField(ideal, "kind", p), `${p}.kind`, ["mirror", "lambertian"]) as "mirror" | "lambertian";
-    const reflectance = expectNumber(ideal.reflectance ?? 1, `${p}.reflectance`);
-    if (!(reflectance >= 0 && reflectance <= 1)) {
-      throw new InputError(`${p}.reflectance: expected a number in [0, 1], got ${reflectance}`);
-    }
-    return { ideal: { kind, reflectance } };
-  }
-  rejectUnknownFields(o, path, ["texture", "films", "exit", "ideal"]);
+function rearSpec(ctx: Ctx, o: RawStack["rear"], path: string): RearSpec {
+  if ("ideal" in o) return { ideal: { kind: o.ideal.kind, reflectance: o.ideal.reflectance ?? 1 } };
   return {
     texture: texture(ctx, o.texture ?? { type: "planar" }, `${path}.texture`),
     films: filmList(ctx, o.films, `${path}.films`),
-    exit: material(ctx, requireField(o, "exit", path), `${path}.exit`),
+    exit: material(ctx, o.exit, `${path}.exit`),
   };
 }
 
-function filmList(ctx: Ctx, raw: unknown, path: string): FilmSpec[] {
-  if (raw === undefined) return [];
-  if (!Array.isArray(raw)) throw new InputError(`${path}: expected a list of films, got ${describeValue(raw)}`);
-  return raw.map((item, i) => {
-    const p = `${path}[${i}]`;
-    const o = expectObject(item, p);
-    rejectUnknownFields(o, p, ["material", "thicknessNm"]);
-    return {
-      material: material(ctx, requireField(o, "material", p), `${p}.material`),
-      thicknessNm: expectPositive(requireField(o, "thicknessNm", p), `${p}.thicknessNm`),
-    };
-  });
+function filmList(ctx: Ctx, raw: FilmSpec[] | undefined, path: string): FilmSpec[] {
+  return (raw ?? []).map((f, i) => ({ material: material(ctx, f.material, `${path}[${i}].material`), thicknessNm: f.thicknessNm }));
 }
 
-const TEXTURE_FIELDS: Record<TextureSpec["type"], string[]> = {
-  planar: [],
-  lambertian: [],
-  "upright-pyramids": ["baseUm", "facetAngleDeg"],
-  "inverted-pyramids": ["baseUm", "facetAngleDeg"],
-  "random-pyramids": ["meanBaseUm", "sizeSpread", "count", "tileUm", "facetAngleDeg", "seed"],
-  grooves: ["periodUm", "facetAngleDeg", "orientationDeg"],
-  "spherical-caps": ["radiusUm", "periodUm", "depthUm", "inverted"],
-  "height-map": ["csv", "pitchUm"],
-};
-
-function texture(ctx: Ctx, raw: unknown, path: string): TextureSpec {
-  const o = expectObject(raw, path);
-  const type = expectOneOf(requireField(o, "type", path), `${path}.type`, Object.keys(TEXTURE_FIELDS)) as TextureSpec["type"];
-  rejectUnknownFields(o, path, ["type", ...TEXTURE_FIELDS[type]]);
-  const facet = (): number => facetAngle(o.facetAngleDeg ?? DEFAULT_FACET_ANGLE_DEG, `${path}.facetAngleDeg`);
-  const pos = (key: string): number => expectPositive(requireField(o, key, path), `${path}.${key}`);
+function texture(ctx: Ctx, o: RawTexture, path: string): TextureSpec {
+  const type = o.type;
+  const num = (key: string, fallback?: number): number => (o[key] as number | undefined) ?? fallback!;
+  const facetAngleDeg = num("facetAngleDeg", DEFAULT_FACET_ANGLE_DEG);
   switch (type) {
     case "planar":
       return { type };
@@ -169,76 +120,61 @@ function texture(ctx: Ctx, raw: unknown, path: string): TextureSpec {
       return { type };
     case "upright-pyramids":
     case "inverted-pyramids":
-      return { type, baseUm: pos("baseUm"), facetAngleDeg: facet() };
+      return { type, baseUm: num("baseUm"), facetAngleDeg };
     case "random-pyramids": {
-      const meanBaseUm = pos("meanBaseUm");
-      const sizeSpread = expectNumber(o.sizeSpread ?? 0.3, `${path}.sizeSpread`);
-      if (!(sizeSpread >= 0 && sizeSpread < 1)) {
-        throw new InputError(`${path}.sizeSpread: expected a relative standard deviation in [0, 1), got ${sizeSpread}`);
-      }
-      const count = expectInteger(o.count ?? 20, `${path}.count`, 1, 10000);
+      const meanBaseUm = num("meanBaseUm");
+      const count = num("count", 20);
       // Default tile: coverage count·mean²/tile² = 4, so about e^-4 ≈ 2 % of the base plane stays flat.
-      const tileUm = o.tileUm === undefined ? (meanBaseUm * Math.sqrt(count)) / 2 : expectPositive(o.tileUm, `${path}.tileUm`);
-      const seed = expectInteger(o.seed ?? 1, `${path}.seed`, 0, 2 ** 31);
-      return { type, meanBaseUm, sizeSpread, count, tileUm, facetAngleDeg: facet(), seed };
+      const tileUm = num("tileUm", (meanBaseUm * Math.sqrt(count)) / 2);
+      return { type, meanBaseUm, sizeSpread: num("sizeSpread", 0.3), count, tileUm, facetAngleDeg, seed: num("seed", 1) };
     }
     case "grooves":
-      return {
-        type,
-        periodUm: pos("periodUm"),
-        facetAngleDeg: facet(),
-        orientationDeg: expectNumber(o.orientationDeg ?? 0, `${path}.orientationDeg`),
-      };
-    case "spherical-caps": {
-      const radiusUm = pos("radiusUm");
-      const periodUm = pos("periodUm");
-      const depthUm = pos("depthUm");
-      if (depthUm > radiusUm) {
-        throw new InputError(`${path}.depthUm: expected at most radiusUm (${radiusUm}), got ${depthUm}`);
-      }
-      const chordUm = 2 * Math.sqrt(depthUm * (2 * radiusUm - depthUm));
-      if (chordUm > periodUm * Math.SQRT2 + 1e-9) {
-        throw new InputError(
-          `${path}.depthUm: a cap of radius ${radiusUm} µm and depth ${depthUm} µm is ${chordUm.toFixed(3)} µm wide, ` +
-            `more than the cell diagonal ${(periodUm * Math.SQRT2).toFixed(3)} µm`,
-          "lower depthUm or raise periodUm",
-        );
-      }
-      const inverted = o.inverted ?? false;
-      if (typeof inverted !== "boolean") throw new InputError(`${path}.inverted: expected true or false, got ${describeValue(inverted)}`);
-      return { type, radiusUm, periodUm, depthUm, inverted };
-    }
-    case "height-map": {
-      const csv = expectString(requireField(o, "csv", path), `${path}.csv`);
-      const pitchUm = pos("pitchUm");
-      const spec: TextureSpec = { type, csv, pitchUm };
-      const { baseDir, readText } = ctx.options;
-      if (baseDir !== undefined || readText !== undefined) {
-        const abs = resolve(baseDir ?? ".", csv);
-        let text: string;
-        try {
-          text = (readText ?? ((p: string) => readFileSync(p, "utf8")))(abs);
-        } catch (err) {
-          throw new InputError(`${path}.csv: cannot read height map ${abs}: ${(err as Error).message}`);
-        }
-        spec.grid = parseHeightMapCsv(text, abs);
-      }
-      return spec;
-    }
+      return { type, periodUm: num("periodUm"), facetAngleDeg, orientationDeg: num("orientationDeg", 0) };
+    case "spherical-caps":
+      return sphericalCaps(o, path);
+    case "height-map":
+      return heightMap(ctx, o, path);
   }
 }
 
-// ---- primitive checks -------------------------------------------------------------------------
-
-function facetAngle(raw: unknown, path: string): number {
-  if (typeof raw !== "number" || !Number.isFinite(raw) || raw <= 0 || raw >= 90) {
-    throw new InputError(`${path}: expected a number in (0, 90), got ${describeValue(raw)}`);
+/** A cap no deeper than its radius, whose rim fits the cell diagonal. */
+function sphericalCaps(o: RawTexture, path: string): TextureSpec {
+  const radiusUm = o.radiusUm as number;
+  const periodUm = o.periodUm as number;
+  const depthUm = o.depthUm as number;
+  if (depthUm > radiusUm) {
+    throw new InputError(`${path}.depthUm: expected at most radiusUm (${radiusUm}), got ${depthUm}`);
   }
-  return raw;
+  const chordUm = 2 * Math.sqrt(depthUm * (2 * radiusUm - depthUm));
+  if (chordUm > periodUm * Math.SQRT2 + 1e-9) {
+    throw new InputError(
+      `${path}.depthUm: a cap of radius ${radiusUm} µm and depth ${depthUm} µm is ${chordUm.toFixed(3)} µm wide, ` +
+        `more than the cell diagonal ${(periodUm * Math.SQRT2).toFixed(3)} µm`,
+      "lower depthUm or raise periodUm",
+    );
+  }
+  return { type: "spherical-caps", radiusUm, periodUm, depthUm, inverted: (o.inverted as boolean | undefined) ?? false };
 }
 
-function material(ctx: Ctx, raw: unknown, path: string): string {
-  const name = expectString(raw, path);
+function heightMap(ctx: Ctx, o: RawTexture, path: string): TextureSpec {
+  const csv = o.csv as string;
+  const spec: TextureSpec = { type: "height-map", csv, pitchUm: o.pitchUm as number };
+  const { baseDir, readText } = ctx.options;
+  if (baseDir !== undefined || readText !== undefined) {
+    const abs = resolve(baseDir ?? ".", csv);
+    let text: string;
+    try {
+      text = (readText ?? ((p: string) => readFileSync(p, "utf8")))(abs);
+    } catch (err) {
+      throw new InputError(`${path}.csv: cannot read height map ${abs}: ${(err as Error).message}`);
+    }
+    spec.grid = parseHeightMapCsv(text, abs);
+  }
+  return spec;
+}
+
+/** A material name the registry knows (its error carries the did-you-mean hint). */
+function material(ctx: Ctx, name: string, path: string): string {
   if (ctx.registry !== undefined) {
     try {
       ctx.registry.get(name);

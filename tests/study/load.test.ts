@@ -70,9 +70,9 @@ describe("study validation names the field path", () => {
   it("rejects incidence angles of 90° and above (grazing incidence carries no power)", () => {
     const d = baseDoc();
     (d.grid as Record<string, unknown>).thetaDeg = { from: 0, to: 90, step: 10 };
-    expect(errorOf(d).message).toBe("grid.thetaDeg.to: expected incidence angles in [0, 90), got 90");
+    expect(errorOf(d).message).toBe("grid.thetaDeg.to: expected a number in [0, 90), got 90");
     (d.grid as Record<string, unknown>).thetaDeg = [0, 45, 95];
-    expect(errorOf(d).message).toBe("grid.thetaDeg[2]: expected incidence angles in [0, 90), got 95");
+    expect(errorOf(d).message).toBe("grid.thetaDeg[2]: expected a number in [0, 90), got 95");
   });
 
   it("rejects unknown fields with a did-you-mean hint, at top level and deep in the stack", () => {
