@@ -10,6 +10,11 @@ import { toolVersion } from "../../util/version.js";
 import { checkAgainstSun } from "../../weather/sunChecks.js";
 import { syntheticWeather, type SyntheticWeather } from "../../weather/synthetic.js";
 import { parseWeatherCsv, weatherToCsv } from "../../weather/weatherCsv.js";
+import { readWeatherInput, siteAndWeather } from "../weatherInput.js";
+import { precipitableWaterCm } from "../../weather/precipitableWater.js";
+import type { StationMeta } from "../../weather/stationFile.js";
+import { epwText, tmy3Text } from "../../weather/stationWrite.js";
+import { syntheticMet } from "../../weather/syntheticMet.js";
 import type { WeatherYear } from "../../weather/weatherYear.js";
 
 /** Integer flag value; `flag` names it in errors. */
@@ -20,19 +25,12 @@ export function intOption(text: string | undefined, flag: string, fallback: numb
   return v;
 }
 
-/** "--weather <file.csv|synthetic>": reads and validates a weather file or makes a synthetic year. */
+/**
+ * "--weather <file|synthetic>": reads and validates a weather file (lightfold CSV, EPW or TMY3, told
+ * apart by content) or makes a synthetic year. A station file (EPW, TMY3) must describe the site's place.
+ */
 export function loadWeather(spec: string, site: Site, year: number, seed: number): WeatherYear {
-  if (spec === "synthetic") return syntheticWeather(site, year, seed);
-  let text: string;
-  try {
-    text = readFileSync(spec, "utf8");
-  } catch {
-    throw new InputError(
-      `--weather: cannot read weather file ${spec} (or use "synthetic")`,
-      "give an hourly weather CSV (e.g. one written by `lightfold weather --out`), or --weather synthetic",
-    );
-  }
-  return parseWeatherCsv(text, spec);
+  return siteAndWeather(readWeatherInput(spec, year), site, "site file", year, seed).weather;
 }
 
 const MONTHS = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
@@ -56,7 +54,8 @@ export function register(program: Command): void {
     .requiredOption("--site <site.json>", "site file (latitude, longitude, time zone, albedo, monthlyClearness)")
     .option("--year <year>", "calendar year (local standard time)", "2027")
     .option("--seed <n>", "random seed", "7")
-    .option("--out <file.csv>", "write the CSV here (atomically) instead of to standard output")
+    .option("--out <file>", "write the file here (atomically) instead of to standard output")
+    .option("--format <csv|epw|tmy3>", "file format of the synthetic year: lightfold CSV, EPW or TMY3 CSV (with an invented temperature and humidity)", "csv")
     .option("--check <file.csv>", "validate a weather file against the site's sun instead of generating one")
     .option("--json", "print the summary as JSON")
     .addHelpText(
@@ -65,6 +64,7 @@ export function register(program: Command): void {
 Examples:
   lightfold weather --site configs/sites/brevenmark.site.json --year 2027 --seed 7 --out brevenmark-2027.csv
   lightfold weather --site configs/sites/nordvik-fjell.site.json --check my-measured-year.csv
+  lightfold weather --site configs/sites/brevenmark.site.json --format epw --out brevenmark-2027.epw
 
 CSV format: comment lines start with #; header time,ghi_wm2,dni_wm2,dhi_wm2[,albedo]; time is ISO-8601
 with its offset (2027-06-01T12:00:00+01:00) and marks the START of the hour; the sun is evaluated at
@@ -72,7 +72,7 @@ mid-hour. Synthetic years: Spencer eccentricity, Ineichen–Perez clear sky (Lin
 site), daily clearness as a first-order autoregression around monthlyClearness, hourly TAG fluctuation,
 Erbs diffuse fraction.`,
     )
-    .action((opts: { site: string; year: string; seed: string; out?: string; check?: string; json?: boolean }) => {
+    .action((opts: { site: string; year: string; seed: string; out?: string; format: string; check?: string; json?: boolean }) => {
       const site = readSiteFile(opts.site);
       if (opts.check) {
         const w = parseWeatherCsv(readFileSyncOr(opts.check), opts.check);
@@ -93,7 +93,7 @@ Erbs diffuse fraction.`,
         `lightfold ${toolVersion()} synthetic weather: site "${site.name}" (${site.latitudeDeg}°, ${site.longitudeDeg}°, ${site.elevationM} m), year ${year}, seed ${seed}`,
         "hour stamps = start of the hour in local standard time; irradiance = hourly mean, W/m²",
       ];
-      const csv = weatherToCsv(w, site.utcOffsetHours, formatUtcOffset(site.utcOffsetHours), comments);
+      const csv = formatted(opts.format, site, w, comments);
       if (!opts.out) {
         process.stdout.write(csv);
         return;
@@ -109,6 +109,22 @@ Erbs diffuse fraction.`,
       for (const m of months) lines.push(`${m.month}    ${m.targetKt.toFixed(3).padStart(7)}  ${m.kt.toFixed(3).padStart(11)}  ${m.ghiKWhM2.toFixed(1).padStart(10)}`);
       process.stdout.write(lines.join("\n") + "\n");
     });
+}
+
+/** The synthetic year as text in the chosen format (EPW and TMY3 get an invented temperature and humidity). */
+function formatted(format: string, site: Site, w: WeatherYear, comments: string[]): string {
+  const meta: StationMeta = {
+    format: "epw", name: site.name, latitudeDeg: site.latitudeDeg, longitudeDeg: site.longitudeDeg,
+    utcOffsetHours: site.utcOffsetHours, elevationM: site.elevationM,
+  };
+  if (format === "epw") return epwText(meta, w, syntheticMet(site, w.hourStartUtcMs), comments[0]!);
+  if (format === "tmy3") {
+    const met = syntheticMet(site, w.hourStartUtcMs);
+    for (let i = 0; i < met.airTempC.length; i++) met.precipitableWaterCm[i] = precipitableWaterCm(met.airTempC[i]!, met.relHumidityPct[i]!);
+    return tmy3Text({ ...meta, format: "tmy3" }, "999000", w, met);
+  }
+  if (format === "csv") return weatherToCsv(w, site.utcOffsetHours, formatUtcOffset(site.utcOffsetHours), comments);
+  throw new InputError(`--format: expected csv, epw or tmy3, got "${format}"`, "e.g. --format epw --out site-2027.epw");
 }
 
 function readFileSyncOr(path: string): string {

@@ -9,7 +9,7 @@ import { toolVersion } from "../../util/version.js";
 import { yearContext } from "../../yield/yearContext.js";
 import { formatYieldTable, hourlyCsv, matrixInfo, yieldJson } from "../../yield/yieldJson.js";
 import { bestPlane, prepareMatrix, yieldSweep } from "../../yield/yieldRun.js";
-import { loadWeather } from "./weather.js";
+import { readWeatherInput, siteAndWeather } from "../weatherInput.js";
 
 /** File-name-safe form of a site name. */
 export function slug(name: string): string {
@@ -17,7 +17,7 @@ export function slug(name: string): string {
 }
 
 interface YieldOpts extends YearPlaneFlags, ResultFlags {
-  matrix: string; site: string; weather: string; hourly?: string;
+  matrix: string; site?: string; weather: string; hourly?: string;
 }
 
 /** `lightfold yield --matrix m --site s --weather csv|synthetic --tilt 30 --azimuth 180` */
@@ -26,8 +26,8 @@ export function register(program: Command): void {
     .command("yield")
     .description("yearly absorbed photon charge (optical current) of a response matrix at a site, tilt and azimuth")
     .requiredOption("--matrix <matrix.json>", "response matrix (θ grid from 0° to at least 80°)")
-    .requiredOption("--site <site.json>", "site file")
-    .option("--weather <file.csv|synthetic>", "hourly weather CSV, or a synthetic year", "synthetic");
+    .option("--site <site.json>", "site file (optional with an EPW or TMY3 weather file: its header gives the location)")
+    .option("--weather <file|synthetic>", "hourly weather: EPW, TMY3 CSV or lightfold CSV (told apart by content), or a synthetic year", "synthetic");
   addYearPlaneOptions(cmd, { tilt: "30" })
     .option("--hourly <file.csv>", "write the hourly POA irradiance and current (single plane only)");
   addResultOptions(cmd, "yield-<site>.json", "result")
@@ -39,6 +39,11 @@ Examples:
   lightfold yield --matrix m.json --site configs/sites/nordvik-fjell.site.json \\
       --weather weather-samples/nordvik-fjell-2027.csv --tilt 0:90:5 --run-dir runs/demo
   lightfold yield --matrix m.json --site s.json --weather synthetic --year 2027 --seed 7 --tilt 35 --hourly hours.csv
+  lightfold yield --matrix m.json --weather weather-samples/brevenmark-2027.epw --tilt 35
+
+Weather files: EPW and TMY3 (hour-ending Wh/m², local standard time; the header gives latitude,
+longitude, time zone and elevation, so --site is optional; a site file given with them must name the
+same place) or lightfold's CSV (hour-starting W/m²); typical-year files are placed on --year.
 
 Charge = Σ over hours of the absorbed photocurrent (A/m²) × 1 h. Beam and circumsolar light use the
 response at the sun's direction in the module frame with the AM1.5D spectral shape; sky, horizon band
@@ -46,12 +51,12 @@ and ground light are integrated over the module's hemisphere with the diffuse sh
 only: not an electrical or bankable energy yield.`,
     )
     .action((opts: YieldOpts) => {
-      const site = readSiteFile(opts.site);
       const { year, seed, planes, sky } = yearPlaneOf(opts);
       if (opts.hourly && planes.length > 1) throw new InputError("--hourly needs a single tilt and azimuth", "e.g. --tilt 30 --azimuth 180 --hourly hourly.csv");
       const matrix = readResponseMatrix(opts.matrix);
       const pm = prepareMatrix(matrix, opts.matrix, opts.channel);
-      const weather = loadWeather(opts.weather, site, year, seed);
+      const input = readWeatherInput(opts.weather, year);
+      const { site, weather } = siteAndWeather(input, opts.site ? readSiteFile(opts.site) : undefined, opts.site, year, seed);
       const ctx = yearContext(site, weather);
       const results = yieldSweep(ctx, pm, planes, sky, Boolean(opts.hourly));
       const best = results.length > 1 ? bestPlane(results) : undefined;
