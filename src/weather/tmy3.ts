@@ -1,3 +1,4 @@
+import { readCsvRows } from "../util/csvRows.js";
 import { InputError } from "../util/errors.js";
 import {
   ProblemList, checkMeta, checkRowRanges, numberOrNaN, placeOnYear, type HourEndingRow, type StationMeta, type StationWeather,
@@ -21,26 +22,7 @@ const REQUIRED: ColumnKey[] = ["date", "time", "ghi", "dni", "dhi"];
 /** Missing-data value used in NSRDB/TMY3 files (from memory: −9900); empty cells are missing too. */
 export const TMY3_MISSING = -9900;
 
-/** Splits one CSV line, honouring double quotes (station names are quoted). */
-export function splitCsvLine(line: string): string[] {
-  const out: string[] = [];
-  let cur = "", quoted = false;
-  for (let i = 0; i < line.length; i++) {
-    const c = line[i]!;
-    if (quoted) {
-      if (c === '"' && line[i + 1] === '"') { cur += '"'; i++; }
-      else if (c === '"') quoted = false;
-      else cur += c;
-    } else if (c === '"') quoted = true;
-    else if (c === ",") { out.push(cur); cur = ""; }
-    else cur += c;
-  }
-  out.push(cur);
-  return out;
-}
-
-function parseStationLine(line: string, src: string): StationMeta {
-  const f = splitCsvLine(line).map((s) => s.trim());
+function parseStationLine(f: string[], src: string): StationMeta {
   if (f.length < 7) {
     throw new InputError(`${src}: line 1: a TMY3 station header has 7 fields (id, name, state, time zone, latitude, longitude, elevation), got ${f.length}`);
   }
@@ -114,17 +96,17 @@ function parseRow(cells: string[], idx: Record<ColumnKey, number>, nCols: number
 
 /** Parses TMY3 CSV text; `typicalYear` places a typical year (rows from several years) on one calendar year. */
 export function parseTmy3(text: string, src: string, typicalYear: number): StationWeather {
-  const lines = text.split(/\r?\n/);
-  if (lines.length < 3) throw new InputError(`${src}: a TMY3 file has a station line, a column header and hourly rows; found ${lines.length} line(s)`);
-  const meta = parseStationLine(lines[0]!, src);
-  const header = splitCsvLine(lines[1]!);
+  const records = readCsvRows(text, src, ",");
+  if (records.length < 3 || records[0]!.line !== 1 || records[1]!.line !== 2) {
+    throw new InputError(`${src}: a TMY3 file has a station line, a column header and hourly rows`);
+  }
+  const meta = parseStationLine(records[0]!.cells, src);
+  const header = records[1]!.cells;
   const idx = columnIndex(header, src);
   const p = new ProblemList(src);
   const rows: HourEndingRow[] = [];
-  for (let i = 2; i < lines.length && !p.full; i++) {
-    const raw = lines[i]!.trim();
-    if (raw === "") continue;
-    const row = parseRow(splitCsvLine(raw), idx, header.length, i + 1, p);
+  for (let i = 2; i < records.length && !p.full; i++) {
+    const row = parseRow(records[i]!.cells, idx, header.length, records[i]!.line, p);
     if (row) rows.push(row);
   }
   p.throwIfAny("TMY3 file");
