@@ -76,14 +76,11 @@ export function numberOrNaN(cell: string | undefined): number {
 }
 
 /**
- * Range rules per field (EnergyPlus EPW data dictionary limits, Auxiliary Programs guide, "EPW Data
- * Dictionary"): dry bulb −70…70 °C, relative humidity 0…110 %, station pressure 310…1200 hPa.
- * Hourly irradiance cannot exceed what reaches the top of the atmosphere: the solar constant at
- * perihelion is about 1367 × 1.0344 ≈ 1414 W/m² (Spencer 1971 eccentricity); 1500 Wh/m² per hour is
- * refused outright (a value in kJ/m², ×3.6, or W/m² summed wrongly lands far above it).
+ * Range rules per meteorological field (EnergyPlus EPW data dictionary limits, Auxiliary Programs
+ * guide, "EPW Data Dictionary"): dry bulb −70…70 °C, relative humidity 0…110 %, station pressure
+ * 310…1200 hPa; precipitable water 0…15 cm (common practice: the wettest columns hold about 7 cm).
  */
 export const FIELD_LIMITS = {
-  irradianceMaxWh: 1500,
   airTempC: [-70, 70] as const,
   relHumidityPct: [0, 110] as const,
   pressureHpa: [310, 1200] as const,
@@ -97,13 +94,8 @@ export function checkRowRanges(r: HourEndingRow, p: ProblemList): boolean {
     p.add(r.line, msg);
     ok = false;
   };
-  for (const [name, v] of [["GHI", r.ghi], ["DNI", r.dni], ["DHI", r.dhi]] as const) {
-    if (Number.isNaN(v)) continue;
-    if (v < 0) bad(`${name} ${v} Wh/m² is negative`);
-    else if (v > FIELD_LIMITS.irradianceMaxWh) {
-      bad(`${name} ${v} Wh/m² in one hour exceeds the top-of-atmosphere maximum (about 1414 W/m²); wrong unit (kJ/m² is ×3.6)?`);
-    }
-  }
+  // irradiance limits against the sun (physically possible, extremely rare, closure, unit mistakes)
+  // are the shared plausibility rules (src/weather/plausibility.ts), applied to every weather year
   const range = (name: string, v: number, [lo, hi]: readonly [number, number], unit: string): void => {
     if (!Number.isNaN(v) && (v < lo || v > hi)) bad(`${name} ${v} ${unit} is outside ${lo}…${hi} ${unit}`);
   };
@@ -183,7 +175,9 @@ function assemble(rows: HourEndingRow[], t: Float64Array, meta: StationMeta, src
   const warnings: string[] = [];
   if (typical) warnings.push(`typical-year file (rows from several years) placed on ${year}`);
   if (missingIrr > 0) warnings.push(`${missingIrr} hour(s) with missing irradiance set to 0 (first at line ${firstMissing})`);
-  const weather: WeatherYear = { source: src, hourStartUtcMs: t, ghiWm2: ghi, dniWm2: dni, dhiWm2: dhi, warnings };
+  const weather: WeatherYear = {
+    source: src, hourStartUtcMs: t, ghiWm2: ghi, dniWm2: dni, dhiWm2: dhi, warnings, lineNumbers: Int32Array.from(rows, (r) => r.line),
+  };
   if (albedoComplete) weather.albedo = alb;
   return { meta, weather, met, lineOf: Int32Array.from(rows, (r) => r.line) };
 }

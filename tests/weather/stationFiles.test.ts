@@ -5,6 +5,8 @@ import { epwText, tmy3Text } from "../../src/weather/stationWrite.js";
 import { detectWeatherFormat } from "../../src/weather/weatherFormat.js";
 import { precipitableWaterCm, saturationVapourPressureHpa } from "../../src/weather/precipitableWater.js";
 import { InputError } from "../../src/util/errors.js";
+import { sunTrack } from "../../src/sky/sunPosition.js";
+import { checkAgainstSun } from "../../src/weather/sunChecks.js";
 
 const HOUR = 3_600_000;
 
@@ -99,7 +101,6 @@ describe("parseEpw (EnergyPlus Auxiliary Programs, EPW data dictionary)", () => 
     ["a LOCATION without coordinates", () => epwDay(2027).replace("47.25,-8.5", ",-8.5"), /line 1: latitude is missing/],
     ["sub-hourly data", () => epwDay(2027).replace("DATA PERIODS,1,1,", "DATA PERIODS,1,4,"), /line 8: DATA PERIODS gives 4 records per hour/],
     ["hour 25", () => epwDay(2027, (h) => epwRow(2027, 6, 21, h === 5 ? 25 : h, { ghi: 0, dni: 0, dhi: 0 })), /line 13: hour 25 is not 1…24/],
-    ["a GHI above the top-of-atmosphere maximum", () => epwDay(2027, (h) => epwRow(2027, 6, 21, h, { ghi: h === 12 ? 4500 : 0, dni: 0, dhi: 0 })), /line 20: GHI 4500 Wh\/m² .* exceeds/],
     ["a missing hour", () => epwDay(2027, (h) => epwRow(2027, 6, 21, h === 7 ? 8 : h, { ghi: 0, dni: 0, dhi: 0 })), /line 16: repeats the hour of line 15/],
     ["a short record", () => epwDay(2027) + "2027,6,22,1,60\n", /line 33: expected 35 comma-separated fields, got 5/],
     ["relative humidity 150 %", () => epwDay(2027, (h) => epwRow(2027, 6, 21, h, { ghi: 0, dni: 0, dhi: 0, rh: h === 3 ? 150 : 50 })), /line 11: relative humidity 150 % is outside 0…110/],
@@ -171,7 +172,6 @@ describe("parseTmy3 (Users Manual for TMY3 Data Sets, NREL/TP-581-43156)", () =>
     ["a station line of 3 fields", () => tmy3Day().replace('999001,"INVENTED FIELD",ZZ,-5.0,35.5,-97.25,380', "1,2,3"), /line 1: a TMY3 station header has 7 fields/],
     ["a time 12:30", () => tmy3Day((h) => tmy3Row("03/15/1993", h === 4 ? "04:30" : `${String(h).padStart(2, "0")}:00`, 0, 0, 0)), /line 6: time "04:30" is not an hour stamp/],
     ["a date 13/01/1993", () => tmy3Day((h) => tmy3Row(h === 1 ? "13/01/1993" : "03/15/1993", `${String(h).padStart(2, "0")}:00`, 0, 0, 0)), /line 3: date "13\/01\/1993" is not a calendar date/],
-    ["a negative DNI", () => tmy3Day((h) => tmy3Row("03/15/1993", `${String(h).padStart(2, "0")}:00`, 0, h === 9 ? -5 : 0, 0)), /line 11: DNI -5 Wh\/m² is negative/],
   ];
   for (const [what, make, msg] of bad) {
     it(`refuses ${what}, naming file and line`, () => {
@@ -179,6 +179,20 @@ describe("parseTmy3 (Users Manual for TMY3 Data Sets, NREL/TP-581-43156)", () =>
       expect(() => parseTmy3(make(), "bad.csv", 2027)).toThrow(msg);
     });
   }
+});
+
+describe("station files go through the shared plausibility rules (BSRN QC, Long & Shi 2008)", () => {
+  it("refuses an EPW GHI beyond the physically possible limit, naming the file's line", () => {
+    const s = parseEpw(epwDay(2027, (h) => epwRow(2027, 6, 21, h, { ghi: h === 12 ? 4500 : 0, dni: 0, dhi: 0 })), "hot.epw", 2027);
+    const track = sunTrack(s.weather.hourStartUtcMs, s.meta.latitudeDeg, s.meta.longitudeDeg);
+    // PPL for GHI: 1.5 · E0n · μ0^1.2 + 100 W/m² < 2200 W/m² at any sun height
+    expect(() => checkAgainstSun(s.weather, track)).toThrow(/hot\.epw: .*line 20/s);
+  });
+
+  it("refuses a TMY3 DNI below the −4 W/m² lower limit, naming the line", () => {
+    const s = parseTmy3(tmy3Day((h) => tmy3Row("03/15/1993", `${String(h).padStart(2, "0")}:00`, 0, h === 9 ? -50 : 0, 0)), "neg.csv", 2027);
+    expect(() => checkAgainstSun(s.weather, sunTrack(s.weather.hourStartUtcMs, s.meta.latitudeDeg, s.meta.longitudeDeg))).toThrow(/neg\.csv: .*line 11/s);
+  });
 });
 
 describe("detectWeatherFormat", () => {

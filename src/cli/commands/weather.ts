@@ -1,4 +1,3 @@
-import { readFileSync } from "node:fs";
 import type { Command } from "commander";
 import { readSiteFile } from "../../site/siteFile.js";
 import type { Site } from "../../site/site.js";
@@ -9,7 +8,7 @@ import { InputError } from "../../util/errors.js";
 import { toolVersion } from "../../util/version.js";
 import { checkAgainstSun } from "../../weather/sunChecks.js";
 import { syntheticWeather, type SyntheticWeather } from "../../weather/synthetic.js";
-import { parseWeatherCsv, weatherToCsv } from "../../weather/weatherCsv.js";
+import { weatherToCsv } from "../../weather/weatherCsv.js";
 import { readWeatherInput, siteAndWeather } from "../weatherInput.js";
 import { precipitableWaterCm } from "../../weather/precipitableWater.js";
 import type { StationMeta } from "../../weather/stationFile.js";
@@ -56,7 +55,7 @@ export function register(program: Command): void {
     .option("--seed <n>", "random seed", "7")
     .option("--out <file>", "write the file here (atomically) instead of to standard output")
     .option("--format <csv|epw|tmy3>", "file format of the synthetic year: lightfold CSV, EPW or TMY3 CSV (with an invented temperature and humidity)", "csv")
-    .option("--check <file.csv>", "validate a weather file against the site's sun instead of generating one")
+    .option("--check <file>", "validate a weather file (lightfold CSV, EPW or TMY3) against the site's sun instead of generating one")
     .option("--json", "print the summary as JSON")
     .addHelpText(
       "after",
@@ -75,8 +74,10 @@ Erbs diffuse fraction.`,
     .action((opts: { site: string; year: string; seed: string; out?: string; format: string; check?: string; json?: boolean }) => {
       const site = readSiteFile(opts.site);
       if (opts.check) {
-        const w = parseWeatherCsv(readFileSyncOr(opts.check), opts.check);
-        checkAgainstSun(w, sunTrack(w.hourStartUtcMs, site.latitudeDeg, site.longitudeDeg));
+        const input = readWeatherInput(opts.check, intOption(opts.year, "--year", 2027));
+        if (input.kind === "synthetic") throw new InputError("--check needs a weather file, not \"synthetic\"");
+        const { site: where, weather: w } = siteAndWeather(input, site, opts.site, 2027, 7);
+        checkAgainstSun(w, sunTrack(w.hourStartUtcMs, where.latitudeDeg, where.longitudeDeg));
         const full = w.hourStartUtcMs.length === 8760 || w.hourStartUtcMs.length === 8784;
         const summary = { file: opts.check, hours: w.hourStartUtcMs.length, fullYear: full, warnings: w.warnings };
         if (opts.json) process.stdout.write(JSON.stringify(summary, null, 2) + "\n");
@@ -125,12 +126,4 @@ function formatted(format: string, site: Site, w: WeatherYear, comments: string[
   }
   if (format === "csv") return weatherToCsv(w, site.utcOffsetHours, formatUtcOffset(site.utcOffsetHours), comments);
   throw new InputError(`--format: expected csv, epw or tmy3, got "${format}"`, "e.g. --format epw --out site-2027.epw");
-}
-
-function readFileSyncOr(path: string): string {
-  try {
-    return readFileSync(path, "utf8");
-  } catch {
-    throw new InputError(`cannot read weather file ${path}`, "give an hourly weather CSV, e.g. one written by `lightfold weather --out`");
-  }
 }
