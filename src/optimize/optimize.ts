@@ -110,13 +110,13 @@ export async function optimize(objective: Objective, options: OptimizeOptions): 
       const ys: number[] = [];
       for (const p of pts) ys.push((await evaluate(p, r, "local")).value);
       values.push(ys);
-      const q = fitQuadratic(pts, ys, c, h);
+      const q = fitQuadratic(pts, ys, c, h, dims === 1);
       if (q === null) throw new Error("optimize: the local design does not determine a quadratic");
       const xm = quadraticArgmax(q, lo, hi);
       replicaOptima.push({ location: xm, value: quadraticAt(q, xm) });
     }
     const stats = pts.map((_, i) => meanSd(values.map((v) => v[i])));
-    const pooled = fitQuadratic(pts, stats.map((m) => m.mean), c, h);
+    const pooled = fitQuadratic(pts, stats.map((m) => m.mean), c, h, dims === 1);
     const design: LocalDesign = {
       centre: c,
       halfWidth: h,

@@ -5,7 +5,11 @@
  * Methodology", ch. 6.)
  */
 
-/** y ≈ Σ coef_k · basis_k(u): 1D basis [1, u, u²]; 2D basis [1, u, v, u², uv, v²]. */
+/**
+ * y ≈ Σ coef_k · basis_k(u): 1D basis [1, u, u²] (or [1, u, u², u³] with cubic, which absorbs the
+ * peak's asymmetry so the maximum is not pulled toward the gentler side); 2D basis
+ * [1, u, v, u², uv, v²].
+ */
 export interface Quadratic {
   dims: 1 | 2;
   coef: number[];
@@ -13,8 +17,9 @@ export interface Quadratic {
   halfWidth: number[];
 }
 
-function basis(u: number[]): number[] {
-  return u.length === 1 ? [1, u[0], u[0] * u[0]] : [1, u[0], u[1], u[0] * u[0], u[0] * u[1], u[1] * u[1]];
+function basis(u: number[], nb: number): number[] {
+  if (u.length === 2) return [1, u[0], u[1], u[0] * u[0], u[0] * u[1], u[1] * u[1]];
+  return nb === 4 ? [1, u[0], u[0] * u[0], u[0] ** 3] : [1, u[0], u[0] * u[0]];
 }
 
 /** Solves A x = b (small, dense) by Gaussian elimination with partial pivoting; null when singular. */
@@ -41,14 +46,14 @@ export function solveLinear(a: number[][], b: number[]): number[] | null {
 }
 
 /** Least-squares quadratic through the points (x, y); null when the design cannot determine it. */
-export function fitQuadratic(xs: number[][], ys: number[], centre: number[], halfWidth: number[]): Quadratic | null {
+export function fitQuadratic(xs: number[][], ys: number[], centre: number[], halfWidth: number[], cubic = false): Quadratic | null {
   const dims = centre.length as 1 | 2;
-  const nb = dims === 1 ? 3 : 6;
+  const nb = dims === 1 ? (cubic ? 4 : 3) : 6;
   if (xs.length < nb) return null;
   const ata = Array.from({ length: nb }, () => new Array<number>(nb).fill(0));
   const aty = new Array<number>(nb).fill(0);
   xs.forEach((x, i) => {
-    const f = basis(x.map((v, d) => (v - centre[d]) / halfWidth[d]));
+    const f = basis(x.map((v, d) => (v - centre[d]) / halfWidth[d]), nb);
     for (let r = 0; r < nb; r++) {
       aty[r] += f[r] * ys[i];
       for (let c = 0; c < nb; c++) ata[r][c] += f[r] * f[c];
@@ -60,7 +65,7 @@ export function fitQuadratic(xs: number[][], ys: number[], centre: number[], hal
 
 /** The fitted value at scaled coordinates u. */
 function atScaled(q: Quadratic, u: number[]): number {
-  const f = basis(u);
+  const f = basis(u, q.coef.length);
   let s = 0;
   for (let k = 0; k < f.length; k++) s += q.coef[k] * f[k];
   return s;
@@ -91,6 +96,23 @@ export function quadraticArgmax(q: Quadratic, lo: number[], hi: number[]): numbe
   const uhi = hi.map((v, d) => (v - q.centre[d]) / q.halfWidth[d]);
   const toX = (u: number[]): number[] => u.map((v, d) => q.centre[d] + v * q.halfWidth[d]);
   const [a0, b1, b2, c11, c12, c22] = q.coef;
+  if (q.dims === 1 && q.coef.length === 4) {
+    // Cubic: the ends, and the roots of f' = b1 + 2 b2 u + 3 c11 u² inside.
+    const cands = [ulo[0], uhi[0]];
+    const A = 3 * c11, B = 2 * b2, C = b1;
+    if (Math.abs(A) < 1e-300) {
+      if (B !== 0) cands.push(-C / B);
+    } else {
+      const disc = B * B - 4 * A * C;
+      if (disc >= 0) {
+        const r = Math.sqrt(disc);
+        cands.push((-B - r) / (2 * A), (-B + r) / (2 * A));
+      }
+    }
+    let best = ulo[0];
+    for (const u of cands) if (u >= ulo[0] && u <= uhi[0] && atScaled(q, [u]) > atScaled(q, [best])) best = u;
+    return toX([best]);
+  }
   if (q.dims === 1) return toX([max1d(a0, b1, b2, ulo[0], uhi[0])]);
   const candidates: number[][] = [];
   // Interior: ∇ = 0 with a negative-definite Hessian [[2c11, c12], [c12, 2c22]].

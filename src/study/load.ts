@@ -28,15 +28,20 @@ export interface LoadedStudy {
 
 /** Reads, validates and resolves a study file (JSON). Throws InputError naming the field path. */
 export function loadStudy(path: string): LoadedStudy {
-  const abs = resolve(path);
-  const text = readInputText(path, "study file", "check the path (relative to the current folder); example studies: configs/*.study.json");
-  const doc = parseJsonInput(text, path);
+  const { doc, baseDir, path: abs } = readStudyDocument(path);
   try {
-    return loadStudyFromDocument(doc, { baseDir: dirname(abs), path: abs });
+    return loadStudyFromDocument(doc, { baseDir, path: abs });
   } catch (err) {
     if (err instanceof InputError) throw new InputError(`${path}: ${err.message}`, err.hint);
     throw err;
   }
+}
+
+/** The parsed JSON of a study file, not yet validated (for verbs that derive studies from it). */
+export function readStudyDocument(path: string): { doc: unknown; baseDir: string; path: string } {
+  const abs = resolve(path);
+  const text = readInputText(path, "study file", "check the path (relative to the current folder); example studies: configs/*.study.json");
+  return { doc: parseJsonInput(text, path), baseDir: dirname(abs), path: abs };
 }
 
 /** Same as loadStudy for a document already parsed (relative files resolve against baseDir). */

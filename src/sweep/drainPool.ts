@@ -1,5 +1,5 @@
 import { InputError } from "../util/errors.js";
-import type { TracePool } from "../workers/pool.js";
+import type { TraceRunner } from "../workers/pool.js";
 import { INPUT_ERROR_TAG, type TraceMessage } from "../workers/traceTask.js";
 
 /** Where the drain gets its messages and puts their results. */
@@ -15,7 +15,7 @@ export interface MessageSource<R> {
  * more messages are sent; the promise rejects with it once the messages in flight have settled
  * (their results are dropped), so the pool is never closed under a running task.
  */
-export function drainPool<R>(pool: TracePool, maxInFlight: number, source: MessageSource<R>): Promise<void> {
+export function drainPool<R>(pool: TraceRunner, maxInFlight: number, source: MessageSource<R>): Promise<void> {
   return new Promise<void>((resolve, reject) => {
     let inFlight = 0;
     let failure: Error | undefined;

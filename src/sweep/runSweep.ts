@@ -2,7 +2,7 @@ import { matrixFromTallies } from "../response/fromTallies.js";
 import type { ResponseMatrix } from "../response/responseMatrix.js";
 import type { LoadedStudy } from "../study/load.js";
 import type { StudyCombo } from "../study/studyTypes.js";
-import { defaultWorkerCount, TracePool } from "../workers/pool.js";
+import { defaultWorkerCount, TracePool, type TraceRunner } from "../workers/pool.js";
 import { loadTracer } from "../workers/tracerModule.js";
 import type { WorkerSetup } from "../workers/traceTask.js";
 import { drainPool } from "./drainPool.js";
@@ -37,8 +37,8 @@ export interface SweepOptions {
   outDir?: string;
   /** Worker threads (default: Slurm's grant or all cores). Ignored when `pool` is given. */
   workers?: number;
-  /** An open pool for this study, reused across calls (the caller closes it). */
-  pool?: TracePool;
+  /** An open pool for this study (or a variant view of one, TracePool.forVariant), reused across calls (the caller closes it). */
+  pool?: TraceRunner;
   shard?: ShardSpec | null;
   /** Set an existing matching journal aside instead of resuming from it. */
   fresh?: boolean;
@@ -113,9 +113,9 @@ async function traceAll(run: SweepRun, options: SweepOptions, journal: JournalWr
     journal?.close();
     return;
   }
-  const pool = options.pool ?? new TracePool(workerSetupOf(options.study, options.tracerModule), nWorkers);
+  const own = options.pool === undefined ? new TracePool(workerSetupOf(options.study, options.tracerModule), nWorkers) : undefined;
   try {
-    await drainPool(pool, nWorkers * 2, {
+    await drainPool(options.pool ?? (own as TracePool), nWorkers * 2, {
       queued: () => scheduler.queued(),
       take: () => scheduler.takeMessage(raysPerMessage),
       accept: (runs, out) => {
@@ -125,7 +125,7 @@ async function traceAll(run: SweepRun, options: SweepOptions, journal: JournalWr
     });
   } finally {
     journal?.close();
-    if (options.pool === undefined) await pool.close();
+    if (own !== undefined) await own.close();
   }
 }
 

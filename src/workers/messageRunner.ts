@@ -1,11 +1,15 @@
 import { RandomStream, streamKey } from "../random/stream.js";
 import { buildMaterialRegistry } from "../study/userMaterials.js";
 import { tallyLength, tallyProblem } from "../sweep/tally.js";
+import { isIdealRear, type StackSpec, type TextureSpec } from "../study/stackTypes.js";
+import type { Study } from "../study/studyTypes.js";
 import type { TracerModule } from "./tracerModule.js";
 import { INPUT_ERROR_TAG, type TraceItem, type TraceMessage, type WorkerSetup } from "./traceTask.js";
 
 /** Compiled stacks kept per thread; (combo, λ) pairs beyond this are evicted oldest first. */
 const STACK_CACHE_SIZE = 128;
+/** Study variants (TraceMessage.variant) kept per thread. */
+const VARIANT_CACHE_SIZE = 64;
 
 /**
  * A function that traces task messages for one study. Stacks are compiled once per (combo, λ) and
@@ -16,12 +20,27 @@ export function createMessageRunner(setup: WorkerSetup, tracer: TracerModule): (
   const { compileStack, channelNames, traceBatch } = tracer;
   const registry = buildMaterialRegistry(setup.materials, setup.baseDir);
   const cache = new Map<string, { cs: never; nChannels: number }>();
+  const variants = new Map<string, Study[]>();
+  const textures = new TextureInterner();
 
-  const compiled = (item: TraceItem): { cs: never; nChannels: number } => {
-    const key = `${item.combo}/${item.wavelengthNm}`;
+  /** The studies of a message: the pool's own, or a variant's (kept by key, textures shared). */
+  const studiesOf = (msg: TraceMessage): { prefix: string; studies: Study[] } => {
+    const v = msg.variant;
+    if (v === undefined) return { prefix: "", studies: setup.studies };
+    let studies = variants.get(v.key);
+    if (studies === undefined) {
+      studies = v.studies.map((s) => textures.intern(s));
+      if (variants.size >= VARIANT_CACHE_SIZE) variants.delete(variants.keys().next().value as string);
+      variants.set(v.key, studies);
+    }
+    return { prefix: `${v.key}/`, studies };
+  };
+
+  const compiled = (item: TraceItem, prefix: string, studies: Study[]): { cs: never; nChannels: number } => {
+    const key = `${prefix}${item.combo}/${item.wavelengthNm}`;
     let hit = cache.get(key);
     if (hit === undefined) {
-      const cs = compileStack(setup.studies[item.combo], registry, item.wavelengthNm) as never;
+      const cs = compileStack(studies[item.combo], registry, item.wavelengthNm) as never;
       hit = { cs, nChannels: channelNames(cs).length };
       if (cache.size >= STACK_CACHE_SIZE) cache.delete(cache.keys().next().value as string);
       cache.set(key, hit);
@@ -31,8 +50,9 @@ export function createMessageRunner(setup: WorkerSetup, tracer: TracerModule): (
 
   return (msg: TraceMessage): Float64Array => {
     let total = 0;
+    const { prefix, studies } = studiesOf(msg);
     const stacks = msg.items.map((item) => {
-      const s = withCoordinates(item, item.firstBatch, () => compiled(item));
+      const s = withCoordinates(item, item.firstBatch, () => compiled(item, prefix, studies));
       total += tallyLength(s.nChannels) * item.batchRays.length;
       return s;
     });
@@ -41,7 +61,7 @@ export function createMessageRunner(setup: WorkerSetup, tracer: TracerModule): (
     msg.items.forEach((item, k) => {
       const { cs, nChannels } = stacks[k];
       const len = tallyLength(nChannels);
-      const seed = item.seed ?? setup.studies[item.combo].seed;
+      const seed = item.seed ?? studies[item.combo].seed;
       for (let j = 0; j < item.batchRays.length; j++) {
         const batch = item.firstBatch + j;
         const nRays = item.batchRays[j];
@@ -57,6 +77,35 @@ export function createMessageRunner(setup: WorkerSetup, tracer: TracerModule): (
     });
     return out;
   };
+}
+
+/**
+ * Shares texture objects between study variants whose textures are equal: compiled surface tiles
+ * are cached per texture object (src/trace/compile.ts), so variants that differ only in films or
+ * thicknesses reuse the geometry instead of rebuilding it.
+ */
+class TextureInterner {
+  private readonly seen = new Map<string, TextureSpec>();
+
+  intern(study: Study): Study {
+    const front = this.one(study.stack.front.texture);
+    const rear = study.stack.rear;
+    const stack: StackSpec = {
+      ...study.stack,
+      front: { ...study.stack.front, texture: front },
+      rear: isIdealRear(rear) ? rear : { ...rear, texture: this.one(rear.texture) },
+    };
+    return { ...study, stack };
+  }
+
+  private one(t: TextureSpec): TextureSpec {
+    const key = JSON.stringify(t);
+    const known = this.seen.get(key);
+    if (known !== undefined) return known;
+    if (this.seen.size >= 256) this.seen.clear();
+    this.seen.set(key, t);
+    return t;
+  }
 }
 
 /** Runs fn; an error is re-thrown with the task's coordinates in front. */

@@ -2,7 +2,14 @@ import { availableParallelism } from "node:os";
 import { Piscina } from "piscina";
 import { InputError } from "../util/errors.js";
 import { workerFile } from "./workerPath.js";
+import type { Study } from "../study/studyTypes.js";
 import type { TraceMessage, TraceResult, WorkerSetup } from "./traceTask.js";
+
+/** What the sweep runner needs of a pool: its size and a way to run a message. */
+export interface TraceRunner {
+  readonly nWorkers: number;
+  run(msg: TraceMessage): Promise<TraceResult>;
+}
 
 /**
  * Threads to use by default: what Slurm grants the task (SLURM_CPUS_PER_TASK) when set, otherwise
@@ -40,6 +47,14 @@ export class TracePool {
 
   run(msg: TraceMessage): Promise<TraceResult> {
     return this.pool.run(msg);
+  }
+
+  /**
+   * The same threads tracing other studies of the same study file (same user materials and base
+   * folder): every message carries the variant, whose key must name its content (a study hash).
+   */
+  forVariant(key: string, studies: Study[]): TraceRunner {
+    return { nWorkers: this.nWorkers, run: (msg) => this.pool.run({ ...msg, variant: { key, studies } }) };
   }
 
   async close(): Promise<void> {

@@ -24,6 +24,16 @@ export interface TraceItem {
 /** A task message: several items, traced in order. */
 export interface TraceMessage {
   items: TraceItem[];
+  /**
+   * Studies to trace instead of the pool's own (index = combo), under a key naming their content
+   * (a study hash): one pool serves many variants of a study, e.g. an optimiser's evaluations.
+   */
+  variant?: TraceVariant;
+}
+
+export interface TraceVariant {
+  key: string;
+  studies: Study[];
 }
 
 /** Cloned once into every worker thread (piscina workerData). */
