@@ -124,3 +124,41 @@ describe("replica study (planar ARC, few rays)", () => {
     expect(Math.abs(covered / K - level) / Math.sqrt((level * (1 - level)) / K)).toBeLessThan(4);
   });
 });
+
+describe("optimize over a study: wafer thickness", () => {
+  it("Jsc rises monotonically with the wafer thickness, so the optimum stops at the upper bound, flagged", async () => {
+    // Beer–Lambert: a thicker wafer absorbs more of the weakly absorbed near-band-edge light (any
+    // photovoltaics text, e.g. Green, Solar Cells, ch. 1); nothing else in the stack changes.
+    const base: StudyDocument = {
+      doc: {
+        name: "wafer",
+        stack: {
+          front: { texture: { type: "planar" }, films: [{ material: "SiNx", thicknessNm: 75 }] },
+          absorber: { material: "Si", thicknessUm: 180 },
+          rear: { texture: { type: "planar" }, films: [], exit: "Ag" },
+        },
+        grid: { thetaDeg: [0], phiDeg: [0], wavelengthNm: [900, 950, 1000, 1050, 1100] },
+        rays: { perPoint: 1000, batch: 50 },
+        seed: 5,
+      },
+      baseDir: process.cwd(),
+      path: "(test)",
+    };
+    const W = { path: "absorber.thicknessUm", lower: 60, upper: 300, unit: "µm" };
+    const { objective } = studyObjective({ base, params: [W], objective: JSC, pool });
+    const r = await optimize(objective, { lower: [60], upper: [300], replicas: 3 });
+    expect(r.atBound).toEqual(["upper"]);
+    expect(r.location[0]).toBeGreaterThan(295);
+    expect(r.locationInterval[0][1]).toBe(300);
+  });
+
+  it("an evaluation on the shared pool equals a sweep of the same study on its own pool, bit for bit", async () => {
+    const { runSweep } = await import("../../src/sweep/runSweep.js");
+    const o = { base: arcDocument(500), params: [ARC], objective: JSC };
+    const study = evaluationStudy(o, [81.5], 2);
+    const own = await runSweep({ study, workers: 1 });
+    const shared = await runSweep({ study, pool: pool.forVariant(study.combos[0].hash, [study.combos[0].study]) });
+    expect(Array.from(shared.matrices[0].mean)).toEqual(Array.from(own.matrices[0].mean));
+    expect(Array.from(shared.matrices[0].stderr)).toEqual(Array.from(own.matrices[0].stderr));
+  });
+});
