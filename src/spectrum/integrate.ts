@@ -20,3 +20,19 @@ export function totalIrradianceWm2(
   }
   return s;
 }
+
+/**
+ * ∫ y dx over [a, b] of the piecewise-linear interpolant through (x, y) (exact for that interpolant;
+ * parts of [a, b] outside the nodes count as zero).
+ */
+export function bandIntegral(x: ArrayLike<number>, y: ArrayLike<number>, a: number, b: number): number {
+  let s = 0;
+  for (let i = 1; i < x.length; i++) {
+    const x0 = x[i - 1]!, x1 = x[i]!;
+    const lo = Math.max(a, x0), hi = Math.min(b, x1);
+    if (hi <= lo) continue;
+    const at = (v: number): number => y[i - 1]! + ((y[i]! - y[i - 1]!) * (v - x0)) / (x1 - x0);
+    s += 0.5 * (hi - lo) * (at(lo) + at(hi));
+  }
+  return s;
+}
