@@ -1,7 +1,7 @@
 import { parseJsonInput, readInputText } from "../util/inputFile.js";
 import { writeFileAtomic } from "../util/atomicWrite.js";
-import { InputError } from "../util/errors.js";
-import { RESPONSE_FORMAT, RESPONSE_FORMAT_VERSION, type ResponseMatrix } from "./responseMatrix.js";
+import type { ResponseMatrix } from "./responseMatrix.js";
+import { validateMatrix } from "./validateMatrix.js";
 
 const ARRAY_FIELDS = ["mean", "stderr", "nRays", "pathRatio"] as const;
 
@@ -12,31 +12,9 @@ export function matrixToJson(m: ResponseMatrix): string {
   return JSON.stringify(plain);
 }
 
-/** Parses and checks a matrix file's text; `source` names the file in errors. */
+/** Parses and checks a matrix file's text (validateMatrix); `source` names the file in errors. */
 export function matrixFromJson(text: string, source: string): ResponseMatrix {
-  const raw = parseJsonInput(text, source) as Record<string, unknown>;
-  if (raw.format !== RESPONSE_FORMAT) {
-    throw new InputError(`${source}: not a lightfold response matrix (format is ${JSON.stringify(raw.format)}, expected "${RESPONSE_FORMAT}")`);
-  }
-  if (typeof raw.formatVersion !== "number" || raw.formatVersion > RESPONSE_FORMAT_VERSION) {
-    throw new InputError(`${source}: matrix format version ${String(raw.formatVersion)} is newer than this lightfold reads (${RESPONSE_FORMAT_VERSION})`);
-  }
-  const m = raw as unknown as ResponseMatrix;
-  const nPoints = m.thetaDeg.length * m.phiDeg.length * m.wavelengthNm.length;
-  const sizes: Record<(typeof ARRAY_FIELDS)[number], number> = {
-    mean: nPoints * m.channels.length,
-    stderr: nPoints * m.channels.length,
-    nRays: nPoints,
-    pathRatio: nPoints,
-  };
-  for (const f of ARRAY_FIELDS) {
-    const arr = raw[f];
-    if (!Array.isArray(arr) || arr.length !== sizes[f]) {
-      throw new InputError(`${source}: field "${f}" must be an array of ${sizes[f]} numbers`);
-    }
-    (m as unknown as Record<string, Float64Array>)[f] = Float64Array.from(arr as number[]);
-  }
-  return m;
+  return validateMatrix(parseJsonInput(text, source), source);
 }
 
 export function readResponseMatrix(path: string): ResponseMatrix {

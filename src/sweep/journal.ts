@@ -24,8 +24,8 @@ export type PointKey = [number, number, number, number];
  * Both record `planned`, the point's batch count at the time (target-error decisions so far).
  */
 export type JournalEntry =
-  | { kind: "prefix"; point: PointKey; nBatches: number; planned: number; nRays: number; tally: Float64Array }
-  | { kind: "batch"; point: PointKey; batch: number; planned: number; nRays: number; tally: Float64Array };
+  | { kind: "prefix"; point: PointKey; nBatches: number; planned: number; nRays: number; tally: Float64Array; line?: number }
+  | { kind: "batch"; point: PointKey; batch: number; planned: number; nRays: number; tally: Float64Array; line?: number };
 
 export interface JournalContents {
   header: JournalHeader | undefined;
@@ -102,7 +102,7 @@ export function readJournal(path: string): JournalContents {
     }
     const e = o === undefined ? undefined : asEntry(o);
     if (e === undefined) damagedLines.push(i + 1);
-    else entries.push(e);
+    else entries.push({ ...e, line: i + 1 });
   });
   return { header, entries, damagedLines };
 }

@@ -1,4 +1,5 @@
-import { existsSync, mkdirSync } from "node:fs";
+import { existsSync, mkdirSync, statSync } from "node:fs";
+import { InputError } from "../util/errors.js";
 import { dirname } from "node:path";
 import { JournalWriter, readJournal, setJournalAside, type JournalEntry, type JournalHeader } from "./journal.js";
 import { maxBatches, pointId, raysInBatches, batchRays } from "./plan.js";
@@ -6,20 +7,28 @@ import { foldPending, journalEntriesOf } from "./pointState.js";
 import type { SweepRun } from "./sweepRun.js";
 import { journalPath } from "./sweepPaths.js";
 import { tallyLength } from "./tally.js";
+import { storedTallyProblem } from "./tallyChecks.js";
 
 type Prefix = JournalEntry & { kind: "prefix" };
 type Batch = JournalEntry & { kind: "batch" };
 
-/** Point number of an entry that fits the plan (grid, shard, tally length, ray counts), else undefined. */
-function fittingPoint(run: SweepRun, e: JournalEntry): number | undefined {
+/**
+ * Point number of an entry that fits the plan (grid, shard, tally length, ray counts) and whose
+ * tally is sound (the checks of a tally read from disk: a line resealed after editing is caught
+ * here), else the reason it is refused.
+ */
+function fittingPoint(run: SweepRun, e: JournalEntry): number | string {
   const { grid, rays, combos } = run.plan;
   const [combo, it, ip, il] = e.point;
-  if (combo >= combos.length || it >= grid.thetaDeg.length || ip >= grid.phiDeg.length || il >= grid.wavelengthNm.length) return undefined;
+  if (combo >= combos.length || it >= grid.thetaDeg.length || ip >= grid.phiDeg.length || il >= grid.wavelengthNm.length) return "point outside the study's grid";
   const p = pointId(grid, { combo, it, ip, il });
   const nCh = combos[combo].channels.length;
-  if (!run.states.has(p) || e.tally.length !== tallyLength(nCh) || e.tally[2 * nCh] !== e.nRays || e.planned > maxBatches(rays)) return undefined;
-  if (e.kind === "prefix") return raysInBatches(rays, 0, e.nBatches) === e.nRays && e.nBatches <= e.planned ? p : undefined;
-  return e.nRays === batchRays(rays, e.batch) && e.batch < e.planned ? p : undefined;
+  if (!run.states.has(p)) return "point of another shard";
+  if (e.tally.length !== tallyLength(nCh)) return `tally of ${e.tally.length} values, expected ${tallyLength(nCh)}`;
+  if (e.planned > maxBatches(rays)) return `${e.planned} planned batches, more than the plan's ${maxBatches(rays)}`;
+  const expected = e.kind === "prefix" ? raysInBatches(rays, 0, e.nBatches) : batchRays(rays, e.batch);
+  if (e.nRays !== expected || (e.kind === "prefix" ? e.nBatches > e.planned : e.batch >= e.planned)) return `${e.nRays} rays, expected ${expected}`;
+  return storedTallyProblem(e.tally, nCh, e.nRays) ?? p;
 }
 
 /**
@@ -27,12 +36,15 @@ function fittingPoint(run: SweepRun, e: JournalEntry): number | undefined {
  * entries beyond it. Entries that do not fit the plan are ignored (their tasks run again).
  * Returns the entries of the compacted journal (one prefix per point + pending batches).
  */
-export function resumeFromEntries(run: SweepRun, entries: JournalEntry[]): JournalEntry[] {
+export function resumeFromEntries(run: SweepRun, entries: JournalEntry[], refused: string[] = []): JournalEntry[] {
   const best = new Map<number, Prefix>();
   const loose = new Map<number, Map<number, Batch>>();
   for (const e of entries) {
     const p = fittingPoint(run, e);
-    if (p === undefined) continue;
+    if (typeof p === "string") {
+      refused.push(`line ${e.line ?? "?"}: ${p}`);
+      continue;
+    }
     if (e.kind === "prefix") {
       if ((best.get(p)?.nBatches ?? 0) < e.nBatches) best.set(p, e);
     } else {
@@ -95,6 +107,7 @@ export function openRunJournal(run: SweepRun, outDir: string, fresh: boolean, no
   let kept: JournalEntry[] = [];
   let damaged: number[] = [];
   if (existsSync(jPath)) {
+    if (!statSync(jPath).isFile()) throw new InputError(`${jPath}: the run's journal is not a regular file; move it away or choose another --out`);
     const old = readJournal(jPath);
     const mismatch = headerMismatch(old.header, header);
     if (mismatch !== undefined || fresh) {
@@ -104,9 +117,11 @@ export function openRunJournal(run: SweepRun, outDir: string, fresh: boolean, no
       notice(fresh ? `journal set aside as ${aside}; starting afresh` : `journal ${jPath} ${whose}; set aside as ${aside}, starting afresh`);
     } else {
       damaged = old.damagedLines;
-      kept = resumeFromEntries(run, old.entries);
+      const refused: string[] = [];
+      kept = resumeFromEntries(run, old.entries, refused);
       notice(`resuming from ${jPath}: ${run.tasksResumed} finished tasks kept` +
-        (damaged.length > 0 ? `; ${damaged.length} damaged line(s) (line ${damaged.slice(0, 5).join(", ")}${damaged.length > 5 ? ", …" : ""}) ignored, their tasks are traced again` : ""));
+        (damaged.length > 0 ? `; ${damaged.length} damaged line(s) (line ${damaged.slice(0, 5).join(", ")}${damaged.length > 5 ? ", …" : ""}) ignored, their tasks are traced again` : "") +
+        (refused.length > 0 ? `; ${refused.length} line(s) refused as unsound (${refused.slice(0, 3).join("; ")}${refused.length > 3 ? "; …" : ""}), their tasks are traced again` : ""));
     }
   }
   return { journal: JournalWriter.start(jPath, header, kept), damaged };

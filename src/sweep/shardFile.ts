@@ -1,7 +1,12 @@
-import { readFileSync } from "node:fs";
+import { statSync } from "node:fs";
 import { writeFileAtomic } from "../util/atomicWrite.js";
 import { InputError } from "../util/errors.js";
-import type { ShardSpec, SweepPlan } from "./plan.js";
+import { parseJsonInput, readInputText } from "../util/inputFile.js";
+import { at, int, num, numbers, obj, refuse, type Where } from "../util/untrustedJson.js";
+import { pointCoords, totalPoints, type ShardSpec, type SweepPlan } from "./plan.js";
+import { validatePlan } from "./planCheck.js";
+import { tallyLength } from "./tally.js";
+import { finishedRaysProblem, storedTallyProblem } from "./tallyChecks.js";
 
 export const SHARD_FORMAT = "lightfold.shard";
 export const SHARD_FORMAT_VERSION = 1;
@@ -24,21 +29,47 @@ export function writeShardPartial(path: string, s: ShardPartial): void {
   writeFileAtomic(path, JSON.stringify({ ...s, tallies: s.tallies.map((t) => Array.from(t)) }));
 }
 
+/**
+ * Reads a shard output as untrusted: the plan field by field (combination labels confined to plain
+ * folder names), points inside the plan, and every tally sound (finite, non-negative, channels
+ * summing to the ray count, the plan's ray count). A file that fails is refused with the reason.
+ */
 export function readShardPartial(path: string): ShardPartial {
-  let raw: Record<string, unknown>;
-  try {
-    raw = JSON.parse(readFileSync(path, "utf8")) as Record<string, unknown>;
-  } catch (err) {
-    throw new InputError(`${path}: cannot read shard output (${(err as Error).message})`);
+  if (statSync(path, { throwIfNoEntry: false })?.isFile() !== true) throw new InputError(`${path}: not a shard output file (partial.json)`);
+  const text = readInputText(path, "shard output", "give the partial.json a `lightfold sweep --shard K/N` run wrote");
+  return validateShardPartial(parseJsonInput(text, path), path);
+}
+
+export function validateShardPartial(raw: unknown, file: string): ShardPartial {
+  const root: Where = { file, path: "" };
+  const o = obj(raw, root);
+  if (o.format !== SHARD_FORMAT) throw new InputError(`${file}: not a lightfold shard output (format ${JSON.stringify(o.format)}, expected "${SHARD_FORMAT}")`);
+  if (typeof o.formatVersion !== "number" || o.formatVersion > SHARD_FORMAT_VERSION) {
+    throw new InputError(`${file}: shard format version ${String(o.formatVersion)} is newer than this lightfold reads`);
   }
-  if (raw.format !== SHARD_FORMAT) throw new InputError(`${path}: not a lightfold shard output (format ${JSON.stringify(raw.format)})`);
-  if (typeof raw.formatVersion !== "number" || raw.formatVersion > SHARD_FORMAT_VERSION) {
-    throw new InputError(`${path}: shard format version ${String(raw.formatVersion)} is newer than this lightfold reads`);
-  }
-  const points = raw.points as number[];
-  const tallies = raw.tallies as number[][];
-  if (!Array.isArray(points) || !Array.isArray(tallies) || points.length !== tallies.length) {
-    throw new InputError(`${path}: points and tallies must be lists of the same length`);
-  }
-  return { ...(raw as unknown as ShardPartial), tallies: tallies.map((t) => Float64Array.from(t)) };
+  const s = obj(o.shard, at(root, "shard"));
+  const count = int(s.count, at(at(root, "shard"), "count"), 1, 1_000_000);
+  const shard = { index: int(s.index, at(at(root, "shard"), "index"), 1, count), count };
+  const plan = validatePlan(o.plan, at(root, "plan"));
+  const points = numbers(o.points, at(root, "points"), { integer: true, min: 0, max: totalPoints(plan) - 1, increasing: true });
+  if (!Array.isArray(o.tallies) || o.tallies.length !== points.length) refuse(at(root, "tallies"), `a list of ${points.length} tallies (one per point)`, o.tallies);
+  const tallies = points.map((p, i) => {
+    const nCh = plan.combos[pointCoords(plan.grid, p).combo]!.channels.length;
+    const w = at(at(root, "tallies"), i);
+    const t = Float64Array.from(numbers((o.tallies as unknown[])[i], w, { length: tallyLength(nCh) }));
+    const nRays = t[2 * nCh]!;
+    const problem = finishedRaysProblem(plan.rays, nRays) ?? storedTallyProblem(t, nCh, nRays);
+    if (problem !== undefined) refuse(w, `a sound tally of point ${p}; ${problem}`);
+    return t;
+  });
+  return {
+    format: SHARD_FORMAT,
+    formatVersion: o.formatVersion,
+    shard,
+    plan,
+    points,
+    tallies,
+    raysTraced: num(o.raysTraced, at(root, "raysTraced"), 0),
+    wallS: num(o.wallS, at(root, "wallS"), 0),
+  };
 }

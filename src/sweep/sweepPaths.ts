@@ -1,4 +1,5 @@
 import { join } from "node:path";
+import { insideDir, requireSafeSegment } from "../util/safePath.js";
 import type { ShardSpec } from "./plan.js";
 
 /** File layout of a run directory (docs/contracts.md, Run directory). */
@@ -6,8 +7,10 @@ export function runJsonPath(outDir: string): string {
   return join(outDir, "run.json");
 }
 
+/** A combination's matrix; the label must be a plain folder name and the path stays inside outDir. */
 export function matrixPath(outDir: string, comboLabel: string): string {
-  return join(outDir, comboLabel, "matrix.json");
+  requireSafeSegment(comboLabel, "combination label");
+  return insideDir(outDir, join(outDir, comboLabel, "matrix.json"));
 }
 
 export function shardDir(outDir: string, shard: ShardSpec): string {

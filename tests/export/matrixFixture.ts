@@ -28,6 +28,8 @@ export function smallMatrix(): ResponseMatrix {
     nRays[p] = 2000 + p;
     pathRatio[p] = 1 + 3 * rng.next();
   }
+  // Point 1 keeps its channels summing to 1: what channels 1 and 2 give up goes to R.
+  mean[4] += mean[5] + mean[6] - 1e-300;
   mean[5] = 0; // exact zero
   stderr[5] = 0;
   mean[6] = 1e-300; // tiny normal double

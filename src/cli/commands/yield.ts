@@ -10,10 +10,11 @@ import { yearContext } from "../../yield/yearContext.js";
 import { formatYieldTable, hourlyCsv, matrixInfo, yieldJson } from "../../yield/yieldJson.js";
 import { bestPlane, prepareMatrix, yieldSweep } from "../../yield/yieldRun.js";
 import { readWeatherInput, siteAndWeather } from "../weatherInput.js";
+import { slugOf } from "../../util/safePath.js";
 
-/** File-name-safe form of a site name. */
+/** File-name-safe form of a site name (at most 60 characters: a long name must not overflow a file name). */
 export function slug(name: string): string {
-  return name.normalize("NFKD").replace(/[^\w]+/g, "-").replace(/^-+|-+$/g, "").toLowerCase() || "site";
+  return slugOf(name, 60, "site");
 }
 
 interface YieldOpts extends YearPlaneFlags, ResultFlags {

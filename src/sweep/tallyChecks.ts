@@ -1,0 +1,38 @@
+import { initialBatches, maxBatches } from "./plan.js";
+import { tallyProblem } from "./tally.js";
+import type { RaysPlan } from "../study/studyTypes.js";
+
+/** Relative slack for the inequalities below (sums of up to 10¹² doubles). */
+const SLACK = 1e-9;
+
+/**
+ * Problem of a tally read back from disk (shard output or journal line), or undefined when sound.
+ * Beyond the checks every fresh task's tally passes (tallyProblem: finite, ray count, channel sums
+ * = rays within 1e-9), each ray's channel weights lie in [0, 1] (they sum to 1 per ray), so per
+ * channel 0 ≤ Σw² ≤ Σw and Σw² ≥ (Σw)²/n (Cauchy–Schwarz); path sums and event counts are ≥ 0.
+ */
+export function storedTallyProblem(t: Float64Array, nChannels: number, nRays: number): string | undefined {
+  const basic = tallyProblem(t, nChannels, nRays);
+  if (basic !== undefined) return basic;
+  const n = nRays;
+  for (let c = 0; c < nChannels; c++) {
+    const s = t[2 * c]!, q = t[2 * c + 1]!;
+    if (s < 0 || q < 0) return `channel ${c} has a negative sum (${s}, ${q})`;
+    if (q > s * (1 + SLACK) + SLACK) return `channel ${c}: sum of squares ${q} exceeds the sum ${s} (weights are at most 1)`;
+    if (n > 0 && q * n < s * s * (1 - SLACK) - SLACK) return `channel ${c}: sum of squares ${q} is below (sum)²/n = ${(s * s) / n}`;
+  }
+  for (let i = 2 * nChannels + 1; i < t.length; i++) if (t[i]! < 0) return `tally entry ${i} is negative (${t[i]})`;
+  return undefined;
+}
+
+/**
+ * Whether a finished point's ray count fits the plan: the fixed count, or in target-error mode a
+ * whole number of batches from the first look (or the cap) up to the cap.
+ */
+export function finishedRaysProblem(rays: RaysPlan, nRays: number): string | undefined {
+  if (rays.mode === "fixed") return nRays === rays.perPoint ? undefined : `${nRays} rays, expected the plan's ${rays.perPoint}`;
+  const cap = rays.maxPerPoint;
+  const least = Math.min(cap, initialBatches(rays) * rays.batch);
+  const whole = nRays === cap || (nRays % rays.batch === 0 && nRays / rays.batch <= maxBatches(rays));
+  return nRays >= least && nRays <= cap && whole ? undefined : `${nRays} rays, expected whole batches of ${rays.batch} from ${least} to ${cap}`;
+}
