@@ -39,6 +39,8 @@ export interface StudyObjectiveOptions {
   pool: TracePool;
   outDir?: string;
   rays?: RaysPlan;
+  /** Set matching evaluation journals aside instead of resuming from them. */
+  fresh?: boolean;
   onNotice?: (message: string) => void;
   onProgress?: (p: SweepProgress) => void;
 }
@@ -106,6 +108,7 @@ export function studyObjective(o: StudyObjectiveOptions): { objective: Objective
       pool: o.pool.forVariant(combo.hash, [combo.study]),
       raysPerMessage: messageRays(combo.study, o.pool.nWorkers),
       ...(o.outDir !== undefined ? { outDir: join(o.outDir, "evaluations", tag) } : {}),
+      fresh: o.fresh === true,
       onNotice: o.onNotice,
       onProgress: o.onProgress,
     });

@@ -1,7 +1,8 @@
 /** Builds every plot of the report from its typed inputs (pure: strings of SVG). */
 import { CH_ABSORBER } from "../response/responseMatrix.js";
 import { channelGroup, channelLabel } from "./channels.js";
-import type { ConvergenceSeries, StackEntry, TiltSweep, YieldEntry } from "./inputs.js";
+import { quadraticAt } from "../optimize/quadraticFit.js";
+import type { ConvergenceSeries, OptimumEntry, StackEntry, TiltSweep, YieldEntry } from "./inputs.js";
 import { channelMap, channelSpectra, thetaIndex } from "./spectralBreakdown.js";
 import { barChart } from "./svg/barChart.js";
 import { heatMap } from "./svg/heatMap.js";
@@ -260,5 +261,63 @@ export function parameterSweepFigure(stacks: StackEntry[], angleDeg: number): Fi
     y: { label: "absorber photocurrent (mA/cm²)", headroom: 0.1 },
     series,
     marks: b ? [{ x: b.x, y: b.y, label: `best ${b.x}`, colour: seriesColour(b.i) }] : [],
+  });
+}
+
+/** Fitted local polynomial of an optimisation along parameter d through the design centre. */
+function optimumCurve(o: OptimumEntry, d: number): { x: number[]; y: number[] } {
+  const q = { dims: o.parameters.length as 1 | 2, coef: o.design.pooledCoef, centre: o.design.centre, halfWidth: o.design.halfWidth };
+  const x: number[] = [];
+  const y: number[] = [];
+  if (q.coef.length === 0) return { x, y };
+  for (let k = 0; k <= 60; k++) {
+    const at = o.design.centre.slice();
+    at[d] = o.design.centre[d]! + o.design.halfWidth[d]! * (2 * k / 60 - 1);
+    x.push(at[d]!);
+    y.push(quadraticAt(q, at));
+  }
+  return { x, y };
+}
+
+/**
+ * The objective vs each optimised parameter: the search evaluations (one random stream), the local
+ * design's replica means ± standard error, the fitted polynomial, and the optimum with its interval
+ * (a pale bar at the optimum's value). Two parameters: one plot per parameter, through the design centre.
+ */
+export function optimumFigures(o: OptimumEntry, index: number): Figure[] {
+  const pct = `${Math.round(o.level * 100)} %`;
+  return o.parameters.map((p, d) => {
+    const other = o.parameters.length === 2 ? 1 - d : -1;
+    const onSlice = (x: number[]) => other < 0 || Math.abs(x[other]! - o.design.centre[other]!) <= 1e-9 * (o.parameters[other]!.upper - o.parameters[other]!.lower);
+    const series: LineSeries[] = [];
+    const search = o.search.filter((e) => onSlice(e.x)).sort((a, b) => a.x[d]! - b.x[d]!);
+    if (search.length > 0) {
+      series.push({ label: "search (one random stream)", x: search.map((e) => e.x[d]!), y: search.map((e) => e.value), yErr: search.map((e) => e.stderr), markers: true, colour: GUIDE_GREY, dashed: true });
+    }
+    const idx = o.design.points.map((x, i) => ({ x, i })).filter(({ x }) => onSlice(x)).sort((a, b) => a.x[d]! - b.x[d]!);
+    series.push({
+      label: `local design, mean of ${o.replicas} replicas ± s.e.`,
+      x: idx.map(({ x }) => x[d]!),
+      y: idx.map(({ i }) => o.design.mean[i]!),
+      yErr: idx.map(({ i }) => o.design.stderr[i]!),
+      markers: true,
+      colour: seriesColour(0),
+    });
+    const curve = optimumCurve(o, d);
+    if (curve.x.length > 0) series.push({ label: "fitted polynomial", ...curve, colour: seriesColour(1) });
+    const [lo, hi] = o.locationInterval[d]!;
+    series.push({ label: `${pct} interval of the optimum`, x: [lo, hi], y: [o.value, o.value], guide: true, colour: seriesColour(2) });
+    const unit = p.unit ? ` (${p.unit})` : "";
+    const flag = o.atBound[d] ? ` — at the ${o.atBound[d]} bound` : "";
+    const id = `optimum-${index + 1}-${slug(p.path)}`;
+    const title = `${o.objectiveName} vs ${p.path}`;
+    return figure(id, title, linePlot, {
+      subtitle: `${o.studyName} · optimum ${o.location[d]!.toPrecision(5)}${p.unit ? " " + p.unit : ""}, ${pct} interval [${lo.toPrecision(5)}, ${hi.toPrecision(5)}]${flag}`,
+      width: 660,
+      x: { label: `${p.path}${unit}`, tight: true, padding: 0.04 },
+      y: { label: `${o.objectiveName} (${o.unit})`, headroom: 0.1 },
+      series,
+      marks: [{ x: o.location[d]!, y: o.value, label: "optimum", colour: seriesColour(2) }],
+    });
   });
 }

@@ -108,6 +108,31 @@ export interface BenefitRow {
   stderrPct: number;
 }
 
+/** One design optimisation (optimum.json from `lightfold optimize`). */
+export interface OptimumEntry {
+  source: string;
+  studyName: string;
+  objectiveName: string;
+  unit: string;
+  description: string;
+  level: number;
+  replicas: number;
+  parameters: { path: string; unit: string; lower: number; upper: number }[];
+  location: number[];
+  locationStdErr: number[];
+  locationInterval: [number, number][];
+  /** Per parameter: "lower", "upper" or null. */
+  atBound: (string | null)[];
+  value: number;
+  valueStdErr: number;
+  valueInterval: [number, number];
+  /** Evaluations on the search stream (one seed for all). */
+  search: { x: number[]; value: number; stderr: number }[];
+  /** The local design: replica means ± standard error, and the polynomial fitted to them. */
+  design: { centre: number[]; halfWidth: number[]; points: number[][]; mean: number[]; stderr: number[]; pooledCoef: number[] };
+  cost: { evaluations: number; raysTraced: number; wallS: number };
+}
+
 export interface ReportInput {
   /** Page title (study names joined); escaped. */
   title: string;
@@ -121,6 +146,7 @@ export interface ReportInput {
   yields: YieldEntry[];
   tiltSweeps: TiltSweep[];
   benefit: BenefitRow[];
+  optima: OptimumEntry[];
   /** Remarks about what was read or skipped (e.g. a malformed optional file); shown at the top. */
   notes: string[];
 }

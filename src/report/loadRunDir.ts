@@ -6,6 +6,7 @@ import { InputError } from "../util/errors.js";
 import { readInputText } from "../util/inputFile.js";
 import { toolVersion } from "../util/version.js";
 import { adaptConvergence } from "./adaptConvergence.js";
+import { adaptOptimum } from "./adaptOptimum.js";
 import { adaptPhotocurrent } from "./adaptPhotocurrent.js";
 import { adaptYieldFile } from "./adaptYield.js";
 import { parseJson, type Json } from "./fields.js";
@@ -68,6 +69,7 @@ function loadAll(runDirs: string[], opts: LoadOptions): ReportInput {
     yields: [],
     tiltSweeps: [],
     benefit: [],
+    optima: [],
     notes: [],
   };
   const studyNames: string[] = [];
@@ -107,6 +109,13 @@ function loadAll(runDirs: string[], opts: LoadOptions): ReportInput {
       input.convergence.push(...adaptConvergence(readJsonFile(convPath), convPath));
       found++;
     }
+    const optPath = join(dir, "optimum.json");
+    if (existsSync(optPath)) {
+      const o = adaptOptimum(readJsonFile(optPath), optPath);
+      input.optima.push(o);
+      if (!studyNames.includes(o.studyName)) studyNames.push(o.studyName);
+      found++;
+    }
     const yieldDir = join(dir, "yield");
     if (existsSync(yieldDir) && statSync(yieldDir).isDirectory()) {
       for (const f of readdirSync(yieldDir).filter((n) => n.endsWith(".json")).sort()) {
@@ -123,7 +132,7 @@ function loadAll(runDirs: string[], opts: LoadOptions): ReportInput {
       }
     }
     if (found === 0) {
-      throw new InputError(`${dir} holds no lightfold results (no run.json, <combo>/matrix.json, convergence.json or yield/*.json)`, "run `lightfold sweep <study> --out <dir>` first");
+      throw new InputError(`${dir} holds no lightfold results (no run.json, <combo>/matrix.json, convergence.json, optimum.json or yield/*.json)`, "run `lightfold sweep <study> --out <dir>` first");
     }
   }
   input.title = studyNames.length ? studyNames.join(" vs ") : runDirs.map((d) => basename(d)).join(", ");

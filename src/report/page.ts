@@ -5,6 +5,7 @@ import {
   convergenceFigure,
   iamFigure,
   monthlyFigure,
+  optimumFigures,
   parameterSweepFigure,
   responseMapFigure,
   spectralFigure,
@@ -12,7 +13,7 @@ import {
   yieldLabel,
   type Figure,
 } from "./figures.js";
-import type { BenefitRow, ReportInput, StackEntry } from "./inputs.js";
+import type { BenefitRow, OptimumEntry, ReportInput, StackEntry } from "./inputs.js";
 import { CHANNEL_COLOURS, parasiticColour } from "./svg/palette.js";
 import { REPORT_CSS } from "./style.js";
 
@@ -111,6 +112,21 @@ function yieldTable(input: ReportInput): string {
   return `<table class="yield"><thead><tr><th class="text">stack, tilt</th><th>year (A·h/m²)</th><th>plane-of-array (kWh/m²)</th><th>vs normal incidence (%)</th></tr></thead><tbody>${body}</tbody></table>`;
 }
 
+/** Optimum of one optimisation: each parameter with its interval and bound flag, then the objective. */
+function optimumTable(o: OptimumEntry): string {
+  const pct = `${Math.round(o.level * 100)} %`;
+  const sig = (v: number, se: number) => v.toFixed(se > 0 ? Math.max(0, Math.min(8, 1 - Math.floor(Math.log10(se)))) : 3);
+  let body = "";
+  o.parameters.forEach((p, d) => {
+    const se = o.locationStdErr[d]!;
+    const [lo, hi] = o.locationInterval[d]!;
+    body += html`<tr><td class="text"><code>${p.path}</code></td><td>${p.lower}–${p.upper} ${p.unit}</td><td><strong>${sig(o.location[d]!, se)}</strong></td><td>${sig(lo, se)} – ${sig(hi, se)}</td><td class="text">${o.atBound[d] ? `at the ${o.atBound[d]} bound: the optimum may lie beyond it` : ""}</td></tr>`;
+  });
+  body += html`<tr class="total"><td class="text">${o.objectiveName} (${o.unit})</td><td></td><td><strong>${sig(o.value, o.valueStdErr)}</strong></td><td>${sig(o.valueInterval[0], o.valueStdErr)} – ${sig(o.valueInterval[1], o.valueStdErr)}</td><td class="text">${`± ${sig(o.valueStdErr, o.valueStdErr)} s.e.`}</td></tr>`;
+  const caption = html`${o.studyName}: maximise ${o.description}`;
+  return `<table class="optimum"><caption>${caption}</caption><thead><tr><th class="text">parameter</th><th>bounds</th><th>optimum</th><th>${pct} interval</th><th class="text">note</th></tr></thead><tbody>${body}</tbody></table>`;
+}
+
 /** Renders the whole page and returns it with the figures (each also written as its own SVG). */
 export function renderReport(input: ReportInput): RenderedReport {
   const figures: Figure[] = [];
@@ -144,6 +160,18 @@ export function renderReport(input: ReportInput): RenderedReport {
     sections += `<section id="parameter-sweep"><h2>Parameter sweep</h2>`;
     sections += `<p class="lead">Absorber photocurrent of every combination of the swept study parameters; the highest is circled.</p>`;
     sections += use(sweepFig) + `</section>`;
+  }
+
+  // Design optimum (only with optimum.json from `lightfold optimize`)
+  if (input.optima.length > 0) {
+    sections += `<section id="optimum"><h2>Design optimum</h2>`;
+    sections += `<p class="lead">The parameter value that maximises the objective within its bounds. The search ran on one random stream (every evaluation traces the same rays, so differences are smooth); the interval comes from a polynomial fitted around the optimum on independent replicas (Student's t over their optima).</p>`;
+    input.optima.forEach((o, i) => {
+      sections += optimumTable(o);
+      sections += note(`${o.cost.evaluations} evaluations, ${o.cost.raysTraced.toExponential(2)} rays traced in ${o.cost.wallS.toFixed(1)} s.`);
+      sections += `<div class="row">${optimumFigures(o, i).map(use).join("")}</div>`;
+    });
+    sections += `</section>`;
   }
 
   // Angular response

@@ -13,6 +13,7 @@ import * as reportCmd from "./report.js";
 import * as weatherCmd from "./weather.js";
 import * as yieldCmd from "./yield.js";
 import * as compareCmd from "./compare.js";
+import * as optimizeCmd from "./optimize.js";
 
 /** A CLI verb: adds itself (options, help with examples, action) to the program. */
 export interface CommandModule {
@@ -20,4 +21,4 @@ export interface CommandModule {
 }
 
 // Each verb's module is listed here once; order = order in `lightfold --help`.
-export const commandModules: CommandModule[] = [checkCmd, traceCmd, sweepCmd, mergeCmd, materialsCmd, filmCmd, exportCmd, spectralCmd, convergeCmd, clusterCmd, reportCmd, weatherCmd, yieldCmd, compareCmd];
+export const commandModules: CommandModule[] = [checkCmd, traceCmd, sweepCmd, mergeCmd, materialsCmd, filmCmd, exportCmd, spectralCmd, convergeCmd, clusterCmd, reportCmd, weatherCmd, yieldCmd, compareCmd, optimizeCmd];
