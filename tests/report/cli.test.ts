@@ -31,7 +31,7 @@ describe("lightfold report", () => {
     expect(r.status).toBe(0);
     const j = JSON.parse(r.stdout) as { indexPath: string; files: string[]; omitted: string[] };
     expect(j.indexPath).toBe(join(out, "index.html"));
-    expect(j.files.length).toBe(9);
+    expect(j.files.length).toBe(10); // index.html + 9 plots (the optimum plot included)
     expect(j.omitted).toEqual([]);
   });
 

@@ -39,6 +39,7 @@ describe("renderReport(input) with user text that looks like markup", () => {
     expect(ids).toEqual([
       "spectral-1-script-alert-1-script",
       "spectral-2-planar-reference",
+      "optimum-1-front-films-0-thicknessnm",
       "response-map-1-script-alert-1-script",
       "response-map-2-planar-reference",
       "angular-modifier",

@@ -1,0 +1,92 @@
+import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { afterAll, describe, expect, it } from "vitest";
+import { runMain as run, ROOT } from "../helpers/cli.js";
+import type { OptimumDocument } from "../../src/optimize/optimumJson.js";
+
+const dir = mkdtempSync(join(tmpdir(), "lightfold-optimize-cli-"));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+const studyPath = join(dir, "arc.study.json");
+writeFileSync(
+  studyPath,
+  JSON.stringify({
+    name: "planar-arc",
+    stack: {
+      front: { texture: { type: "planar" }, films: [{ material: "SiNx", thicknessNm: 75 }] },
+      absorber: { material: "Si", thicknessUm: 180 },
+      rear: { texture: { type: "planar" }, films: [], exit: "Ag" },
+    },
+    grid: { thetaDeg: [0, 20, 40, 60, 80], phiDeg: [0], wavelengthNm: [450, 600, 750, 900] },
+    rays: { perPoint: 400, batch: 100 },
+    seed: 9,
+  }),
+);
+const PARAM = "front.films[0].thicknessNm=50:110";
+
+describe("lightfold optimize", () => {
+  const out = join(dir, "jsc");
+
+  it("prints the optimum with its interval, writes optimum.json and the plot", async () => {
+    const r = await run("optimize", studyPath, "--param", PARAM, "--replicas", "3", "--out", out, "--workers", "2", "--quiet");
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/parameter\s+bounds\s+optimum\s+95 % interval/);
+    expect(r.out).toMatch(/front\.films\[0\]\.thicknessNm\s+50–110 nm\s+\d+\.\d+ nm\s+\[/);
+    expect(r.out).toMatch(/Jsc at 0°\s+\d+\.\d+ mA\/cm²/);
+    const doc = JSON.parse(readFileSync(join(out, "optimum.json"), "utf8")) as OptimumDocument;
+    expect(doc.kind).toBe("lightfold.optimum");
+    expect(doc.result.locationInterval[0][0]).toBeLessThanOrEqual(doc.result.location[0]);
+    expect(doc.cost.raysTraced).toBe(doc.cost.evaluations * 4 * 400);
+    expect(readdirSync(join(out, "report")).some((f) => /^optimum-1-.*\.svg$/.test(f))).toBe(true);
+    expect(readFileSync(join(out, "report", "index.html"), "utf8")).toContain('id="optimum"');
+  });
+
+  it("a second run resumes every evaluation from its journal and gives the same optimum (--json)", async () => {
+    const first = JSON.parse(readFileSync(join(out, "optimum.json"), "utf8")) as OptimumDocument;
+    const r = await run("optimize", studyPath, "--param", PARAM, "--replicas", "3", "--out", out, "--workers", "1", "--quiet", "--json");
+    expect(r.code).toBe(0);
+    const again = JSON.parse(r.out) as OptimumDocument;
+    expect(again.cost.raysTraced).toBe(0);
+    expect(again.cost.raysResumed).toBe(first.cost.raysTraced);
+    expect(again.result.location).toEqual(first.result.location);
+    expect(again.result.locationInterval).toEqual(first.result.locationInterval);
+  });
+
+  it("--objective yield: the yearly charge at a sample site and tilt", async () => {
+    const o = join(dir, "yield");
+    const site = join(ROOT, "configs", "sites", "nordvik-fjell.site.json");
+    const r = await run("optimize", studyPath, "--param", PARAM, "--objective", "yield", "--site", site, "--tilt", "45", "--replicas", "3", "--out", o, "--quiet", "--no-report", "--json");
+    expect(r.code).toBe(0);
+    const doc = JSON.parse(r.out) as OptimumDocument;
+    expect(doc.objective.kind).toBe("yield");
+    expect(doc.objective.unit).toBe("A·h/m²");
+    expect(doc.objective.details.plane).toEqual({ tiltDeg: 45, azimuthDeg: 180, textureRotationDeg: 0 });
+    expect(doc.result.value).toBeGreaterThan(0);
+    expect(existsSync(join(o, "report"))).toBe(false);
+  });
+
+  it("--objective angles: a weighted mean over the listed angles", async () => {
+    const r = await run("optimize", studyPath, "--param", PARAM, "--objective", "angles", "--angles", "0:2,60:1", "--replicas", "3", "--out", join(dir, "angles"), "--quiet", "--no-report", "--json");
+    expect(r.code).toBe(0);
+    const doc = JSON.parse(r.out) as OptimumDocument;
+    expect(doc.objective.details).toMatchObject({ thetaDeg: [0, 60], weights: [2, 1] });
+    expect(doc.study.grid.nTheta).toBe(2);
+  });
+
+  it("bad input: one line + hint, exit 2, nothing written", async () => {
+    for (const args of [
+      ["--param", "front.films[0].thicknessNm=110:50"],
+      ["--param", "front.films[3].thicknessNm=50:110"],
+      ["--param", PARAM, "--objective", "best"],
+      ["--param", PARAM, "--objective", "angles"],
+      ["--param", PARAM, "--replicas", "2"],
+    ]) {
+      const o = join(dir, "never");
+      const r = await run("optimize", studyPath, ...args, "--out", o, "--quiet");
+      expect(r.code, args.join(" ")).toBe(2);
+      expect(r.err).toMatch(/^lightfold: /);
+      expect(existsSync(o)).toBe(false);
+    }
+  });
+});
