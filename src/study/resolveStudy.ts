@@ -4,9 +4,10 @@ import { parseRays, type RawRays } from "./rays.js";
 import { checkStudyDocument } from "./studySchema.js";
 import { parseSweep, substituteCombo, sweepCombinations, type SweepSpec } from "./sweepCombos.js";
 import type { SpectrumChoice, Study } from "./studyTypes.js";
+import { isBacksheet, isIdealRear, type StackSpec } from "./stackTypes.js";
 import { validateStack, type MaterialLookup, type ValidateStackOptions } from "./validateStack.js";
 
-export const STUDY_FIELDS = ["$schema", "name", "description", "materials", "stack", "grid", "rays", "seed", "sweep", "spectrum"] as const;
+export const STUDY_FIELDS = ["$schema", "name", "description", "materials", "stack", "grid", "rays", "seed", "sweep", "spectrum", "illumination"] as const;
 
 export interface ResolvedDocument {
   /** One study per combination (a single one without a sweep). */
@@ -27,6 +28,7 @@ interface RawStudy {
   seed: number;
   sweep?: Record<string, number[]>;
   spectrum?: SpectrumChoice;
+  illumination?: "front" | "rear" | "both";
 }
 
 /**
@@ -43,6 +45,8 @@ export function resolveStudyDocument(doc: unknown, registry: MaterialLookup | un
   const rays = parseRays(o.rays, "rays");
   const sweep = o.sweep === undefined ? {} : parseSweep(o.sweep, "sweep");
   const base = { name: o.name, description: o.description ?? "", materials, grid, rays, seed: o.seed, spectrum: o.spectrum ?? "AM1.5G" };
+  // front-only studies keep the field unset (their hash stays as before)
+  const lit = o.illumination === "rear" || o.illumination === "both" ? { illumination: o.illumination } : {};
 
   const comboValues = sweepCombinations(sweep);
   const studies = comboValues.map((values) => {
@@ -57,9 +61,20 @@ export function resolveStudyDocument(doc: unknown, registry: MaterialLookup | un
       }
       throw err;
     }
-    return { ...base, stack } satisfies Study;
+    if (lit.illumination) checkRearIllumination(stack);
+    return { ...base, ...lit, stack } satisfies Study;
   });
   return { studies, comboValues, sweep };
+}
+
+/** Light from the rear needs a way in: refuse ideal rear reflectors and back-sheets (a metal exit is refused at compile). */
+function checkRearIllumination(stack: StackSpec): void {
+  if (isIdealRear(stack.rear)) {
+    throw new InputError(`illumination: light from the rear needs a transparent rear, but stack.rear is an ideal reflector`, 'use "illumination": "front", or a real rear with a transparent exit');
+  }
+  if (stack.rearOuter && isBacksheet(stack.rearOuter)) {
+    throw new InputError(`illumination: light from the rear needs a transparent rear, but stack.rearOuter is a back-sheet`, 'use "illumination": "front", or "rearOuter": "air" for a glass-glass module');
+  }
 }
 
 /** Material entries with names used once (the catalogue checks each entry's fields). */

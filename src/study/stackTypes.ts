@@ -122,6 +122,26 @@ export type RearSpec = RearInterfaceSpec | RearIdealSpec;
 
 export type BoundaryKind = "periodic" | "mirror";
 
+/** A thick incoherent layer behind the absorber (rear encapsulant, rear glass), planar; nearest the absorber first. */
+export interface RearLayerSpec {
+  name: string;
+  material: string;
+  thicknessUm: number;
+  /** Coherent films on the layer's outer (rear) face, inside-out (first = nearest the layer). */
+  bottomFilms: FilmSpec[];
+}
+
+/** A diffusely reflecting back-sheet behind the last rear layer (reflectance as seen from that layer). */
+export interface BacksheetSpec {
+  /** A constant, or a table over wavelength (read from `csv` at study load; linear interpolation). */
+  reflectance: number | { csv: string; wavelengthNm?: Float64Array; values?: Float64Array };
+  /** Lambertian share of the reflected light; the rest is specular (1 = Lambertian). */
+  haze: number;
+}
+
+/** What lies behind the last rear layer: a transparent medium (air: glass–glass, bifacial) or a back-sheet. */
+export type RearOuterSpec = { medium: string } | { backsheet: BacksheetSpec };
+
 export interface StackSpec {
   incidence: string;
   layers: LayerSpec[];
@@ -129,6 +149,14 @@ export interface StackSpec {
   absorber: AbsorberSpec;
   rear: RearSpec;
   boundary: BoundaryKind;
+  /** Thick layers behind the absorber (absent: the rear interface's exit medium is the outside). */
+  rearLayers?: RearLayerSpec[];
+  /** Behind the last rear layer (only with rear layers; default air). */
+  rearOuter?: RearOuterSpec;
+}
+
+export function isBacksheet(o: RearOuterSpec): o is { backsheet: BacksheetSpec } {
+  return (o as { backsheet?: BacksheetSpec }).backsheet !== undefined;
 }
 
 export function isIdealRear(rear: RearSpec): rear is RearIdealSpec {

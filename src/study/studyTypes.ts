@@ -47,6 +47,8 @@ export interface Study {
   rays: RaysPlan;
   seed: number;
   spectrum: SpectrumChoice;
+  /** Light from the rear as well ("both": a rear matrix beside the front one) or only; unset = front only. */
+  illumination?: "rear" | "both";
 }
 
 /** One parameter-sweep combination: its label ("base" or "p0", "p1", ...) and substituted values. */

@@ -3,12 +3,15 @@ import { resolve } from "node:path";
 import { InputError } from "../util/errors.js";
 import { checkStudySchema } from "./studySchema.js";
 import { parseHeightMapCsv } from "../geometry/heightMapCsv.js";
+import { parseReflectanceCsv } from "./reflectanceCsv.js";
 import {
   DEFAULT_FACET_ANGLE_DEG,
   type BoundaryKind,
   type FilmSpec,
   type FrontSpec,
+  type BacksheetSpec,
   type LayerSpec,
+  type RearLayerSpec,
   type RearSpec,
   type StackSpec,
   type TextureSpec,
@@ -60,7 +63,58 @@ export function validateStack(
     },
     rear: rearSpec(ctx, o.rear, `${path}.rear`),
     boundary: o.boundary ?? "periodic",
+    ...rearLayersOf(ctx, o, path),
   };
+}
+
+/**
+ * Rear layers and what lies behind them. The rear interface's exit medium is the first rear layer,
+ * so `rear.exit` must name its material; names are unique among all layers (one A_layer channel each).
+ */
+function rearLayersOf(ctx: Ctx, o: RawStack, path: string): Pick<StackSpec, "rearLayers" | "rearOuter"> {
+  if (o.rearLayers === undefined || o.rearLayers.length === 0) {
+    if (o.rearOuter !== undefined) {
+      throw new InputError(`${path}.rearOuter: needs rear layers (stack.rearLayers) to stand behind`, 'add e.g. "rearLayers": [{ "material": "glass", "thicknessUm": 2000 }]');
+    }
+    return {};
+  }
+  if ("ideal" in o.rear) {
+    throw new InputError(`${path}.rearLayers: an ideal rear reflector has nothing behind it`, 'use a real rear: { "texture": …, "films": […], "exit": "<first rear layer material>" }');
+  }
+  if (o.rear.exit !== o.rearLayers[0]!.material) {
+    throw new InputError(
+      `${path}.rear.exit: expected ${JSON.stringify(o.rearLayers[0]!.material)}, the material of the first rear layer (the medium behind the rear interface), got ${JSON.stringify(o.rear.exit)}`,
+    );
+  }
+  const names = new Set((o.layers ?? []).map((l) => l.name ?? l.material));
+  const rearLayers: RearLayerSpec[] = o.rearLayers.map((l, i) => {
+    const p = `${path}.rearLayers[${i}]`;
+    const mat = material(ctx, l.material, `${p}.material`);
+    const name = l.name ?? mat;
+    if (names.has(name)) throw new InputError(`${p}.name: layer name ${JSON.stringify(name)} is used twice`, "give each layer (front and rear) its own name");
+    names.add(name);
+    return { name, material: mat, thicknessUm: l.thicknessUm, bottomFilms: filmList(ctx, l.bottomFilms, `${p}.bottomFilms`) };
+  });
+  const outer = o.rearOuter ?? "air";
+  if (typeof outer === "string") return { rearLayers, rearOuter: { medium: material(ctx, outer, `${path}.rearOuter`) } };
+  const bs = outer.backsheet;
+  const haze = bs.haze ?? 1;
+  if (typeof bs.reflectance === "number") return { rearLayers, rearOuter: { backsheet: { reflectance: bs.reflectance, haze } } };
+  return { rearLayers, rearOuter: { backsheet: { reflectance: reflectanceTable(ctx, bs.reflectance.csv, `${path}.rearOuter.backsheet.reflectance.csv`), haze } } };
+}
+
+/** A back-sheet reflectance table (wavelength_nm, reflectance 0–1), read when the study's folder is known. */
+function reflectanceTable(ctx: Ctx, csv: string, path: string): BacksheetSpec["reflectance"] {
+  const { baseDir, readText } = ctx.options;
+  if (baseDir === undefined && readText === undefined) return { csv };
+  const abs = resolve(baseDir ?? ".", csv);
+  let text: string;
+  try {
+    text = (readText ?? ((p: string) => readFileSync(p, "utf8")))(abs);
+  } catch (err) {
+    throw new InputError(`${path}: cannot read back-sheet reflectance ${abs}: ${(err as Error).message}`);
+  }
+  return { csv, ...parseReflectanceCsv(text, abs) };
 }
 
 /** The stack as the schema admits it (optional fields still unset). */
@@ -71,6 +125,8 @@ interface RawStack {
   absorber: { material?: string; thicknessUm: number };
   rear: { ideal: { kind: "mirror" | "lambertian"; reflectance?: number } } | { texture?: RawTexture; films?: FilmSpec[]; exit: string };
   boundary?: BoundaryKind;
+  rearLayers?: { name?: string; material: string; thicknessUm: number; bottomFilms?: FilmSpec[] }[];
+  rearOuter?: string | { backsheet: { reflectance: number | { csv: string }; haze?: number } };
 }
 type RawTexture = { type: TextureSpec["type"] } & Record<string, number | boolean | string | undefined>;
 

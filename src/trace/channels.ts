@@ -2,7 +2,8 @@ import { isIdealRear, type StackSpec } from "../study/stackTypes.js";
 
 /**
  * Channel names of a stack, in the order light meets them: R, per thick layer its top films and
- * its bulk, front films, the absorber, rear films, A_rear, T, unresolved. Every stack has R, T,
+ * its bulk, front films, the absorber, rear films, per rear layer its bulk and its bottom films,
+ * A_rear (metal exit, ideal reflector or back-sheet), T (escape behind the rear), unresolved. Every stack has R, T,
  * A_absorber, A_rear and unresolved (some may stay zero), so names do not depend on the wavelength.
  */
 export function channelNamesOfStack(stack: StackSpec): string[] {
@@ -14,6 +15,10 @@ export function channelNamesOfStack(stack: StackSpec): string[] {
   stack.front.films.forEach((f, i) => names.push(`A_film:front:${i}:${f.material}`));
   names.push("A_absorber");
   if (!isIdealRear(stack.rear)) stack.rear.films.forEach((f, i) => names.push(`A_film:rear:${i}:${f.material}`));
+  for (const layer of stack.rearLayers ?? []) {
+    names.push(`A_layer:${layer.name}`);
+    layer.bottomFilms.forEach((f, i) => names.push(`A_film:bottom:${layer.name}:${i}:${f.material}`));
+  }
   names.push("A_rear", "T", "unresolved");
   return names;
 }

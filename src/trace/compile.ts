@@ -4,8 +4,9 @@ import type { FilmLayer, NK } from "../optics/types.js";
 import type { Material } from "../materials/types.js";
 import { buildSurface } from "../geometry/textures.js";
 import { Q_LENGTH } from "../geometry/surfaceHit.js";
-import { planarTile, SURFACE_LAMBERTIAN, type SurfaceTile } from "../geometry/surfaceTile.js";
-import { isIdealRear, type BoundaryKind, type FilmSpec, type StackSpec, type TextureSpec } from "../study/stackTypes.js";
+import { planarTile, SURFACE_LAMBERTIAN, SURFACE_MESH, type SurfaceTile } from "../geometry/surfaceTile.js";
+import { isBacksheet, isIdealRear, type BacksheetSpec, type BoundaryKind, type FilmSpec, type StackSpec, type TextureSpec } from "../study/stackTypes.js";
+import { reflectanceAt } from "../study/reflectanceCsv.js";
 import { channelNamesOfStack } from "./channels.js";
 import {
   REAR_IDEAL_LAMBERTIAN,
@@ -68,10 +69,16 @@ export function compileStack(
   const channels = channelNamesOfStack(stack);
   const ch = (name: string): number => channels.indexOf(name);
   const nLayers = stack.layers.length;
-  const nMedia = nLayers + 2;
+  const rearLayers = stack.rearLayers ?? [];
+  const nRear = rearLayers.length;
+  const ABS = nLayers + 1;
+  const outerMedium = ABS + nRear + 1;
+  const nMedia = outerMedium + 1;
   const mediumNK: NK[] = [nkOf(stack.incidence, "incidence")];
   stack.layers.forEach((l, j) => mediumNK.push(nkOf(l.material, `layers[${j}].material`)));
   mediumNK.push(nkOf(stack.absorber.material, "absorber.material"));
+  rearLayers.forEach((l, j) => mediumNK.push(nkOf(l.material, `rearLayers[${j}].material`)));
+  mediumNK.push(outerNK(stack, nkOf));
   const mediumN = new Float64Array(nMedia);
   const mediumK = new Float64Array(nMedia);
   const mediumAlphaPerUm = new Float64Array(nMedia);
@@ -79,9 +86,10 @@ export function compileStack(
   for (let m = 0; m < nMedia; m++) {
     mediumN[m] = mediumNK[m].n;
     mediumK[m] = mediumNK[m].k;
-    // α = 4πk/λ (any optics text); λ in µm gives α in 1/µm.
-    mediumAlphaPerUm[m] = m === 0 ? 0 : (4 * Math.PI * mediumNK[m].k) / (wavelengthNm * 1e-3);
-    mediumChan[m] = m === 0 ? -1 : m === nMedia - 1 ? ch("A_absorber") : ch(`A_layer:${stack.layers[m - 1].name}`);
+    // α = 4πk/λ (any optics text); λ in µm gives α in 1/µm. The outside media do not absorb.
+    const outside = m === 0 || m === outerMedium;
+    mediumAlphaPerUm[m] = outside ? 0 : (4 * Math.PI * mediumNK[m].k) / (wavelengthNm * 1e-3);
+    mediumChan[m] = outside ? -1 : m === ABS ? ch("A_absorber") : m < ABS ? ch(`A_layer:${stack.layers[m - 1].name}`) : ch(`A_layer:${rearLayers[m - ABS - 1].name}`);
   }
   const tableRows = options.nCos ?? 1024;
 
@@ -115,11 +123,13 @@ export function compileStack(
   let rear: CompiledInterface | null = null;
   let rearTile: SurfaceTile = planarTile(1);
   let rearReflectance = 0;
+  let rearOpaque = true;
   const rearSpec = stack.rear;
   if (isIdealRear(rearSpec)) {
     rearKind = rearSpec.ideal.kind === "mirror" ? REAR_IDEAL_MIRROR : REAR_IDEAL_LAMBERTIAN;
     rearReflectance = rearSpec.ideal.reflectance;
   } else {
+    rearTile = surfaceOf(rearSpec.texture, stack.boundary, "stack.rear.texture");
     const rearFilms = films(rearSpec.films, "rear.films");
     const exitNK = nkOf(rearSpec.exit, "rear.exit");
     // A metal-like exit (k ≥ n, as the interface tables treat it) absorbs what enters it.
@@ -130,9 +140,12 @@ export function compileStack(
       nLower: exitNK.n,
       nFilms: rearFilms.length,
       filmChan0: rearFilms.length > 0 ? ch(`A_film:rear:0:${rearSpec.films[0].material}`) : -1,
-      lowerSinkChan: metal ? ch("A_rear") : ch("T"),
+      // A metal takes what enters it. Light entering a transparent exit ends as T at once only
+      // behind a planar rear; behind a texture it may meet a neighbouring facet again, so it goes on.
+      lowerSinkChan: metal ? ch("A_rear") : nRear === 0 && rearTile.kind !== SURFACE_MESH ? ch("T") : -1,
     };
-    rearTile = surfaceOf(rearSpec.texture, stack.boundary, "stack.rear.texture");
+    if (nRear > 0 && metal) throw new InputError(`stack.rear.exit: "${rearSpec.exit}" is a metal at ${wavelengthNm} nm; rear layers need a transparent medium behind the rear interface`);
+    rearOpaque = metal && nRear === 0;
   }
 
   // Layer planes: the bottom layer starts at the top of the front texture.
@@ -152,9 +165,44 @@ export function compileStack(
     );
   }
 
+  // Rear layers: planar, stacked below the rear texture's outermost points.
+  const rearBottomZUm = new Float64Array(nRear);
+  let zr = -thicknessUm - rearTile.zMaxUm;
+  for (let j = 0; j < nRear; j++) {
+    zr -= rearLayers[j].thicknessUm;
+    rearBottomZUm[j] = zr;
+  }
+  const outer = stack.rearOuter;
+  const backsheet = outer !== undefined && isBacksheet(outer) ? outer.backsheet : null;
+  const rearBottomInterfaces: (CompiledInterface | null)[] = rearLayers.map((l, j) => {
+    const below = ABS + j + 2;
+    if (j === nRear - 1 && backsheet) return null;
+    const f = films(l.bottomFilms, `rearLayers[${j}].bottomFilms`);
+    return {
+      table: buildInterfaceTable(mediumNK[below - 1], f, mediumNK[below], wavelengthNm, tableRows),
+      nUpper: mediumN[below - 1],
+      nLower: mediumN[below],
+      nFilms: f.length,
+      filmChan0: f.length > 0 ? ch(`A_film:bottom:${l.name}:0:${l.bottomFilms[0].material}`) : -1,
+      lowerSinkChan: below === outerMedium ? ch("T") : -1,
+    };
+  });
+  if (backsheet) rearOpaque = true;
+  const backsheetReflectance = backsheet === null ? -1
+    : typeof backsheet.reflectance === "number" ? backsheet.reflectance
+    : backsheetTableValue(backsheet.reflectance, wavelengthNm);
+
   return {
     stack,
     wavelengthNm,
+    nRear,
+    rearBottomZUm,
+    rearBottomInterfaces,
+    outerMedium,
+    backsheetReflectance,
+    backsheetHaze: backsheet ? backsheet.haze : 0,
+    rearOpaque,
+    rearLaunchZUm: nRear > 0 ? rearBottomZUm[nRear - 1] : -thicknessUm - rearTile.zMaxUm - 1,
     channels,
     nChannels: channels.length,
     nLayers,
@@ -204,4 +252,23 @@ function surfaceOf(spec: TextureSpec, boundary: BoundaryKind, fieldPath: string)
     byBoundary.set(boundary, tile);
   }
   return tile;
+}
+
+/** The medium behind the rear: behind the last rear layer (default air; a back-sheet counts as air for indexing), else the rear exit. */
+function outerNK(stack: StackSpec, nkOf: (name: string, field: string) => NK): NK {
+  const outer = stack.rearOuter;
+  if ((stack.rearLayers ?? []).length > 0) {
+    if (outer !== undefined && !isBacksheet(outer)) return nkOf(outer.medium, "rearOuter");
+    return { n: 1, k: 0 };
+  }
+  if (isIdealRear(stack.rear)) return { n: 1, k: 0 };
+  return nkOf(stack.rear.exit, "rear.exit");
+}
+
+/** A back-sheet reflectance table at λ (read at study load). */
+function backsheetTableValue(t: Exclude<BacksheetSpec["reflectance"], number>, wavelengthNm: number): number {
+  if (!t.wavelengthNm || !t.values) {
+    throw new InputError(`stack.rearOuter.backsheet.reflectance.csv: table ${t.csv} was not read (load the study with its folder)`);
+  }
+  return reflectanceAt({ wavelengthNm: t.wavelengthNm, values: t.values }, wavelengthNm, `stack.rearOuter.backsheet.reflectance (${t.csv})`);
 }

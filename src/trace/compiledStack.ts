@@ -24,9 +24,12 @@ export interface CompiledInterface {
 
 /**
  * A stack ready for tracing at one wavelength. Media are numbered from the incidence side:
- * 0 = incidence medium, 1..nLayers = thick layers, nLayers + 1 = absorber. World z: the front
- * texture's base plane is z = 0, the rear base plane z = −thicknessUm; layer j's top plane is
- * layerTopZUm[j] (the bottom layer's bottom plane is the top of the front texture).
+ * 0 = incidence medium, 1..nLayers = thick layers, nLayers + 1 = absorber, then the rear layers
+ * (nLayers + 2 …) and last the medium behind the rear (`outerMedium`: the rear exit medium, or what
+ * lies behind the last rear layer). World z: the front texture's base plane is z = 0, the rear base
+ * plane z = −thicknessUm; layer j's top plane is layerTopZUm[j] (the bottom layer's bottom plane is
+ * the top of the front texture); rear layer j's bottom plane is rearBottomZUm[j] (the first rear
+ * layer's top is the rear texture).
  */
 export interface CompiledStack {
   stack: StackSpec;
@@ -51,6 +54,19 @@ export interface CompiledStack {
   rearTile: SurfaceTile;
   rearReflectance: number;
   thicknessUm: number;
+  /** Rear layers, their bottom planes (z, µm) and the planar interfaces there (the last one null for a back-sheet). */
+  nRear: number;
+  rearBottomZUm: Float64Array;
+  rearBottomInterfaces: (CompiledInterface | null)[];
+  /** Index of the medium behind the rear. */
+  outerMedium: number;
+  /** Back-sheet behind the last rear layer: reflectance at this wavelength and Lambertian share (−1 = none). */
+  backsheetReflectance: number;
+  backsheetHaze: number;
+  /** Light cannot enter from the rear (ideal reflector, metal exit, back-sheet). */
+  rearOpaque: boolean;
+  /** z (µm) where rays from the rear start, in the outer medium. */
+  rearLaunchZUm: number;
   chR: number;
   chT: number;
   chAbsorber: number;

@@ -34,6 +34,36 @@ export function idealRear(cs: CompiledStack, st: Float64Array, rng: RandomStream
 }
 
 /**
+ * Back-sheet at the outer face of the last rear layer (planar, seen from above): reflectance r at
+ * this wavelength, the rest → A_rear; of the reflected light the haze share leaves in a Lambertian
+ * direction (depolarised), the rest specularly. Returns true when the ray ended.
+ */
+export function backsheetEvent(cs: CompiledStack, st: Float64Array, rng: RandomStream): boolean {
+  const r = cs.backsheetReflectance;
+  const u = rng.next();
+  if (st[ANALOG] !== 0) {
+    if (u >= r) {
+      cs.contrib[cs.chRear] += st[W];
+      return true;
+    }
+  } else {
+    const dep = st[W] * (1 - r);
+    cs.contrib[cs.chRear] += dep;
+    st[W] -= dep;
+    if (!(st[W] > 0)) return true;
+    rouletteCheck(cs, st, rng);
+  }
+  if (rng.next() < cs.backsheetHaze) {
+    lambertianDirection(st, 1, rng);
+    randomPolarization(st, rng);
+  } else {
+    st[DZ] = -st[DZ];
+    st[EZ] = -st[EZ];
+  }
+  return false;
+}
+
+/**
  * Ideal randomiser front, ray arriving from the absorber: escapes with probability (n_out/n_in)²
  * (the escape-cone fraction of isotropic light) into a Lambertian direction of the medium above,
  * otherwise it is sent back into the absorber in a Lambertian direction. Returns true on escape.

@@ -5,13 +5,16 @@ import { SURFACE_LAMBERTIAN } from "../geometry/surfaceTile.js";
 import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
 import { DIED, DZ, EVENTS, HIT, PATH, REFLECT, T, TRANSMIT, TWO_PI, W, Z, advance, setNormal } from "./rayState.js";
 import { launchRay, polarizationMode, setLaunchAngles, setLaunchAzimuth, type Polarization } from "./launch.js";
-import { frontSearch, rearSearch } from "./surfaceSearch.js";
+import { frontSearch, rearSearch, rearSearchFromBehind } from "./surfaceSearch.js";
 import { absorbAlong } from "./bulkTransport.js";
 import { interfaceEvent } from "./interfaceEvent.js";
-import { idealRear, lambertianDirection, lambertianFrontFromBelow, randomPolarization } from "./idealSurfaces.js";
+import { backsheetEvent, idealRear, lambertianDirection, lambertianFrontFromBelow, randomPolarization } from "./idealSurfaces.js";
 import { foldBatchTotals, foldRayContributions } from "./tally.js";
 
 export type { Polarization } from "./launch.js";
+
+/** Where the light comes from: the incidence medium (front) or the medium behind the rear. */
+export type LightSide = "front" | "rear";
 
 const DEG = Math.PI / 180;
 
@@ -37,12 +40,18 @@ export function traceBatch(
   rng: RandomStream,
   tally: Float64Array,
   polarization: Polarization = "unpolarized",
+  side: LightSide = "front",
 ): void {
   if (!Number.isInteger(nRays) || nRays < 1) throw new InputError(`rays: expected a positive whole number of rays, got ${nRays}`);
   if (!(thetaDeg >= 0 && thetaDeg < 90)) throw new InputError(`angle: expected a polar angle in [0, 90) degrees, got ${thetaDeg}`);
   if (phiDeg !== null && !Number.isFinite(phiDeg)) throw new InputError(`azimuth: expected a number of degrees, got ${phiDeg}`);
   const nC = cs.nChannels;
   if (tally.length < 2 * nC + 4) throw new RangeError(`tally has ${tally.length} entries, needs ${2 * nC + 4}`);
+  const fromRear = side === "rear";
+  if (fromRear && cs.rearOpaque) {
+    throw new InputError(`illumination: light from the rear needs a transparent rear; this stack ends in a reflector, a metal or a back-sheet`, 'trace from the front, or give the stack a transparent rear ("rearOuter": "air")');
+  }
+  const startMedium = fromRear ? cs.outerMedium : 0;
   const polMode = polarizationMode(polarization);
   const st = cs.state;
   const invW = 1 / cs.thicknessUm;
@@ -53,8 +62,8 @@ export function traceBatch(
   if (phiDeg !== null) setLaunchAzimuth(st, phiDeg * DEG);
   for (let r = 0; r < nRays; r++) {
     if (phiDeg === null) setLaunchAzimuth(st, TWO_PI * rng.next());
-    launchRay(cs, polMode, rng);
-    traceRay(cs, rng);
+    launchRay(cs, polMode, rng, fromRear);
+    traceRay(cs, rng, startMedium);
     events += st[EVENTS];
     foldRayContributions(cs.contrib, nC, tally);
     const p = st[PATH] * invW;
@@ -65,18 +74,21 @@ export function traceBatch(
 }
 
 /** Follows the launched ray from medium to medium until it ends; its interface events → st[EVENTS]. */
-function traceRay(cs: CompiledStack, rng: RandomStream): void {
+function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number): void {
   const st = cs.state;
   const nL = cs.nLayers;
   const ABS = nL + 1;
   const maxEvents = cs.maxEvents;
   st[EVENTS] = 0;
-  let m = 0;
+  let m = startMedium;
   for (;;) {
     if (st[EVENTS] >= maxEvents) break;
     let next: number;
     if (m === ABS) {
       next = stepInAbsorber(cs, st, rng);
+    } else if (m > ABS) {
+      next = m === ABS + 1 ? stepOntoRear(cs, st, m, rng) : NOT_AT_TEXTURE;
+      if (next === NOT_AT_TEXTURE) next = stepBehindAbsorber(cs, st, m, rng);
     } else {
       next = m === nL ? stepOntoFront(cs, st, rng) : NOT_AT_TEXTURE;
       if (next === NOT_AT_TEXTURE) next = stepInPlanarLayer(cs, st, m, rng);
@@ -89,11 +101,17 @@ function traceRay(cs: CompiledStack, rng: RandomStream): void {
 }
 
 /**
- * In the absorber: to the front texture first (rays going up, or still inside its slab), else down
- * to the rear; Beer–Lambert on the way, then the surface event there.
+ * In the absorber: rays going up inside the rear texture's slab may meet another rear facet first;
+ * then the front texture (rays going up, or still inside its slab), else down to the rear;
+ * Beer–Lambert on the way, then the surface event there.
  */
 function stepInAbsorber(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
   const ABS = cs.nLayers + 1;
+  if (st[DZ] > 0 && st[Z] < -cs.thicknessUm - cs.rearTile.zMinUm) {
+    const inRear = rearSearch(cs, st);
+    if (inRear === LOST) return RAY_LOST;
+    if (inRear === HIT) return atRear(cs, st, rng);
+  }
   let found = frontSearch(cs, st, true);
   if (found === LOST) return RAY_LOST;
   if (found === HIT) {
@@ -106,11 +124,67 @@ function stepInAbsorber(cs: CompiledStack, st: Float64Array, rng: RandomStream):
   found = rearSearch(cs, st);
   if (found === LOST) return RAY_LOST;
   if (found === NO_HIT) return ABS; // left the rear texture's slab upward
+  return atRear(cs, st, rng);
+}
+
+/** From the absorber to the rear hit found (distance in st[T]) and the rear event there. */
+function atRear(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
+  const ABS = cs.nLayers + 1;
   if (absorbAlong(cs, st, ABS, rng)) return RAY_ENDED;
   advance(st);
   st[EVENTS]++;
   if (cs.rearKind === REAR_IDEAL_MIRROR || cs.rearKind === REAR_IDEAL_LAMBERTIAN) return idealRear(cs, st, rng) ? RAY_ENDED : ABS;
-  return interfaceEvent(cs, st, cs.rear as CompiledInterface, rng) === REFLECT ? ABS : RAY_ENDED;
+  // into the first rear layer, or (without rear layers) absorbed/escaped in the exit medium's sink
+  return afterInterface(interfaceEvent(cs, st, cs.rear as CompiledInterface, rng), ABS, ABS + 1);
+}
+
+/**
+ * In the medium touching the rear texture from behind (first rear layer, or the exit medium): rays
+ * going up meet it; rays going down may still meet another facet inside its slab.
+ */
+function stepOntoRear(cs: CompiledStack, st: Float64Array, m: number, rng: RandomStream): number {
+  const found = rearSearchFromBehind(cs, st);
+  if (found === LOST) return RAY_LOST;
+  if (found !== HIT) return NOT_AT_TEXTURE;
+  if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
+  advance(st);
+  st[EVENTS]++;
+  return afterInterface(interfaceEvent(cs, st, cs.rear as CompiledInterface, rng), m, m - 1);
+}
+
+/**
+ * Behind the absorber: rear layer m (planar; straight to its bottom plane, or up to the plane of the
+ * layer above) or the medium behind the rear (down: escape into T; up: onto the last rear layer).
+ */
+function stepBehindAbsorber(cs: CompiledStack, st: Float64Array, m: number, rng: RandomStream): number {
+  const vz = st[DZ];
+  const j = m - cs.nLayers - 2; // rear layer index; cs.nRear for the outer medium
+  if (vz < 0) {
+    if (m === cs.outerMedium) {
+      cs.contrib[cs.chT] += st[W];
+      return RAY_ENDED;
+    }
+    st[T] = (cs.rearBottomZUm[j] - st[Z]) / vz;
+    if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
+    advance(st);
+    st[Z] = cs.rearBottomZUm[j];
+    st[EVENTS]++;
+    setNormal(st, 0, 0, 1);
+    const iface = cs.rearBottomInterfaces[j];
+    if (iface === null) return backsheetEvent(cs, st, rng) ? RAY_ENDED : m;
+    return afterInterface(interfaceEvent(cs, st, iface, rng), m, m + 1);
+  }
+  if (vz > 0) {
+    // j ≥ 1 here (the first rear layer meets the rear texture in stepOntoRear)
+    st[T] = (cs.rearBottomZUm[j - 1] - st[Z]) / vz;
+    if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
+    advance(st);
+    st[Z] = cs.rearBottomZUm[j - 1];
+    st[EVENTS]++;
+    setNormal(st, 0, 0, 1);
+    return afterInterface(interfaceEvent(cs, st, cs.rearBottomInterfaces[j - 1] as CompiledInterface, rng), m, m - 1);
+  }
+  return RAY_LOST;
 }
 
 /** In the medium touching the front texture (the incidence medium or the lowest thick layer). */

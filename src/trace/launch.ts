@@ -24,15 +24,16 @@ export function setLaunchAzimuth(st: Float64Array, phiRad: number): void {
 
 /**
  * Launches one ray: uniform over the front unit cell, above everything, travelling down along the
- * batch direction (sinθ cosφ, sinθ sinφ, −cosθ), with its line of polarisation (s, p or a uniformly
+ * batch direction (sinθ cosφ, sinθ sinφ, −cosθ) — or, from the rear, below everything travelling up
+ * along (sinθ cosφ, sinθ sinφ, +cosθ) — with its line of polarisation (s, p or a uniformly
  * random line), weight 1 and, for the analog estimator, its optical-depth budget.
  */
-export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream): void {
+export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream, fromRear: boolean): void {
   const st = cs.state;
   const sinT = st[L_SIN_T], cosT = st[L_COS_T];
   const cp = st[L_COS_P];
   const sp = st[L_SIN_P];
-  const dx = sinT * cp, dy = sinT * sp, dz = -cosT;
+  const dx = sinT * cp, dy = sinT * sp, dz = fromRear ? cosT : -cosT;
   st[DX] = dx;
   st[DY] = dy;
   st[DZ] = dz;
@@ -47,8 +48,9 @@ export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream)
   st[EZ] = b * pz;
   st[X] = rng.next() * cs.frontTile.lxUm;
   st[Y] = rng.next() * cs.frontTile.lyUm;
-  // Without layers: start 1 µm above the texture (the incidence medium does not absorb).
-  st[Z] = cs.nLayers > 0 ? cs.layerTopZUm[1] : cs.frontTile.zMaxUm + 1;
+  // Without layers: start 1 µm above the texture (the incidence medium does not absorb); from the
+  // rear: on the last rear layer's outer plane, or 1 µm below the rear texture.
+  st[Z] = fromRear ? cs.rearLaunchZUm : cs.nLayers > 0 ? cs.layerTopZUm[1] : cs.frontTile.zMaxUm + 1;
   st[W] = 1;
   st[PATH] = 0;
   // The optical-depth budget is drawn for every ray (same random stream in both estimators) but

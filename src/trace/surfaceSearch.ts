@@ -50,6 +50,31 @@ export function rearSearch(cs: CompiledStack, st: Float64Array): number {
 }
 
 /**
+ * Rear search for a ray behind the absorber (first rear layer or exit medium) heading up: the same
+ * tile seen from outside. Sets the normal pointing into the absorber (the rear table's upper medium).
+ */
+export function rearSearchFromBehind(cs: CompiledStack, st: Float64Array): number {
+  const tile = cs.rearTile;
+  const W_ = cs.thicknessUm;
+  const dz = st[DZ];
+  if (tile.kind !== SURFACE_MESH) {
+    if (dz > 0) {
+      setNormal(st, 0, 0, 1);
+      const t = (-W_ - st[Z]) / dz;
+      st[T] = t > 0 ? t : 0;
+      return HIT;
+    }
+    return NO_HIT;
+  }
+  const found = tileSearch(tile, st, cs.query, false, true, W_);
+  if (found === HIT) {
+    st[NX] = -st[NX];
+    st[NY] = -st[NY];
+  }
+  return found;
+}
+
+/**
  * Hit search on a mesh tile in its local frame (z = height, outward positive; xy rotated by the
  * texture orientation and wrapped into the tile) for the ray in the state; distance → st[T]. Writes
  * the outward normal (xy rotated back) to the state. Rays heading into the surface must hit it: a
