@@ -31,8 +31,34 @@ export function buildProgram(): Command {
     cmd.exitOverride();
     cmd.configureOutput({ outputError: (text, write) => write(text.replace(/^error:/, "lightfold:")) });
     cmd.addHelpText("after", `\n${EXIT_CODES}`);
+    refuseRepeatedOptions(cmd);
   }
   return program;
+}
+
+/** Verbs whose single-valued flags have a many-valued counterpart elsewhere. */
+const REPEAT_HINTS: Record<string, string> = {
+  yield: "one matrix and one site per run; `lightfold compare` takes two matrices and several sites",
+};
+
+/**
+ * A flag that takes one value, given twice, would silently keep the last; refuse it instead.
+ * Flags that collect their values (`--site` of compare, `--extra-sbatch`) are left alone.
+ */
+function refuseRepeatedOptions(cmd: Command): void {
+  for (const opt of cmd.options) {
+    if (opt.variadic || opt.parseArg !== undefined || !(opt.required || opt.optional)) continue;
+    let count = 0;
+    cmd.on(`option:${opt.name()}`, () => {
+      count += 1;
+      if (count === 2) {
+        throw new InputError(
+          `${opt.long ?? opt.flags} is given more than once; \`${cmd.name()}\` takes one value`,
+          REPEAT_HINTS[cmd.name()] ?? `give ${opt.long ?? opt.flags} once (see \`lightfold ${cmd.name()} --help\`)`,
+        );
+      }
+    });
+  }
 }
 
 /** Fallback hint for an InputError that carries none: where the verb's usage and examples are. */

@@ -20,7 +20,7 @@ export function matrixToCsv(m: ResponseMatrix): string {
       for (let il = 0; il < m.wavelengthNm.length; il++) {
         for (let ic = 0; ic < m.channels.length; ic++) {
           const k = matrixIndex(m, it, ip, il, ic);
-          rows.push([m.thetaDeg[it], m.phiDeg[ip], m.wavelengthNm[il], m.channels[ic], m.mean[k], m.stderr[k]]);
+          rows.push([m.thetaDeg[it], m.phiMode === "averaged" ? "averaged" : m.phiDeg[ip], m.wavelengthNm[il], m.channels[ic], m.mean[k], m.stderr[k]]);
         }
       }
     }

@@ -1,11 +1,13 @@
 import type { LoadedStudy } from "./load.js";
+import { comboTitle } from "./comboLabel.js";
 import type { RaysPlan } from "./studyTypes.js";
 
 /** Size of a study's work, for `check` and progress estimates. */
 export interface StudySummary {
   name: string;
   hash: string;
-  combos: { label: string; values: Record<string, number> }[];
+  /** Per combination: its folder label, values, values in words and the hash its matrix.json carries. */
+  combos: { label: string; values: Record<string, number>; title: string; hash: string }[];
   nTheta: number;
   nPhi: number;
   phiMode: string;
@@ -31,7 +33,7 @@ export function summarizeStudy(s: LoadedStudy): StudySummary {
   return {
     name: s.name,
     hash: s.hash,
-    combos: s.combos.map((c) => ({ label: c.label, values: c.values })),
+    combos: s.combos.map((c) => ({ label: c.label, values: c.values, title: comboTitle(c.values, c.study.stack), hash: c.hash })),
     nTheta: g.thetaDeg.length,
     nPhi: g.phiDeg.length,
     phiMode: g.phiMode,
@@ -52,11 +54,15 @@ export function formatStudySummary(s: LoadedStudy, sum: StudySummary): string[] 
   const range = (v: number[], unit: string): string => (v.length === 1 ? `${v[0]}${unit}` : `${v[0]}–${v[v.length - 1]}${unit}`);
   const lines = [
     `study      ${sum.name}`,
-    `hash       ${sum.hash.slice(0, 16)}`,
+    sum.combos.length === 1
+      ? `hash       run ${sum.hash.slice(0, 16)} (journal, run.json) · matrix ${sum.combos[0]!.hash.slice(0, 16)} (base/matrix.json)`
+      : `hash       run ${sum.hash.slice(0, 16)} (journal, run.json); each combination's matrix.json carries its own, below`,
     `grid       θ ${sum.nTheta} (${range(g.thetaDeg, "°")}) × φ ${sum.phiMode === "averaged" ? "averaged" : `${sum.nPhi} (${range(g.phiDeg, "°")}${sum.phiMode === "square" ? ", square-folded" : ""})`} × λ ${sum.nWavelength} (${range(g.wavelengthNm, " nm")}) = ${sum.pointsPerCombo} points`,
   ];
   if (sum.combos.length > 1) {
     lines.push(`combos     ${sum.combos.length}: ${Object.entries(s.sweep).map(([k, v]) => `${k} ∈ {${v.join(", ")}}`).join(" × ")}`);
+    const width = Math.max(...sum.combos.map((c) => c.title.length));
+    for (const c of sum.combos) lines.push(`  ${c.label.padEnd(4)} ${c.title.padEnd(width)}  matrix ${c.hash.slice(0, 16)}`);
   }
   const r = sum.rays;
   if (r.mode === "fixed") {

@@ -14,6 +14,8 @@ export interface ComboPlan {
   hash: string;
   channels: string[];
   absorberThicknessUm: number;
+  /** The combination's values in words with units ("Si 180 µm · SiNx 65 nm"); absent without a sweep. */
+  title?: string;
 }
 
 /** Everything that fixes the work of a sweep; plain JSON (written into shard partials). */

@@ -19,7 +19,7 @@ export interface RunInfo {
 /** Absorber photocurrent at the first grid direction (the sweep's summary table). */
 export interface JscFirstDirection {
   thetaDeg: number;
-  phiDeg: number;
+  phiDeg: number | "averaged";
   jscMaCm2: number;
   jscStderrMaCm2: number;
 }
@@ -28,6 +28,8 @@ export interface JscFirstDirection {
 export interface RunCombo {
   label: string;
   values: Record<string, number>;
+  /** The values in words with units, e.g. "Si 180 µm · SiNx 65 nm" (sweeps only). */
+  title?: string;
   studyHash: string;
   matrix: string;
   summaries?: string[];
@@ -67,6 +69,7 @@ export function runRecordOf(plan: SweepPlan, matrices: ResponseMatrix[], info: R
     combos: plan.combos.map((c, i) => ({
       label: c.label,
       values: c.values,
+      ...(c.title !== undefined ? { title: c.title } : {}),
       studyHash: c.hash,
       matrix: `${c.label}/matrix.json`,
       rays: matrices[i].nRays.reduce((a, b) => a + b, 0),

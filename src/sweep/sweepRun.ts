@@ -1,3 +1,4 @@
+import { comboTitle } from "../study/comboLabel.js";
 import type { LoadedStudy } from "../study/load.js";
 import { InputError } from "../util/errors.js";
 import { nearestWord } from "../util/didYouMean.js";
@@ -43,6 +44,7 @@ export function sweepPlanOf(study: LoadedStudy, tracer: TracerModule): SweepPlan
       hash: c.hash,
       channels: comboChannels(c.study, study.registry, tracer),
       absorberThicknessUm: c.study.stack.absorber.thicknessUm,
+      ...(Object.keys(c.values).length > 0 ? { title: comboTitle(c.values, c.study.stack) } : {}),
     })),
     spectrum: first.spectrum,
     baseDir: study.baseDir,

@@ -14,7 +14,8 @@ export interface ChannelCurrent {
 
 export interface DirectionPhotocurrent {
   thetaDeg: number;
-  phiDeg: number;
+  /** Azimuth in degrees, or "averaged" for a matrix traced with one random azimuth per ray. */
+  phiDeg: number | "averaged";
   /** Optical photocurrent of the absorber (every absorbed photon counted), mA/cm². */
   jscMaCm2: number;
   jscStderrMaCm2: number;
@@ -84,7 +85,7 @@ export function photocurrentSummary(m: ResponseMatrix, w: ArrayLike<number>, lab
       else if (j0.value !== 0) iam = ratioIndependent(j, j0);
       directions.push({
         thetaDeg: m.thetaDeg[it],
-        phiDeg: m.phiDeg[ip],
+        phiDeg: m.phiMode === "averaged" ? "averaged" : m.phiDeg[ip],
         jscMaCm2: j.value,
         jscStderrMaCm2: j.stderr,
         losses,

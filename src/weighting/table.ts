@@ -1,3 +1,4 @@
+import { channelLabel, channelShortLabel } from "../response/channelLabels.js";
 import type { PhotocurrentSummary } from "./photocurrent.js";
 
 /** Right-aligned plain-text table (no colour), first column left-aligned. */
@@ -10,9 +11,22 @@ export function textTable(header: string[], rows: string[][]): string {
 
 const f = (x: number, digits: number): string => x.toFixed(digits);
 
-/** Photocurrent table: per direction Jsc ± SE, IAM ± SE, and each loss channel in mA/cm². */
+/** Channels that carry current in at least one direction (in matrix order), and those that never do. */
+export function nonZeroLossChannels(s: PhotocurrentSummary): { shown: string[]; zero: string[] } {
+  const shown: string[] = [];
+  const zero: string[] = [];
+  s.lossChannels.forEach((c, k) => (s.directions.some((d) => d.losses[k]!.currentMaCm2 !== 0) ? shown : zero).push(c));
+  return { shown, zero };
+}
+
+/**
+ * Photocurrent table: per direction Jsc ± SE, IAM ± SE, and the current of each loss channel that
+ * carries any (short labels; a key below names the matrix channels, and those with no current).
+ */
 export function formatPhotocurrentTable(s: PhotocurrentSummary): string {
-  const header = ["theta_deg", "phi_deg", "Jsc", "±SE", "IAM", "±SE", ...s.lossChannels];
+  const { shown, zero } = nonZeroLossChannels(s);
+  const index = shown.map((c) => s.lossChannels.indexOf(c));
+  const header = ["theta_deg", "phi_deg", "Jsc", "±SE", "IAM", "±SE", ...shown.map(channelShortLabel)];
   const rows = s.directions.map((d) => [
     String(d.thetaDeg),
     String(d.phiDeg),
@@ -20,12 +34,19 @@ export function formatPhotocurrentTable(s: PhotocurrentSummary): string {
     f(d.jscStderrMaCm2, 3),
     d.iam === null ? "-" : f(d.iam, 4),
     d.iamStderr === null ? "-" : f(d.iamStderr, 4),
-    ...d.losses.map((l) => f(l.currentMaCm2, 3)),
+    ...index.map((k) => f(d.losses[k]!.currentMaCm2, 3)),
   ]);
+  const averaged = s.directions.some((d) => d.phiDeg === "averaged");
   const head =
     `${s.studyName}: optical photocurrent under ${s.spectrum}, ${s.wavelengthMinNm}-${s.wavelengthMaxNm} nm ` +
     `(all currents in mA/cm²; available in this range ${f(s.totalAvailableMaCm2, 3)})\n` +
-    `IAM = J(θ)/J(${s.iamReferenceThetaDeg}°) at the same azimuth; loss columns: current carried away by each channel\n` +
+    `IAM = J(θ)/J(${s.iamReferenceThetaDeg}°) at the same azimuth${averaged ? " (azimuth averaged: one random azimuth per ray)" : ""}; ` +
+    `loss columns: current carried away by each channel\n` +
     (s.partial ? "WARNING: partial matrix (incomplete shards): missing points count as zero\n\n" : "\n");
-  return head + textTable(header, rows);
+  const key = shown.map((c) => `  ${channelShortLabel(c)}: ${channelLabel(c)} [${c}]`);
+  const foot = [
+    ...(key.length > 0 ? ["loss columns:", ...key] : []),
+    ...(zero.length > 0 ? [`no current in: ${zero.map((c) => `${channelLabel(c)} [${c}]`).join(", ")}`] : []),
+  ];
+  return head + textTable(header, rows) + (foot.length > 0 ? "\n" + foot.join("\n") + "\n" : "");
 }

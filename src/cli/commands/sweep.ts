@@ -149,27 +149,32 @@ with the same study; a changed study sets the old journal aside and starts afres
           ? files.map((f) => `  wrote ${f}`)
           : [`  wrote ${files.length} files under ${outDir}: run.json and per combination <combo>/matrix.json, photocurrent.json, iam.csv`]),
       ];
-      if (shard === null && study.combos.length > 1) lines.push(...comboTable(outDir));
+      if (shard === null) lines.push(...comboTable(outDir));
       if (summary.report) lines.push(`  report ${summary.report}`);
       if (shard !== null) lines.push(`  shard ${shard.index}/${shard.count} done; when all shards are done: lightfold merge ${outDir} --out <dir>`);
       process.stdout.write(lines.join("\n") + "\n");
     });
 }
 
-/** Summary table of a parameter sweep from run.json: one line per combination. */
+/**
+ * Summary table from run.json, one line per combination (one line without a sweep): the values in
+ * words, the absorber photocurrent at the first grid direction and the hash its matrix.json carries.
+ */
 export function comboTable(outDir: string): string[] {
   const run = JSON.parse(readFileSync(join(outDir, "run.json"), "utf8")) as {
-    combos: { label: string; values: Record<string, number>; jscFirstDirection?: { thetaDeg: number; jscMaCm2: number; jscStderrMaCm2: number } }[];
+    combos: { label: string; title?: string; values: Record<string, number>; studyHash: string; jscFirstDirection?: { thetaDeg: number; phiDeg: number | string; jscMaCm2: number; jscStderrMaCm2: number } }[];
   };
-  const fields = Object.keys(run.combos[0].values);
   const first = run.combos.find((c) => c.jscFirstDirection !== undefined)?.jscFirstDirection;
-  const head = ["combo", ...fields, first !== undefined ? `Jsc(θ=${first.thetaDeg}°) mA/cm²` : "Jsc"];
+  const where = first === undefined ? "" : `θ=${first.thetaDeg}°, φ ${first.phiDeg === "averaged" ? "averaged" : `${first.phiDeg}°`}`;
+  const swept = run.combos.length > 1 || Object.keys(run.combos[0]!.values).length > 0;
+  const head = ["combo", ...(swept ? ["parameters"] : []), first !== undefined ? `Jsc (${where}) mA/cm²` : "Jsc mA/cm²", "matrix hash"];
   const rows = run.combos.map((c) => [
     c.label,
-    ...fields.map((f) => String(c.values[f])),
+    ...(swept ? [c.title ?? Object.entries(c.values).map(([k, v]) => `${k}=${v}`).join(", ")] : []),
     c.jscFirstDirection === undefined ? "–" : `${c.jscFirstDirection.jscMaCm2.toFixed(3)} ± ${c.jscFirstDirection.jscStderrMaCm2.toFixed(3)}`,
+    c.studyHash.slice(0, 16),
   ]);
-  const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
-  const fmt = (r: string[]): string => "  " + r.map((v, i) => v.padEnd(widths[i])).join("  ");
+  const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i]!.length)));
+  const fmt = (r: string[]): string => ("  " + r.map((v, i) => v.padEnd(widths[i]!)).join("  ")).trimEnd();
   return [fmt(head), ...rows.map(fmt)];
 }
