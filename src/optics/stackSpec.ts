@@ -1,3 +1,4 @@
+import { parseConstantIndex } from "../materials/constantIndex.js";
 import { InputError } from "../util/errors.js";
 
 /** A film stack written as text: "air|SiNx:75|Si" (media and films separated by '|'). */
@@ -30,7 +31,9 @@ export function parseStackSpec(text: string, what = "--stack"): StackSpec {
     if (part === "") throw new InputError(`${where}: empty; ${EXPECTED}`);
     const colon = part.indexOf(":");
     const name = (colon < 0 ? part : part.slice(0, colon)).trim();
-    if (!NAME_RE.test(name)) throw new InputError(`${where}: "${name}" is not a material name (letters, digits, _ . + -); ${EXPECTED}`);
+    if (!NAME_RE.test(name) && parseConstantIndex(name) === null) {
+      throw new InputError(`${where}: "${name}" is neither a material name (letters, digits, _ . + -) nor a constant index (n=2.0, 2.05+0.01i); ${EXPECTED}`);
+    }
     const edge = i === 0 || i === parts.length - 1;
     if (edge) {
       if (colon >= 0) {

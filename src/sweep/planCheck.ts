@@ -47,6 +47,7 @@ function combo(raw: unknown, w: Where): ComboPlan {
     hash: str(o.hash, at(w, "hash"), 200),
     channels: names(o.channels, at(w, "channels")),
     absorberThicknessUm: num(o.absorberThicknessUm, at(w, "absorberThicknessUm"), Number.MIN_VALUE, 1e9),
+    ...(o.title !== undefined ? { title: str(o.title, at(w, "title"), 1000) } : {}),
   };
 }
 

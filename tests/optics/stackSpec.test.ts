@@ -27,7 +27,7 @@ describe("parseStackSpec(text)", () => {
       ["air|SiNx:2e6|Si", /beyond 1000000 nm/],
       ["air|SiNx:abc|Si", /thickness "abc" is not a number/],
       ["air|SiNx:|Si", /thickness "" is not a number/],
-      ["air|7up:5|Si", /"7up" is not a material name/],
+      ["air|7up:5|Si", /"7up" is neither a material name .* nor a constant index/],
     ];
     for (const [text, re] of cases) {
       expect(() => parseStackSpec(text), text).toThrow(InputError);

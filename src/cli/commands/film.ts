@@ -1,32 +1,63 @@
 import type { Command } from "commander";
-import { MaterialRegistry } from "../../materials/registry.js";
+import { constantIndexMaterial, parseConstantIndex } from "../../materials/constantIndex.js";
+import { MaterialRegistry, materialFromSpec } from "../../materials/registry.js";
+import type { Material } from "../../materials/types.js";
+import { filmPointText, filmSweepText, pick, type FilmPolarization } from "../../optics/filmText.js";
 import { parseNumberSweep, parseStackSpec } from "../../optics/stackSpec.js";
 import { evaluateStack, type FilmPoint } from "../../optics/stackEval.js";
+import type { Spectrum } from "../../spectrum/types.js";
+import { loadStudy } from "../../study/load.js";
 import { InputError } from "../../util/errors.js";
+import { photonWeightedReflectance } from "../../weighting/weightedReflectance.js";
+import { spectrumOption } from "./spectral.js";
 
-const f6 = (v: number): string => v.toFixed(6);
+const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
 
-function table(rows: string[][]): string {
-  const widths = rows[0]!.map((_, c) => Math.max(...rows.map((r) => r[c]!.length)));
-  return rows.map((r) => r.map((cell, c) => (c === r.length - 1 ? cell : cell.padEnd(widths[c]!))).join("  ").trimEnd()).join("\n") + "\n";
+const POLARIZATIONS: FilmPolarization[] = ["all", "s", "p", "unpolarized"];
+
+function polarizationOption(text: string): FilmPolarization {
+  const t = text === "unpolarised" ? "unpolarized" : text;
+  if ((POLARIZATIONS as string[]).includes(t)) return t as FilmPolarization;
+  throw new InputError(`--polarization: expected one of ${POLARIZATIONS.join(", ")}, got "${text}"`, "e.g. --polarization s");
 }
 
-function printPoint(p: FilmPoint, label: string, exitName: string): string {
-  const rows = [["", "s", "p", "unpolarised"]];
-  rows.push(["R", f6(p.Rs), f6(p.Rp), f6(p.R)]);
-  rows.push([`T (into ${exitName})`, f6(p.Ts), f6(p.Tp), f6(p.T)]);
-  p.films.forEach((f, j) => rows.push([`A film ${j + 1} ${f.material} ${f.thicknessNm} nm`, f6(f.As), f6(f.Ap), f6(f.A)]));
-  return `${label}\n${p.wavelengthNm} nm, ${p.angleDeg}° in the incidence medium (n0 = ${p.n0.toFixed(4)})\n\n${table(rows)}`;
-}
-
-function printSweep(points: FilmPoint[], label: string): string {
-  const head = ["wavelength_nm", "angle_deg", "Rs", "Rp", "R", "T"];
-  points[0]!.films.forEach((f, j) => head.push(`A${j + 1}_${f.material}`));
-  const rows = [head];
-  for (const p of points) {
-    rows.push([String(p.wavelengthNm), String(p.angleDeg), f6(p.Rs), f6(p.Rp), f6(p.R), f6(p.T), ...p.films.map((f) => f6(f.A))]);
+/** The catalogue, a study's own materials (--study) and user n,k tables (--nk name=file.csv). */
+function filmRegistry(studyPath: string | undefined, nk: string[]): MaterialRegistry {
+  const registry = studyPath === undefined ? MaterialRegistry.withBuiltins() : loadStudy(studyPath).registry;
+  for (const entry of nk) {
+    const eq = entry.indexOf("=");
+    if (eq <= 0 || eq === entry.length - 1) throw new InputError(`--nk: expected name=file.csv, got "${entry}"`, "e.g. --nk myNitride=nitride.csv");
+    const name = entry.slice(0, eq);
+    registry.add(materialFromSpec({ name, csv: entry.slice(eq + 1) }, process.cwd(), `--nk ${name}`));
   }
-  return `${label}\nR, T, A: unpolarised fractions of the incident power (mean of s and p)\n\n${table(rows)}`;
+  return registry;
+}
+
+/** Material names of the stack, or constant indices written in it ("n=2.0", "2.05+0.01i"). */
+function materialResolver(registry: MaterialRegistry): (name: string) => Material {
+  const constants = new Map<string, Material>();
+  return (name) => {
+    const c = parseConstantIndex(name);
+    if (c === null) return registry.get(name);
+    if (!constants.has(name)) constants.set(name, constantIndexMaterial(name, c.n, c.k));
+    return constants.get(name)!;
+  };
+}
+
+/** "photon-weighted R …" lines, one per angle, of a wavelength sweep (unpolarised unless asked). */
+function weightedLines(points: FilmPoint[], angles: number[], pol: FilmPolarization, spectrum: Spectrum): { text: string; json: object[] } {
+  const which = pol === "all" ? "unpolarized" : pol;
+  const json: object[] = [];
+  const lines = angles.map((a) => {
+    const at = points.filter((p) => p.angleDeg === a);
+    const r = photonWeightedReflectance(at.map((p) => p.wavelengthNm), at.map((p) => pick(p, which).R), spectrum);
+    json.push({ angleDeg: a, polarization: which, ...r });
+    return `  ${a}°: ${(100 * r.reflectance).toFixed(3)} % (${r.reflectedMaCm2.toFixed(3)} of ${r.availableMaCm2.toFixed(3)} mA/cm² reflected)`;
+  });
+  const lo = points[0]!.wavelengthNm;
+  const hi = points[points.length - 1]!.wavelengthNm;
+  const head = `photon-weighted reflectance, ${lo}–${hi} nm under ${spectrum.name} (${which === "unpolarized" ? "unpolarised" : `${which}-polarised`}; R linear between the ${new Set(points.map((p) => p.wavelengthNm)).size} wavelengths):`;
+  return { text: `\n${head}\n${lines.join("\n")}\n`, json };
 }
 
 /** `lightfold film --stack "air|SiNx:75|Si" --wavelength 600 --angle 0 [--json]` */
@@ -35,15 +66,19 @@ export function register(program: Command): void {
     .command("film")
     .description("reflectance, transmittance and film absorptance of a coherent thin-film stack (transfer matrices)")
     .requiredOption("--stack <stack>", 'media and films separated by "|": incidence|material:thicknessNm|…|exit')
-    .option("--wavelength <nm>", "vacuum wavelength in nm: 600, a list 400,600,800 or a range 400:1100:50", "600")
+    .option("--wavelength <nm>", "vacuum wavelength in nm: 600, a list 400,600,800 or a range 400:1100:50 (default 600; 300:1200:5 with --weighted)")
     .option("--angle <deg>", "incidence angle in degrees in the incidence medium: 0, a list 0,30,60 or a range 0:80:10", "0")
+    .option("--polarization <pol>", `${POLARIZATIONS.join(", ")}: which polarisation the tables show`, "all")
+    .option("--weighted [spectrum]", "photon-weighted reflectance over the wavelengths under AM1.5G, AM1.5D, G173-ETR or a spectrum CSV")
+    .option("--study <file>", "also use the materials defined in this study file")
+    .option("--nk <name=file.csv>", "a user n,k table (wavelength_nm,n,k) under a name; repeatable", collect)
     .option("--json", "print JSON")
     .addHelpText(
       "after",
       `
 The first and last entries are semi-infinite media, the entries between are coherent films
 (thickness in nm), listed from the incidence side. Names are materials or aliases from
-\`lightfold materials\`. T is the power crossing into the exit medium (absorbed there when it
+\`lightfold materials\`, materials of --study or --nk, or a constant index: n=2.0 or 2.05+0.01i. T is the power crossing into the exit medium (absorbed there when it
 absorbs, e.g. silicon or a metal); an absorbing incidence medium is taken with Re n.
 
 Examples:
@@ -51,21 +86,33 @@ Examples:
   lightfold film --stack "air|SiNx:75|Si" --wavelength 400:1100:50          pick an ARC thickness
   lightfold film --stack "EVA|SiNx:70|Si" --wavelength 600 --angle 0:80:10  angular response
   lightfold film --stack "Si|SiO2:100|Ag" --wavelength 1000 --angle 30      rear reflector from inside
-  lightfold film --stack "air|SiO2:100|SiNx:60|Si" --wavelength 400:1100:100 --json   double-layer ARC`,
+  lightfold film --stack "air|SiO2:100|SiNx:60|Si" --wavelength 400:1100:100 --json   double-layer ARC
+  lightfold film --stack "EVA|SiNx:75|Si" --weighted                         photon-weighted R, 300–1200 nm, AM1.5G
+  lightfold film --stack "air|n=2.05+0.01i:70|Si" --weighted my-spectrum.csv --polarization s
+  lightfold film --stack "air|myNitride:75|Si" --nk myNitride=nitride.csv --wavelength 500:700:10
+  lightfold film --stack "EVA|encapsulantCoat:80|Si" --study configs/my.study.json
+
+The photon-weighted reflectance is R̄ = ∫R Φ dλ / ∫Φ dλ over the wavelength range (Φ the photon flux of
+the spectrum, R linear between the listed wavelengths: use a step of 10 nm or less).`,
     )
-    .action((opts: { stack: string; wavelength: string; angle: string; json?: boolean }) => {
+    .action((opts: FilmFlags) => {
       const spec = parseStackSpec(opts.stack, "--stack");
-      const wavelengths = parseNumberSweep(opts.wavelength, "--wavelength", 1e-3, 1e9, "nm");
+      const pol = polarizationOption(opts.polarization);
+      const wavelengthText = opts.wavelength ?? (opts.weighted !== undefined ? "300:1200:5" : "600");
+      const wavelengths = parseNumberSweep(wavelengthText, "--wavelength", 1e-3, 1e9, "nm");
       if (wavelengths.some((w) => w <= 0)) throw new InputError(`--wavelength: wavelengths must be positive`, "e.g. --wavelength 600 or --wavelength 400:1100:50 (nm)");
       const angles = parseNumberSweep(opts.angle, "--angle", 0, 90, "deg");
-      const registry = MaterialRegistry.withBuiltins();
-      const resolve = (name: string) => registry.get(name);
+      const spectrum = opts.weighted === undefined ? undefined : spectrumOption(opts.weighted === true ? "AM1.5G" : opts.weighted);
+      if (spectrum !== undefined && wavelengths.length < 2) throw new InputError("--weighted needs at least two wavelengths", "e.g. --wavelength 300:1200:5");
+      const resolve = materialResolver(filmRegistry(opts.study, opts.nk ?? []));
       // resolve every name first, so an unknown one is reported before any output
       const incidence = resolve(spec.incidence);
       const exit = resolve(spec.exit);
       const filmMaterials = spec.films.map((f) => resolve(f.material));
       const points: FilmPoint[] = [];
-      for (const w of wavelengths) for (const a of angles) points.push(evaluateStack(spec, resolve, w, a));
+      for (const a of angles) for (const w of wavelengths) points.push(evaluateStack(spec, resolve, w, a));
+      if (angles.length > 1) points.sort((p, q) => p.wavelengthNm - q.wavelengthNm || p.angleDeg - q.angleDeg);
+      const weighted = spectrum === undefined ? undefined : weightedLines(points, angles, pol, spectrum);
       if (opts.json === true) {
         const out = {
           stack: {
@@ -74,6 +121,7 @@ Examples:
             exit: { name: spec.exit, material: exit.name },
           },
           points,
+          ...(weighted !== undefined ? { weighted: { spectrum: spectrum!.name, perAngle: weighted.json } } : {}),
         };
         process.stdout.write(JSON.stringify(out, null, 2) + "\n");
         return;
@@ -81,6 +129,18 @@ Examples:
       const named = (given: string, m: { name: string }): string => (given === m.name ? given : `${given} (${m.name})`);
       const label =
         [named(spec.incidence, incidence), ...spec.films.map((f, j) => `${named(f.material, filmMaterials[j]!)} ${f.thicknessNm} nm`), named(spec.exit, exit)].join(" | ");
-      process.stdout.write(points.length === 1 ? printPoint(points[0]!, label, spec.exit) : printSweep(points, label));
+      process.stdout.write(points.length === 1 ? filmPointText(points[0]!, label, spec.exit, pol) : filmSweepText(points, label, pol));
+      if (weighted !== undefined) process.stdout.write(weighted.text);
     });
+}
+
+interface FilmFlags {
+  stack: string;
+  wavelength?: string;
+  angle: string;
+  polarization: string;
+  weighted?: string | true;
+  study?: string;
+  nk?: string[];
+  json?: boolean;
 }
