@@ -16,6 +16,14 @@ export interface Site {
   monthlyClearness?: number[];
   /** Linke turbidity per month for the clear-sky model (12 values; default 3 everywhere). */
   linkeTurbidityMonthly: number[];
+  /**
+   * Atmosphere of the clear-sky spectral model (12 monthly values each, when the file gives them):
+   * aerosol optical depth at 500 nm, Ångström exponent, ozone column (atm-cm), precipitable water (cm).
+   */
+  aod500Monthly?: number[];
+  angstromExponentMonthly?: number[];
+  ozoneAtmCmMonthly?: number[];
+  precipitableWaterCmMonthly?: number[];
 }
 
 /**
@@ -65,7 +73,7 @@ function monthly(raw: unknown, key: string, src: string, lo: number, hi: number,
 
 const SITE_KEYS = new Set([
   "name", "description", "latitudeDeg", "longitudeDeg", "elevationM", "utcOffsetHours", "albedo",
-  "monthlyClearness", "linkeTurbidity",
+  "monthlyClearness", "linkeTurbidity", "aod500", "angstromExponent", "ozoneAtmCm", "precipitableWaterCm",
 ]);
 
 /** Checks a parsed site object; `src` names the file in errors. */
@@ -88,6 +96,15 @@ export function siteFromObject(raw: unknown, src: string): Site {
     albedoMonthly: monthly(raw.albedo ?? 0.2, "albedo", src, 0, 1, "ground reflectance"),
     linkeTurbidityMonthly: monthly(raw.linkeTurbidity ?? DEFAULT_LINKE, "linkeTurbidity", src, 1, 10, "Linke turbidity"),
   };
+  const optionalMonthly: [keyof Site & string, string, number, number, string][] = [
+    ["aod500Monthly", "aod500", 0, 3, "aerosol optical depth at 500 nm"],
+    ["angstromExponentMonthly", "angstromExponent", 0, 3, "Ångström exponent"],
+    ["ozoneAtmCmMonthly", "ozoneAtmCm", 0.1, 0.6, "ozone column, atm-cm"],
+    ["precipitableWaterCmMonthly", "precipitableWaterCm", 0, 10, "precipitable water, cm"],
+  ];
+  for (const [field, key, lo, hi, what] of optionalMonthly) {
+    if (raw[key] !== undefined) (site as unknown as Record<string, number[]>)[field] = monthly(raw[key], key, src, lo, hi, what);
+  }
   if (raw.monthlyClearness !== undefined) {
     site.monthlyClearness = monthly(raw.monthlyClearness, "monthlyClearness", src, 0.05, 0.8, "monthly mean clearness index");
   }

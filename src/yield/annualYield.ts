@@ -4,6 +4,7 @@ import { emptySkyParts, poaIrradianceWm2, skyParts, type SkyModel } from "../sky
 import { RAD } from "../util/math.js";
 import type { AngularGrid } from "./angularGrid.js";
 import { DEFAULT_QUADRATURE, dotNodes, planeQuadrature, type PlaneQuadrature, type QuadratureOptions } from "./hemisphere.js";
+import { HourSpectralResponse, type HourlySpectra } from "./hourlySpectra.js";
 import type { SpectralTables } from "./spectralTables.js";
 import type { YearContext } from "./yearContext.js";
 
@@ -54,6 +55,8 @@ export interface YieldResult {
 export interface YieldOptions {
   skyModel: SkyModel;
   hourly?: boolean;
+  /** Hourly spectral shapes (src/yield/hourlySpectra.ts); without them every hour has the fixed G173 shapes. */
+  spectra?: HourlySpectra;
 }
 
 function zeroParts(): PartTotals {
@@ -72,6 +75,7 @@ export function annualYield(ctx: YearContext, setup: PlaneSetup, grid: AngularGr
   const kSky = dotNodes(quad.sky, tables.diffuse);
   const kGround = dotNodes(quad.ground, tables.diffuse);
   const kHorizon = dotNodes(quad.horizon, tables.diffuse);
+  const sp = opts.spectra ? new HourSpectralResponse(opts.spectra, tables, quad, grid.nNodes) : undefined;
   const cb = frame.cosTilt, sb = frame.sinTilt;
   const parts = emptySkyParts();
   const idx = new Int32Array(4), w = new Float64Array(4), d = new Float64Array(3);
@@ -94,20 +98,23 @@ export function annualYield(ctx: YearContext, setup: PlaneSetup, grid: AngularGr
       parts.isoSkyWm2 = 0;
       parts.horizonWm2 = 0;
     }
+    if (sp) sp.beginHour(h);
     // beam and circumsolar: at the sun's direction in the module frame
     let jSun = 0;
     const pointWm2 = parts.dniWm2 + parts.circumsolarWm2;
     if (c > 0 && pointWm2 > 0) {
       directionEnu(z, ctx.azimuthDeg[h]!, d);
       const k = grid.weights(Math.acos(Math.min(1, c)) * RAD, matrixAzimuthDeg(frame, d), idx, w);
+      if (sp) jSun = sp.beam(idx, w, k, pointWm2 * c);
       for (let q = 0; q < k; q++) {
-        jSun += w[q]! * tables.beam[idx[q]!]!;
+        if (!sp) jSun += w[q]! * tables.beam[idx[q]!]!;
         beamNodeWeight[idx[q]!] += pointWm2 * c * w[q]!;
       }
     }
     const cPos = Math.max(0, c);
     const qBeam = parts.dniWm2 * cPos * jSun, qCs = parts.circumsolarWm2 * cPos * jSun;
-    const qSky = parts.isoSkyWm2 * kSky, qHor = parts.horizonWm2 * kHorizon, qGnd = parts.groundWm2 * kGround;
+    const qSky = parts.isoSkyWm2 * (sp ? sp.kSky : kSky), qHor = parts.horizonWm2 * (sp ? sp.kHorizon : kHorizon), qGnd = parts.groundWm2 * (sp ? sp.kGround : kGround);
+    if (sp) sp.addDiffuse(parts.isoSkyWm2, parts.horizonWm2, parts.groundWm2);
     isoSum += parts.isoSkyWm2;
     horSum += parts.horizonWm2;
     gndSum += parts.groundWm2;
@@ -130,13 +137,13 @@ export function annualYield(ctx: YearContext, setup: PlaneSetup, grid: AngularGr
   }
   // Monte Carlo error: linear propagation through each node's accumulated weight
   const nL = tables.nLambda, wb = tables.weights.beam, wd = tables.weights.diffuse;
-  let variance = 0;
+  let variance = sp ? sp.variance() : 0;
   const diffuseNodeWeight = new Float64Array(grid.nNodes);
   for (let node = 0; node < grid.nNodes; node++) {
     const g = beamNodeWeight[node]!;
     const dn = isoSum * quad.sky[node]! + horSum * quad.horizon[node]! + gndSum * quad.ground[node]!;
     diffuseNodeWeight[node] = dn;
-    if (g === 0 && dn === 0) continue;
+    if (sp || (g === 0 && dn === 0)) continue;
     for (let l = 0; l < nL; l++) {
       const s = (g * wb[l]! + dn * wd[l]!) * tables.stderr[node * nL + l]!;
       variance += s * s;

@@ -50,6 +50,8 @@ export interface SpectralTables {
   normalGlobal: number;
   /** The per-wavelength weights and the channel's stderr, for propagating the Monte Carlo error. */
   weights: SpectralWeights;
+  /** The channel's mean and standard error per angle node and wavelength, [node·nLambda + λ]. */
+  absorptance: Float64Array;
   stderr: Float64Array;
   nLambda: number;
 }
@@ -60,7 +62,7 @@ export function spectralTables(m: ResponseMatrix, channel: string, grid: Angular
   if (ic < 0) throw new Error(`response matrix has no channel "${channel}"`);
   const nL = m.wavelengthNm.length, nC = m.channels.length;
   const beam = new Float64Array(grid.nNodes), diffuse = new Float64Array(grid.nNodes), global = new Float64Array(grid.nNodes);
-  const stderr = new Float64Array(grid.nNodes * nL);
+  const stderr = new Float64Array(grid.nNodes * nL), absorptance = new Float64Array(grid.nNodes * nL);
   for (let node = 0; node < grid.nNodes; node++) {
     let b = 0, d = 0, g = 0;
     for (let l = 0; l < nL; l++) {
@@ -70,6 +72,7 @@ export function spectralTables(m: ResponseMatrix, channel: string, grid: Angular
       d += a * weights.diffuse[l]!;
       g += a * weights.global[l]!;
       stderr[node * nL + l] = m.stderr[k]!;
+      absorptance[node * nL + l] = a;
     }
     beam[node] = b;
     diffuse[node] = d;
@@ -77,5 +80,5 @@ export function spectralTables(m: ResponseMatrix, channel: string, grid: Angular
   }
   let ref = 0;
   for (let j = 0; j < grid.nPhi; j++) ref += global[j]!;
-  return { beam, diffuse, normalGlobal: ref / grid.nPhi, weights, stderr, nLambda: nL };
+  return { beam, diffuse, normalGlobal: ref / grid.nPhi, weights, absorptance, stderr, nLambda: nL };
 }

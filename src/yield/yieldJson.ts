@@ -3,6 +3,7 @@ import type { Site } from "../site/site.js";
 import type { SkyModel } from "../sky/transposition.js";
 import type { YieldResult } from "./annualYield.js";
 import type { Benefit } from "./compare.js";
+import type { HourlySpectra } from "./hourlySpectra.js";
 import type { YearContext } from "./yearContext.js";
 
 export const YIELD_KIND = "lightfold.yield";
@@ -45,9 +46,27 @@ export function planeResultJson(y: YieldResult): Record<string, unknown> {
   };
 }
 
+/** The hourly-spectra run beside the fixed-shape one: what the spectra were and the fixed-G173-shape results per plane. */
+export interface SpectralRun {
+  mode: "clear-sky-model" | "file";
+  spectra: HourlySpectra;
+  fixed: YieldResult[];
+}
+
+/** Spectral correction of one plane: charge with hourly spectra ÷ charge with the fixed G173 shapes − 1, per month and year, %. */
+export function spectralCorrection(hourly: YieldResult, fixed: YieldResult): { yearPct: number; monthlyPct: number[] } {
+  const pct = (a: number, b: number): number => (b > 0 ? 100 * (a / b - 1) : 0);
+  return { yearPct: pct(hourly.chargeAhM2, fixed.chargeAhM2), monthlyPct: hourly.monthlyChargeAhM2.map((q, i) => pct(q, fixed.monthlyChargeAhM2[i]!)) };
+}
+
+function spectraJson(run: SpectralRun | undefined): Record<string, unknown> {
+  if (!run) return { mode: "g173", source: "fixed ASTM G173 shapes (beam: direct; sky and ground: global − direct·cos 11.19°)" };
+  return { mode: run.mode, source: run.spectra.source, hoursWithOwnSpectra: run.spectra.nOwnHours, daylightHoursWithG173Shapes: run.spectra.nFallbackHours, assumptions: run.spectra.notes };
+}
+
 /** `<out>/yield/yield-<site>.json` (shape documented in docs/contracts.md). */
 export function yieldJson(args: {
-  toolVersion: string; matrix: Record<string, unknown>; site: Site; ctx: YearContext; skyModel: SkyModel; results: YieldResult[]; best?: YieldResult;
+  toolVersion: string; matrix: Record<string, unknown>; site: Site; ctx: YearContext; skyModel: SkyModel; results: YieldResult[]; best?: YieldResult; spectral?: SpectralRun;
 }): Record<string, unknown> {
   const out: Record<string, unknown> = {
     kind: YIELD_KIND,
@@ -58,7 +77,16 @@ export function yieldJson(args: {
     weather: weatherInfo(args.ctx),
     skyModel: args.skyModel,
     units: { charge: "A·h/m²", insolation: "kWh/m²", normalIncidence: "A/W" },
-    results: args.results.map(planeResultJson),
+    spectra: spectraJson(args.spectral),
+    results: args.results.map((y, i) => {
+      const j = planeResultJson(y);
+      const fixed = args.spectral?.fixed[i];
+      if (fixed) {
+        const c = spectralCorrection(y, fixed);
+        j.spectralCorrection = { chargeG173ShapesAhM2: r(fixed.chargeAhM2, 2), yearPct: r(c.yearPct, 4), monthlyPct: c.monthlyPct.map((v) => r(v, 4)) };
+      }
+      return j;
+    }),
   };
   if (args.best) out.best = { tiltDeg: args.best.plane.tiltDeg, azimuthDeg: args.best.plane.azimuthDeg, chargeAhM2: r(args.best.chargeAhM2, 2) };
   return out;
@@ -100,20 +128,27 @@ export function compareJson(args: {
 }
 
 const pad = (s: string, n: number): string => s.padStart(n);
+const signed = (x: number): string => (x >= 0 ? "+" : "") + x.toFixed(2);
 
 /** Plain-text table of a yield run (one row per plane) and the best plane. */
-export function formatYieldTable(siteName: string, skyModel: SkyModel, results: YieldResult[], best?: YieldResult): string {
-  const lines = [`site ${siteName}, sky model ${skyModel}`, ""];
-  lines.push(`${pad("tilt°", 6)} ${pad("azim°", 6)} ${pad("POA kWh/m²", 11)} ${pad("charge A·h/m²", 14)} ${pad("± (MC)", 8)} ${pad("rel. normal", 11)}`);
-  for (const y of results) {
+export function formatYieldTable(siteName: string, skyModel: SkyModel, results: YieldResult[], best?: YieldResult, spectral?: SpectralRun): string {
+  const lines = [`site ${siteName}, sky model ${skyModel}, spectra ${spectral ? spectral.spectra.source : "fixed G173 shapes"}`, ""];
+  const corr = spectral ? results.map((y, i) => spectralCorrection(y, spectral.fixed[i]!)) : undefined;
+  lines.push(`${pad("tilt°", 6)} ${pad("azim°", 6)} ${pad("POA kWh/m²", 11)} ${pad("charge A·h/m²", 14)} ${pad("± (MC)", 8)} ${pad("rel. normal", 11)}` + (corr ? ` ${pad("G173 shapes", 12)} ${pad("spectral %", 10)}` : ""));
+  results.forEach((y, i) => {
     lines.push(
-      `${pad(y.plane.tiltDeg.toFixed(1), 6)} ${pad(y.plane.azimuthDeg.toFixed(1), 6)} ${pad(y.poaKWhM2.toFixed(1), 11)} ${pad(y.chargeAhM2.toFixed(0), 14)} ${pad(y.chargeStdErrAhM2.toFixed(0), 8)} ${pad(y.relativeToNormal.toFixed(4), 11)}`,
+      `${pad(y.plane.tiltDeg.toFixed(1), 6)} ${pad(y.plane.azimuthDeg.toFixed(1), 6)} ${pad(y.poaKWhM2.toFixed(1), 11)} ${pad(y.chargeAhM2.toFixed(0), 14)} ${pad(y.chargeStdErrAhM2.toFixed(0), 8)} ${pad(y.relativeToNormal.toFixed(4), 11)}` +
+        (corr ? ` ${pad(spectral!.fixed[i]!.chargeAhM2.toFixed(0), 12)} ${pad(signed(corr[i]!.yearPct), 10)}` : ""),
     );
-  }
+  });
   if (results.length === 1) {
     const y = results[0]!;
-    lines.push("", "month   POA kWh/m²   charge A·h/m²");
-    y.monthlyChargeAhM2.forEach((q, i) => lines.push(`${MONTHS[i]}   ${pad(y.monthlyPoaKWhM2[i]!.toFixed(1), 10)}   ${pad(q.toFixed(0), 13)}`));
+    lines.push("", "month   POA kWh/m²   charge A·h/m²" + (corr ? "   spectral %" : ""));
+    y.monthlyChargeAhM2.forEach((q, i) => lines.push(`${MONTHS[i]}   ${pad(y.monthlyPoaKWhM2[i]!.toFixed(1), 10)}   ${pad(q.toFixed(0), 13)}` + (corr ? `   ${pad(signed(corr[0]!.monthlyPct[i]!), 10)}` : "")));
+  }
+  if (spectral) {
+    lines.push("", `spectral % = charge with hourly spectra ÷ charge with the fixed G173 shapes − 1 (${spectral.spectra.nOwnHours} hours with their own spectra)`);
+    for (const n of spectral.spectra.notes) lines.push(`  · ${n}`);
   }
   if (best && results.length > 1) {
     lines.push("", `best: tilt ${best.plane.tiltDeg}°, azimuth ${best.plane.azimuthDeg}° → ${best.chargeAhM2.toFixed(0)} A·h/m² (POA ${best.poaKWhM2.toFixed(1)} kWh/m²)`);

@@ -3,6 +3,7 @@ import { checkPlane, type Plane } from "../site/site.js";
 import type { SkyModel } from "../sky/transposition.js";
 import { yieldGrid, type AngularGrid } from "./angularGrid.js";
 import { annualYield, planeSetup, type YieldResult } from "./annualYield.js";
+import type { HourlySpectra } from "./hourlySpectra.js";
 import { g173SpectralWeights, spectralTables, type SpectralTables } from "./spectralTables.js";
 import type { YearContext } from "./yearContext.js";
 import { InputError } from "../util/errors.js";
@@ -32,8 +33,8 @@ export function planeList(tiltsDeg: number[], azimuthsDeg: number[], textureRota
 }
 
 /** Yields for a list of planes at one site; the plane-independent work (sun, spectra) is shared. */
-export function yieldSweep(ctx: YearContext, pm: PreparedMatrix, planes: Plane[], skyModel: SkyModel, hourly = false): YieldResult[] {
-  return planes.map((p) => annualYield(ctx, planeSetup(p, pm.grid), pm.grid, pm.tables, { skyModel, hourly }));
+export function yieldSweep(ctx: YearContext, pm: PreparedMatrix, planes: Plane[], skyModel: SkyModel, hourly = false, spectra?: HourlySpectra): YieldResult[] {
+  return planes.map((p) => annualYield(ctx, planeSetup(p, pm.grid), pm.grid, pm.tables, { skyModel, hourly, spectra }));
 }
 
 /** The plane with the largest yearly charge. */

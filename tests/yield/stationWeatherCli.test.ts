@@ -54,4 +54,36 @@ describe("yield --weather with EPW and TMY3 files", () => {
     expect(await run("yield", "--matrix", join(dir, "a.matrix.json"), "--weather", bad)).toBe(2);
     expect(out.join("")).toMatch(/bad\.txt: unknown weather file format/);
   });
+
+  it("--spectra clear-sky-model on an EPW file reports the spectral correction per month and year beside the G173-shape charge", async () => {
+    const res = join(dir, "spectral.json");
+    expect(await run("yield", "--matrix", join(dir, "a.matrix.json"), "--weather", join(dir, "w.epw"), "--tilt", "35", "--spectra", "clear-sky-model", "--out", res)).toBe(0);
+    expect(out.join("")).toMatch(/spectral %/);
+    const doc = JSON.parse(readFileSync(res, "utf8"));
+    expect(doc.spectra.mode).toBe("clear-sky-model");
+    expect(doc.spectra.hoursWithOwnSpectra).toBeGreaterThan(4000);
+    // the EPW sample leaves precipitable water missing: it comes from temperature and humidity
+    expect(doc.spectra.assumptions.join(" ")).toMatch(/0 h from the weather file, \d+ h from its temperature and humidity/);
+    const c = doc.results[0].spectralCorrection;
+    expect(c.monthlyPct).toHaveLength(12);
+    expect(c.yearPct).toBeCloseTo(100 * (doc.results[0].chargeAhM2 / c.chargeG173ShapesAhM2 - 1), 1);
+  });
+
+  it("--spectra <file> reads a measured spectral time series; a bad one exits 2 naming file and line", async () => {
+    const spec = join(dir, "measured.csv"), res = join(dir, "measured.json");
+    const wl = range(300, 1200, 5);
+    const rows = ["time," + wl.join(",")];
+    for (let hr = 8; hr < 17; hr++) rows.push(`2027-06-21T${String(hr).padStart(2, "0")}:30:00+01:00,` + wl.map((l) => (1.5 * Math.exp(-(((l - 650) / 400) ** 2))).toFixed(4)).join(","));
+    writeFileSync(spec, rows.join("\n") + "\n");
+    expect(await run("yield", "--matrix", join(dir, "a.matrix.json"), "--site", SITE, "--weather", join(dir, "w.csv"), "--tilt", "35", "--spectra", spec, "--out", res)).toBe(0);
+    const doc = JSON.parse(readFileSync(res, "utf8"));
+    expect(doc.spectra.mode).toBe("file");
+    expect(doc.spectra.hoursWithOwnSpectra).toBe(9);
+    const bad = join(dir, "never2.json");
+    const text = rows.join("\n") + "\n";
+    writeFileSync(spec, text.replace(/\n(2027-06-21T10:30:00\+01:00,)([^,]+),/, "\n$1-0.5,"));
+    expect(await run("yield", "--matrix", join(dir, "a.matrix.json"), "--site", SITE, "--weather", join(dir, "w.csv"), "--spectra", spec, "--out", bad)).toBe(2);
+    expect(out.join("")).toMatch(/measured\.csv: .*line 4: irradiance "-0\.5" at 300 nm/s);
+    expect(existsSync(bad)).toBe(false);
+  });
 });

@@ -11,6 +11,7 @@ import { formatYieldTable, hourlyCsv, matrixInfo, yieldJson } from "../../yield/
 import { bestPlane, prepareMatrix, yieldSweep } from "../../yield/yieldRun.js";
 import { readWeatherInput, siteAndWeather } from "../weatherInput.js";
 import { slugOf } from "../../util/safePath.js";
+import { SPECTRA_HELP, hourlySpectraOption } from "../spectraInput.js";
 
 /** File-name-safe form of a site name (at most 60 characters: a long name must not overflow a file name). */
 export function slug(name: string): string {
@@ -18,7 +19,7 @@ export function slug(name: string): string {
 }
 
 interface YieldOpts extends YearPlaneFlags, ResultFlags {
-  matrix: string; site?: string; weather: string; hourly?: string;
+  matrix: string; site?: string; weather: string; hourly?: string; spectra: string;
 }
 
 /** `lightfold yield --matrix m --site s --weather csv|synthetic --tilt 30 --azimuth 180` */
@@ -30,7 +31,8 @@ export function register(program: Command): void {
     .option("--site <site.json>", "site file (optional with an EPW or TMY3 weather file: its header gives the location)")
     .option("--weather <file|synthetic>", "hourly weather: EPW, TMY3 CSV or lightfold CSV (told apart by content), or a synthetic year", "synthetic");
   addYearPlaneOptions(cmd, { tilt: "30" })
-    .option("--hourly <file.csv>", "write the hourly POA irradiance and current (single plane only)");
+    .option("--hourly <file.csv>", "write the hourly POA irradiance and current (single plane only)")
+    .option("--spectra <g173|clear-sky-model|file.csv>", SPECTRA_HELP, "g173");
   addResultOptions(cmd, "yield-<site>.json", "result")
     .addHelpText(
       "after",
@@ -40,11 +42,14 @@ Examples:
   lightfold yield --matrix m.json --site configs/sites/nordvik-fjell.site.json \\
       --weather weather-samples/nordvik-fjell-2027.csv --tilt 0:90:5 --run-dir runs/demo
   lightfold yield --matrix m.json --site s.json --weather synthetic --year 2027 --seed 7 --tilt 35 --hourly hours.csv
-  lightfold yield --matrix m.json --weather weather-samples/brevenmark-2027.epw --tilt 35
+  lightfold yield --matrix m.json --weather weather-samples/brevenmark-2027.epw --tilt 35 --spectra clear-sky-model
+  lightfold yield --matrix m.json --site s.json --weather w.csv --spectra measured-spectra.csv
 
 Weather files: EPW and TMY3 (hour-ending Wh/m², local standard time; the header gives latitude,
 longitude, time zone and elevation, so --site is optional; a site file given with them must name the
 same place) or lightfold's CSV (hour-starting W/m²); typical-year files are placed on --year.
+--spectra other than g173 also computes the fixed-G173-shape year and reports the spectral correction
+(hourly spectra ÷ fixed shapes − 1) per month and year.
 
 Charge = Σ over hours of the absorbed photocurrent (A/m²) × 1 h. Beam and circumsolar light use the
 response at the sun's direction in the module frame with the AM1.5D spectral shape; sky, horizon band
@@ -57,11 +62,13 @@ only: not an electrical or bankable energy yield.`,
       const matrix = readResponseMatrix(opts.matrix);
       const pm = prepareMatrix(matrix, opts.matrix, opts.channel);
       const input = readWeatherInput(opts.weather, year);
-      const { site, weather } = siteAndWeather(input, opts.site ? readSiteFile(opts.site) : undefined, opts.site, year, seed);
+      const { site, weather, station } = siteAndWeather(input, opts.site ? readSiteFile(opts.site) : undefined, opts.site, year, seed);
       const ctx = yearContext(site, weather);
-      const results = yieldSweep(ctx, pm, planes, sky, Boolean(opts.hourly));
+      const hourlySpectra = hourlySpectraOption(opts.spectra, ctx, site, station?.met, pm, matrix.wavelengthNm);
+      const results = yieldSweep(ctx, pm, planes, sky, Boolean(opts.hourly), hourlySpectra?.spectra);
+      const spectral = hourlySpectra ? { ...hourlySpectra, fixed: yieldSweep(ctx, pm, planes, sky) } : undefined;
       const best = results.length > 1 ? bestPlane(results) : undefined;
-      const doc = yieldJson({ toolVersion: toolVersion(), matrix: matrixInfo(matrix, opts.matrix, pm.channel), site, ctx, skyModel: sky, results, best });
+      const doc = yieldJson({ toolVersion: toolVersion(), matrix: matrixInfo(matrix, opts.matrix, pm.channel), site, ctx, skyModel: sky, results, best, spectral });
       const text = JSON.stringify(doc, null, 2) + "\n";
       // all inputs checked; now write
       if (opts.hourly) writeFileAtomic(opts.hourly, hourlyCsv(ctx, results[0]!, formatUtcOffset(site.utcOffsetHours)));
@@ -69,7 +76,7 @@ only: not an electrical or bankable energy yield.`,
       if (opts.json) process.stdout.write(text);
       else {
         for (const w of ctx.warnings) process.stderr.write(`warning: ${ctx.weatherSource}: ${w}\n`);
-        process.stdout.write(formatYieldTable(site.name, sky, results, best));
+        process.stdout.write(formatYieldTable(site.name, sky, results, best, spectral));
         if (report) process.stdout.write(`report: ${report}\n`);
       }
     });
