@@ -3,7 +3,7 @@
  * yield entries, tilt sweeps and texture-benefit rows.
  */
 import type { BenefitRow, TiltSweep, YieldEntry } from "./inputs.js";
-import { numberAt, objectAt, objectsAt, optNumberAt, stringAt, type Json } from "./fields.js";
+import { numberArrayAt, numberAt, objectAt, objectsAt, optNumberAt, stringAt, type Json } from "./fields.js";
 
 export interface YieldParts {
   yields: YieldEntry[];
@@ -28,6 +28,19 @@ interface Plane {
   poaKWhM2?: number;
   relativeToNormal?: number;
   monthly: number[];
+  spectralCorrection?: { yearPct: number; monthlyPct: number[]; spectra: string };
+}
+
+/** The optional spectral correction of a plane (files written with --spectra other than g173). */
+function spectralCorrectionAt(raw: Json, item: Json, source: string, path: string): Plane["spectralCorrection"] {
+  if (item.spectralCorrection === undefined) return undefined;
+  const c = objectAt(item, "spectralCorrection", source, `${path}.spectralCorrection`);
+  const spectra = objectAt(raw, "spectra", source);
+  return {
+    yearPct: numberAt(c, "yearPct", source, `${path}.spectralCorrection.yearPct`),
+    monthlyPct: numberArrayAt(c, "monthlyPct", source, `${path}.spectralCorrection.monthlyPct`, 12),
+    spectra: stringAt(spectra, "mode", source, "spectra.mode"),
+  };
 }
 
 function readYield(raw: Json, source: string): YieldParts {
@@ -42,12 +55,13 @@ function readYield(raw: Json, source: string): YieldParts {
       poaKWhM2: optNumberAt(item, "poaKWhM2", source, `${path}.poaKWhM2`),
       relativeToNormal: optNumberAt(item, "relativeToNormal", source, `${path}.relativeToNormal`),
       monthly,
+      spectralCorrection: spectralCorrectionAt(raw, item, source, path),
     };
   });
   const parts: YieldParts = { yields: [], tiltSweeps: [], benefit: [] };
   if (planes.length <= MAX_MONTHLY_PLANES) {
     for (const p of planes) {
-      parts.yields.push({ stackLabel, siteName, tiltDeg: p.tiltDeg, azimuthDeg: p.azimuthDeg, monthlyAhM2: p.monthly, annualAhM2: p.chargeAhM2, poaKwhM2: p.poaKWhM2, relativeToNormal: p.relativeToNormal });
+      parts.yields.push({ stackLabel, siteName, tiltDeg: p.tiltDeg, azimuthDeg: p.azimuthDeg, monthlyAhM2: p.monthly, annualAhM2: p.chargeAhM2, poaKwhM2: p.poaKWhM2, relativeToNormal: p.relativeToNormal, spectralCorrection: p.spectralCorrection });
     }
   }
   // planes of one azimuth over three or more tilts make a tilt curve

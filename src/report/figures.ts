@@ -187,6 +187,21 @@ export function monthlyFigure(yields: YieldEntry[]): Figure | null {
   });
 }
 
+/** Spectral correction per month (hourly spectra against the fixed G173 shapes), one bar group per stack × tilt. */
+export function spectralCorrectionFigure(yields: YieldEntry[]): Figure | null {
+  const shown = yields.filter((y) => y.spectralCorrection);
+  if (shown.length === 0) return null;
+  const modes = [...new Set(shown.map((y) => y.spectralCorrection!.spectra))];
+  return figure("spectral-correction", "Spectral correction: hourly spectra against the fixed AM1.5 shapes", barChart, {
+    subtitle: `spectra: ${modes.join(", ")}; year: ${shown.map((y) => `${shortName(y.stackLabel)} tilt ${y.tiltDeg}° ${(y.spectralCorrection!.yearPct >= 0 ? "+" : "") + y.spectralCorrection!.yearPct.toFixed(2)} %`).join("; ")}`,
+    xLabel: "month",
+    y: { label: "charge with hourly spectra ÷ with G173 shapes − 1 (%)" },
+    categories: MONTHS,
+    groups: shown.map((y) => ({ label: yieldLabel(y, shown, true), values: y.spectralCorrection!.monthlyPct })),
+    width: 820,
+  });
+}
+
 /** Yearly charge vs tilt, best tilt marked on each curve. */
 export function tiltFigure(sweeps: TiltSweep[]): Figure | null {
   const shown = sweeps.filter((s) => s.tiltDeg.length > 1);

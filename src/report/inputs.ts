@@ -80,6 +80,8 @@ export interface YieldEntry {
   poaKwhM2?: number;
   /** Year-average current relative to normal incidence at the same insolation (angular/spectral loss). */
   relativeToNormal?: number;
+  /** With hourly spectra: charge ÷ charge with the fixed G173 shapes − 1, %, per month and for the year. */
+  spectralCorrection?: { yearPct: number; monthlyPct: number[]; spectra: string };
 }
 
 /** Yearly charge over a tilt sweep, with its best tilt. */

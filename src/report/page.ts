@@ -6,6 +6,7 @@ import {
   iamFigure,
   monthlyFigure,
   optimumFigures,
+  spectralCorrectionFigure,
   parameterSweepFigure,
   responseMapFigure,
   spectralFigure,
@@ -204,6 +205,8 @@ export function renderReport(input: ReportInput): RenderedReport {
   if (input.yields.length) sections += yieldTable(input);
   sections += `<div class="row">`;
   if (monthly) sections += use(monthly);
+  const spectral = spectralCorrectionFigure(input.yields);
+  if (spectral) sections += use(spectral);
   if (tilt) sections += use(tilt);
   sections += `</div>`;
   if (!tilt && input.yields.length) sections += note("Tilt sweep omitted: no yield result covers more than one tilt.");

@@ -65,6 +65,13 @@ describe("yield --weather with EPW and TMY3 files", () => {
     // the EPW sample leaves precipitable water missing: it comes from temperature and humidity
     expect(doc.spectra.assumptions.join(" ")).toMatch(/0 h from the weather file, \d+ h from its temperature and humidity/);
     const c = doc.results[0].spectralCorrection;
+    // the run folder's report plots it: one bar per month (barChart marks are <rect> in g.marks)
+    const runDir = join(dir, "spec-run");
+    expect(await run("yield", "--matrix", join(dir, "a.matrix.json"), "--weather", join(dir, "w.epw"), "--tilt", "35", "--spectra", "clear-sky-model", "--run-dir", runDir)).toBe(0);
+    const svg = readFileSync(join(runDir, "report", "spectral-correction.svg"), "utf8");
+    const marks = svg.slice(svg.indexOf('class="marks"'));
+    expect((marks.match(/<rect/g) ?? []).length).toBeGreaterThanOrEqual(12);
+    expect(readFileSync(join(runDir, "report", "index.html"), "utf8")).toMatch(/Spectral correction/);
     expect(c.monthlyPct).toHaveLength(12);
     expect(c.yearPct).toBeCloseTo(100 * (doc.results[0].chargeAhM2 / c.chargeG173ShapesAhM2 - 1), 1);
   });
