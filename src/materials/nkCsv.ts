@@ -16,6 +16,13 @@ const WAVELENGTH_HEADERS: Record<string, number> = {
   "wavelength_μm": 1000,
 };
 const ENERGY_HEADERS = new Set(["energy_ev", "photon_energy_ev"]);
+/**
+ * Largest n or k accepted: metals reach k ≈ 100 in the far infrared (e.g. Ag, Au tables), nothing
+ * optical comes near 1000; a value beyond is a typing or unit mistake (and would overflow e^(−4πkd/λ)).
+ */
+export const MAX_NK = 1000;
+/** Most data rows of an n,k table (a published table has hundreds to a few thousand). */
+export const MAX_NK_ROWS = 100_000;
 /** hc in eV·nm from the exact SI constants (λ[nm] = HC_EV_NM / E[eV]). */
 const HC_EV_NM = ((H_PLANCK_JS * C_LIGHT_MS) / Q_ELEMENTARY_C) * 1e9;
 
@@ -42,9 +49,10 @@ export function parseNkCsv(text: string, label: string): NkColumns {
     throw new InputError(`${label}: header columns after the wavelength must be n, k or both (got "${t.header.join(",")}")`);
   }
   if (t.columns[0]!.length < 2) throw new InputError(`${label}: needs at least 2 data rows, found ${t.columns[0]!.length}`);
-  requireEach(t, 0, (v) => v > 0, energy ? "a positive photon energy" : "a positive wavelength");
-  if (iN >= 0) requireEach(t, iN + 1, (v) => v > 0, "n > 0");
-  if (iK >= 0) requireEach(t, iK + 1, (v) => v >= 0, "k ≥ 0");
+  if (t.columns[0]!.length > MAX_NK_ROWS) throw new InputError(`${label}: ${t.columns[0]!.length} data rows, more than ${MAX_NK_ROWS} (thin the table; the tracer interpolates)`);
+  requireEach(t, 0, (v) => v > 0 && v <= 1e7, energy ? "a positive photon energy" : "a wavelength in (0, 10⁷]");
+  if (iN >= 0) requireEach(t, iN + 1, (v) => v > 0 && v <= MAX_NK, `0 < n ≤ ${MAX_NK}`);
+  if (iK >= 0) requireEach(t, iK + 1, (v) => v >= 0 && v <= MAX_NK, `0 ≤ k ≤ ${MAX_NK}`);
   const n = iN >= 0 ? t.columns[iN + 1]! : null;
   const k = iK >= 0 ? t.columns[iK + 1]! : null;
   if (!energy) {

@@ -1,4 +1,4 @@
-import { readFileSync } from "node:fs";
+import { readDataFile } from "../util/inputFile.js";
 import { InputError } from "../util/errors.js";
 import { parseNumericTable, requireEach, requireStrictlyIncreasing } from "../materials/numericTable.js";
 import type { Spectrum } from "./types.js";
@@ -21,14 +21,6 @@ export function parseSpectrumCsv(text: string, label: string, name = label): Spe
 
 /** Reads a spectrum CSV file (see parseSpectrumCsv); errors name the file and line. */
 export function loadSpectrumCsv(path: string): Spectrum {
-  let text: string;
-  try {
-    text = readFileSync(path, "utf8");
-  } catch (err) {
-    throw new InputError(
-      `${path}: cannot read spectrum file (${err instanceof Error ? err.message : String(err)})`,
-      "give a CSV with header wavelength_nm,irradiance_W_m2_nm, or the built-in name AM1.5G",
-    );
-  }
+  const text = readDataFile(path, "spectrum file", "give a CSV with header wavelength_nm,irradiance_W_m2_nm, or the built-in name AM1.5G");
   return parseSpectrumCsv(text, path);
 }

@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import { dirname, resolve } from "node:path";
 import { InputError } from "../util/errors.js";
-import { parseJsonInput, readInputText } from "../util/inputFile.js";
+import { dataFileProblem, parseJsonInput, readInputText } from "../util/inputFile.js";
 import type { MaterialRegistry } from "../materials/registry.js";
 import { canonicalJson, studyHash } from "./canonical.js";
 import { resolveStudyDocument } from "./resolveStudy.js";
@@ -103,13 +103,13 @@ function referencedFiles(doc: unknown, baseDir: string): Record<string, string> 
         const p = path === "" ? k : `${path}.${k}`;
         if (k === "csv" && typeof v === "string" && v !== "") {
           if (files[v] === undefined) {
+            const abs = resolve(baseDir, v);
+            const problem = dataFileProblem(abs);
+            if (problem !== undefined) throw new InputError(`${p}: cannot read ${abs}: ${problem}`, "csv paths are relative to the folder of the study file");
             try {
-              files[v] = readFileSync(resolve(baseDir, v), "utf8");
+              files[v] = readFileSync(abs, "utf8");
             } catch (err) {
-              throw new InputError(
-                `${p}: cannot read ${resolve(baseDir, v)} (${(err as NodeJS.ErrnoException).code ?? (err as Error).message})`,
-                "csv paths are relative to the folder of the study file",
-              );
+              throw new InputError(`${p}: cannot read ${abs} (${(err as NodeJS.ErrnoException).code ?? (err as Error).message})`, "csv paths are relative to the folder of the study file");
             }
           }
         } else visit(v, p);

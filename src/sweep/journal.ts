@@ -121,9 +121,17 @@ export function setJournalAside(path: string, why: string): string {
  */
 export class JournalWriter {
   private fd: number;
+  /** Entries in the file (kept from the earlier run, then appended). */
+  private entries: number;
 
-  private constructor(fd: number) {
+  private constructor(readonly path: string, fd: number, kept: number) {
     this.fd = fd;
+    this.entries = kept;
+  }
+
+  /** True while the journal holds no finished task (only its header). */
+  get empty(): boolean {
+    return this.entries === 0;
   }
 
   /**
@@ -132,13 +140,14 @@ export class JournalWriter {
    */
   static start(path: string, header: JournalHeader, kept: readonly JournalEntry[]): JournalWriter {
     writeFileAtomic(path, headerLine(header) + kept.map(entryLine).join(""));
-    return new JournalWriter(openSync(path, "a"));
+    return new JournalWriter(path, openSync(path, "a"), kept.length);
   }
 
   append(entries: readonly JournalEntry[]): void {
     if (entries.length === 0) return;
     writeSync(this.fd, entries.map(entryLine).join(""));
     fsyncSync(this.fd);
+    this.entries += entries.length;
   }
 
   close(): void {

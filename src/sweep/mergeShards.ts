@@ -3,6 +3,7 @@ import { basename, join } from "node:path";
 import { matrixFromTallies } from "../response/fromTallies.js";
 import type { ResponseMatrix } from "../response/responseMatrix.js";
 import { InputError } from "../util/errors.js";
+import { lockOutputDir, removeStaleTempFiles } from "../util/outputLock.js";
 import { canonicalJson } from "../study/canonical.js";
 import { inShard, totalPoints, type SweepPlan } from "./plan.js";
 import { readShardPartial, type ShardPartial } from "./shardFile.js";
@@ -15,6 +16,10 @@ export interface MergeOptions {
   outDir?: string;
   /** Write matrices even when shards are missing, marked `partial: true`. */
   allowPartial?: boolean;
+  /** Keep the output folder's lock after the merge (released by the result's releaseLock). */
+  holdLock?: boolean;
+  /** Messages (a stale lock taken over). */
+  onNotice?: (message: string) => void;
 }
 
 export interface MergeResult {
@@ -30,6 +35,7 @@ export interface MergeResult {
   raysTraced: number;
   /** What was written to run.json (with an outDir), for callers that add to it. */
   runRecord?: RunRecord;
+  releaseLock?: () => void;
 }
 
 const SHARD_DIR = /^shard-(\d+)-of-(\d+)$/;
@@ -138,13 +144,24 @@ export function mergeShards(options: MergeOptions): MergeResult {
   }
   const partial = missing.length > 0;
   const matrices = plan.combos.map((_, ci) => matrixFromTallies(plan, ci, (p) => tallies.get(p), partial));
-  const written = options.outDir === undefined ? undefined : writeRunOutputs(options.outDir, plan, matrices, {
-    raysTraced,
-    raysResumed: 0,
-    wallS: Math.max(...[...byIndex.values()].map((s) => s.wallS)),
-    shards: count,
-    partial,
-    missingShards: missing,
-  });
-  return { plan, shardCount: count, present, missing, unfinished, matrices, files: written?.files ?? [], raysTraced, runRecord: written?.record };
+  if (options.outDir === undefined) return { plan, shardCount: count, present, missing, unfinished, matrices, files: [], raysTraced };
+  const lock = lockOutputDir(options.outDir, "merge", options.onNotice);
+  try {
+    const written = writeRunOutputs(options.outDir, plan, matrices, {
+      raysTraced,
+      raysResumed: 0,
+      wallS: Math.max(...[...byIndex.values()].map((s) => s.wallS)),
+      shards: count,
+      partial,
+      missingShards: missing,
+    });
+    removeStaleTempFiles(options.outDir, ["shards"]);
+    const result: MergeResult = { plan, shardCount: count, present, missing, unfinished, matrices, files: written.files, raysTraced, runRecord: written.record };
+    if (options.holdLock === true) result.releaseLock = () => lock.release();
+    else lock.release();
+    return result;
+  } catch (err) {
+    lock.release();
+    throw err;
+  }
 }

@@ -15,6 +15,7 @@ import { scheduleOrder, Scheduler } from "./scheduler.js";
 import { writeShardPartial } from "./shardFile.js";
 import { shardPartialPath } from "./sweepPaths.js";
 import { planSweep, type SweepRun } from "./sweepRun.js";
+import { RunFolder } from "./runFolder.js";
 
 export { sweepPlanOf } from "./sweepRun.js";
 export { writeRunOutputs } from "./runFiles.js";
@@ -53,6 +54,8 @@ export interface SweepOptions {
   onNotice?: (message: string) => void;
   /** A tracer module file instead of lightfold's own (tests only). */
   tracerModule?: string;
+  /** Keep the output folder's lock after the run (released by the result's releaseLock). */
+  holdLock?: boolean;
 }
 
 export interface SweepResult {
@@ -71,6 +74,8 @@ export interface SweepResult {
   files: string[];
   /** What was written to run.json (whole runs with an outDir), for callers that add to it. */
   runRecord?: RunRecord;
+  /** With holdLock: releases the output folder's lock (the caller's last write done). */
+  releaseLock?: () => void;
 }
 
 /**
@@ -81,20 +86,31 @@ export interface SweepResult {
  */
 export async function runSweep(options: SweepOptions): Promise<SweepResult> {
   const t0 = Date.now();
+  const notice = options.onNotice ?? (() => {});
   const run = planSweep(options.study, await loadTracer(options.tracerModule), options.shard ?? null);
-  const opened = options.outDir === undefined ? undefined : openRunJournal(run, options.outDir, options.fresh === true, options.onNotice ?? (() => {}));
-  run.raysDone = run.raysResumed;
-  const nWorkers = options.pool?.nWorkers ?? options.workers ?? defaultWorkerCount();
-  await traceAll(run, options, opened?.journal, nWorkers, t0);
-  const wallS = (Date.now() - t0) / 1000;
-  const pointTallies = new Map<number, Float64Array>();
-  for (const [p, st] of run.states) pointTallies.set(p, st.merged as Float64Array);
-  const result: SweepResult = {
-    plan: run.plan, matrices: [], pointTallies, raysTraced: run.raysDone - run.raysResumed, raysResumed: run.raysResumed,
-    damagedJournalLines: opened?.damaged ?? [], wallS, workers: nWorkers, files: [],
-  };
-  writeStage(run, options, result);
-  return result;
+  const folder = options.outDir === undefined ? undefined : RunFolder.open(options.outDir, run.shard, notice);
+  let journal: JournalWriter | undefined;
+  try {
+    const opened = folder === undefined ? undefined : openRunJournal(run, options.outDir as string, options.fresh === true, notice);
+    journal = opened?.journal;
+    run.raysDone = run.raysResumed;
+    const nWorkers = options.pool?.nWorkers ?? options.workers ?? defaultWorkerCount();
+    await traceAll(run, options, journal, nWorkers, t0);
+    const pointTallies = new Map<number, Float64Array>();
+    for (const [p, st] of run.states) pointTallies.set(p, st.merged as Float64Array);
+    const result: SweepResult = {
+      plan: run.plan, matrices: [], pointTallies, raysTraced: run.raysDone - run.raysResumed, raysResumed: run.raysResumed,
+      damagedJournalLines: opened?.damaged ?? [], wallS: (Date.now() - t0) / 1000, workers: nWorkers, files: [],
+    };
+    writeStage(run, options, result);
+    const release = folder?.finish(options.holdLock === true);
+    if (release !== undefined) result.releaseLock = release;
+    return result;
+  } catch (err) {
+    journal?.close();
+    folder?.abandon(journal);
+    throw err;
+  }
 }
 
 /** Schedule, trace and fold: queues every point, drains the queue on the pool, closes the journal. */

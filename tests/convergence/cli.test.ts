@@ -59,7 +59,7 @@ describe("lightfold converge", () => {
     expect(both.err).toMatch(/exactly one of --wavelength <nm> or --spectral/);
     const steps = await run("converge", studyPath, "--wavelength", "500", "--steps", "1", "--out", join(dir, "x"));
     expect(steps.code).toBe(2);
-    expect(steps.err).toMatch(/--steps: expected an integer ≥ 2, got "1"/);
+    expect(steps.err).toMatch(/--steps: expected a whole number from 2 to 20 in decimal digits, got "1"/);
     const ch = await run("converge", studyPath, "--wavelength", "500", "--channel", "A_nothing", "--out", join(dir, "x"));
     expect(ch.code).toBe(2);
     expect(ch.err).toMatch(/no channel "A_nothing"/);

@@ -6,6 +6,7 @@ import { defaultWorkerCount } from "../../workers/pool.js";
 import { loadStudy } from "../../study/load.js";
 import { writeFileAtomic } from "../../util/atomicWrite.js";
 import { InputError } from "../../util/errors.js";
+import { countFlag, MAX_WORKERS } from "../countFlag.js";
 import { spectrumOption } from "./spectral.js";
 
 interface ConvergeFlags {
@@ -35,7 +36,24 @@ function num(text: string | undefined, flag: string, check: (v: number) => boole
   if (text.trim() === "" || !Number.isFinite(v) || !check(v)) throw new InputError(`${flag}: expected ${expected}, got "${text}"`, "run `lightfold converge --help` for each flag's form and examples");
   return v;
 }
-const posInt = (v: number) => Number.isInteger(v) && v >= 1;
+const HINT = "run `lightfold converge --help` for each flag's form and examples";
+/** Doubling steps: 20 steps already span a factor of 524,288 in rays. */
+const MAX_STEPS = 20;
+const MAX_REPLICAS = 64;
+/** Most rays one convergence run may trace (replicas × all steps + the reference). */
+export const MAX_CONVERGE_RAYS = 1e11;
+
+/** Refuses a run whose rays (replicas × Σ steps + reference) exceed MAX_CONVERGE_RAYS. */
+function requireConvergeSize(req: ConvergeRequest): void {
+  const steps = req.replicas * req.startRays * (2 ** req.steps - 1);
+  const reference = req.referenceRays ?? 16 * req.startRays * 2 ** (req.steps - 1);
+  if (steps + reference > MAX_CONVERGE_RAYS) {
+    throw new InputError(
+      `--start ${req.startRays} --steps ${req.steps} --replicas ${req.replicas}: the run would trace ${(steps + reference).toExponential(2)} rays (steps and reference), more than the limit ${MAX_CONVERGE_RAYS.toExponential(0)}`,
+      "fewer --steps or a smaller --start; each step doubles the rays",
+    );
+  }
+}
 
 function estimatorFlag(text: string | undefined): "analog" | "expected" | undefined {
   if (text === undefined || text === "analog" || text === "expected") return text;
@@ -94,17 +112,18 @@ Carlo errors fall as N^-1/2: the fitted log-log slopes should be near -0.5.`,
         wavelengthNm: num(flags.wavelength, "--wavelength", (v) => v > 0, "a wavelength in nm"),
         channel: flags.channel,
         spectrum: flags.spectrum === undefined ? undefined : spectrumOption(flags.spectrum),
-        startRays: num(flags.start, "--start", posInt, "a positive integer")!,
-        steps: num(flags.steps, "--steps", (v) => posInt(v) && v >= 2, "an integer ≥ 2")!,
-        replicas: num(flags.replicas, "--replicas", posInt, "a positive integer")!,
-        referenceRays: num(flags.referenceRays, "--reference-rays", posInt, "a positive integer"),
+        startRays: countFlag(flags.start, "--start", 1, 1e9, HINT),
+        steps: countFlag(flags.steps, "--steps", 2, MAX_STEPS, HINT),
+        replicas: countFlag(flags.replicas, "--replicas", 1, MAX_REPLICAS, HINT),
+        referenceRays: flags.referenceRays === undefined ? undefined : countFlag(flags.referenceRays, "--reference-rays", 1, MAX_CONVERGE_RAYS, HINT),
         targetError: num(flags.targetError, "--target-error", (v) => v > 0, "a positive number"),
         estimator: estimatorFlag(flags.estimator),
       };
+      requireConvergeSize(req);
       const onStep = flags.quiet ? undefined : (msg: string) => process.stderr.write(`${msg}\n`);
       // A non-default estimator traces in this thread unless workers are asked for explicitly.
       const workers =
-        num(flags.workers, "--workers", posInt, "a positive integer") ?? (req.estimator === undefined || req.estimator === "expected" ? defaultWorkerCount() : 1);
+        (flags.workers === undefined ? undefined : countFlag(flags.workers, "--workers", 1, MAX_WORKERS, HINT)) ?? (req.estimator === undefined || req.estimator === "expected" ? defaultWorkerCount() : 1);
       const report = await buildConvergenceReportOnPool(loaded, req, workers, onStep);
       // Everything is computed; now the files (each written atomically).
       if (flags.csv !== undefined) writeFileAtomic(flags.csv, convergenceCsv(report));

@@ -23,11 +23,17 @@ Refuses shards of a different study hash, lightfold version or shard count. Miss
 listed by number (exit 2) unless --allow-partial is given.`,
     )
     .action((inputs: string[], flags: { out: string; allowPartial?: boolean; json?: boolean }) => {
-      const merged = mergeShards({ inputs, outDir: flags.out, allowPartial: flags.allowPartial === true });
-      // The merge writes matrices and run.json; the spectral weighting adds the photocurrent summaries.
-      const files = merged.runRecord === undefined ? merged.files
-        : writeRunPhotocurrent(flags.out, merged.plan, merged.matrices, merged.runRecord, (m) => process.stderr.write(`lightfold merge: ${m}\n`));
-      const r = { ...merged, files };
+      const notice = (m: string): void => void process.stderr.write(`lightfold merge: ${m}\n`);
+      const merged = mergeShards({ inputs, outDir: flags.out, allowPartial: flags.allowPartial === true, holdLock: true, onNotice: notice });
+      let files: string[];
+      try {
+        // The merge writes matrices and run.json; the spectral weighting adds the photocurrent summaries.
+        files = merged.runRecord === undefined ? merged.files : writeRunPhotocurrent(flags.out, merged.plan, merged.matrices, merged.runRecord, notice);
+      } finally {
+        merged.releaseLock?.();
+      }
+      const { releaseLock: _l, ...rest } = merged;
+      const r = { ...rest, files };
       if (flags.json === true) {
         const { matrices: _m, plan, runRecord: _r, ...rest } = r;
         process.stdout.write(JSON.stringify({ study: plan.studyName, studyHash: plan.studyHash, partial: r.missing.length > 0, ...rest }, null, 2) + "\n");

@@ -9,6 +9,8 @@ import { resolveShard } from "../../sweep/shardSource.js";
 import { journalPath } from "../../sweep/sweepPaths.js";
 import { existsSync, readFileSync } from "node:fs";
 import { writeRunPhotocurrent } from "../../weighting/runSummaries.js";
+import { releaseAllLocks } from "../../util/outputLock.js";
+import { countFlag, MAX_WORKERS } from "../countFlag.js";
 
 interface SweepFlags {
   report?: boolean;
@@ -29,10 +31,8 @@ export function defaultOutDir(studyPath: string): string {
   return join("runs", basename(studyPath).replace(/\.study\.json$|\.json$/, ""));
 }
 
-function positiveInt(text: string, flag: string): number {
-  const n = Number(text);
-  if (!Number.isInteger(n) || n < 1) throw new InputError(`${flag}: expected a positive integer, got ${JSON.stringify(text)}`, "run `lightfold sweep --help` for each flag's form and examples");
-  return n;
+function positiveInt(text: string, flag: string, max: number): number {
+  return countFlag(text, flag, 1, max, "run `lightfold sweep --help` for each flag's form and examples");
 }
 
 export function register(program: Command): void {
@@ -72,7 +72,7 @@ with the same study; a changed study sets the old journal aside and starts afres
           "a fraction of incident power, e.g. --target-error 0.002",
         );
         const base = study.combos[0].study.rays;
-        const maxPerPoint = flags.maxRays === undefined ? 200_000 : positiveInt(flags.maxRays, "--max-rays");
+        const maxPerPoint = flags.maxRays === undefined ? 200_000 : positiveInt(flags.maxRays, "--max-rays", 1e9);
         const channels = (flags.channels ?? (base.mode === "target" ? base.channels.join(",") : "A_absorber")).split(",").map((c) => c.trim()).filter((c) => c !== "");
         study = withOverrides(study, {
           rays: { mode: "target", targetStdErr: se, channels, maxPerPoint, minPerPoint: Math.min(2 * base.batch, maxPerPoint), batch: base.batch },
@@ -82,7 +82,7 @@ with the same study; a changed study sets the old journal aside and starts afres
       }
       const outDir = flags.out ?? defaultOutDir(studyPath);
       const shard = resolveShard(flags.shard);
-      const workers = flags.workers === undefined ? undefined : positiveInt(flags.workers, "--workers");
+      const workers = flags.workers === undefined ? undefined : positiveInt(flags.workers, "--workers", MAX_WORKERS);
       if (flags.resume === true && flags.fresh === true) throw new InputError("--resume and --fresh exclude each other", "--resume continues the run in --out; --fresh sets its journal aside and starts again");
       const say = (line: string): void => {
         if (flags.quiet !== true) process.stderr.write(`lightfold sweep: ${line}\n`);
@@ -94,6 +94,7 @@ with the same study; a changed study sets the old journal aside and starts afres
       // already holds every finished task).
       const onInterrupt = (signal: NodeJS.Signals): void => {
         reporter.stop();
+        releaseAllLocks();
         process.stderr.write(`\nlightfold sweep: interrupted; finished tasks are in ${journalPath(outDir, shard)}; run the same command again to resume\n`);
         process.kill(process.pid, signal);
       };
@@ -107,6 +108,7 @@ with the same study; a changed study sets the old journal aside and starts afres
           workers,
           shard,
           fresh: flags.fresh === true,
+          holdLock: true,
           onProgress: (p) => reporter.update(p),
           onNotice: (m) => {
             // Journal notices are worth seeing even when quiet.
@@ -122,9 +124,17 @@ with the same study; a changed study sets the old journal aside and starts afres
         process.off("SIGINT", onInterrupt);
         process.off("SIGTERM", onInterrupt);
       }
-      // The sweep writes matrices and run.json; the spectral weighting adds the photocurrent summaries.
-      const files = result.runRecord === undefined ? result.files
-        : writeRunPhotocurrent(outDir, result.plan, result.matrices, result.runRecord, (m) => process.stderr.write(`lightfold sweep: ${m}\n`));
+      // The sweep writes matrices and run.json; the spectral weighting adds the photocurrent summaries
+      // and the report comes last, all under the run folder's lock.
+      let files: string[];
+      let report: string | null;
+      try {
+        files = result.runRecord === undefined ? result.files
+          : writeRunPhotocurrent(outDir, result.plan, result.matrices, result.runRecord, (m) => process.stderr.write(`lightfold sweep: ${m}\n`));
+        report = shard === null && flags.report !== false ? makeReport([outDir]).indexPath : null;
+      } finally {
+        result.releaseLock?.();
+      }
       const summary = {
         study: study.name,
         studyHash: study.hash,
@@ -137,7 +147,7 @@ with the same study; a changed study sets the old journal aside and starts afres
         raysPerS: result.wallS > 0 ? result.raysTraced / result.wallS : 0,
         damagedJournalLines: result.damagedJournalLines,
         files,
-        report: shard === null && flags.report !== false ? makeReport([outDir]).indexPath : null,
+        report,
       };
       if (flags.json === true) {
         process.stdout.write(JSON.stringify(summary, null, 2) + "\n");
