@@ -1,5 +1,6 @@
 import { basename, join } from "node:path";
 import type { Command } from "commander";
+import { countFlag, MAX_WORKERS } from "../countFlag.js";
 import { objectiveInfo, parseAngleWeights, type ObjectiveSpec } from "../../optimize/objectives.js";
 import { formatOptimum } from "../../optimize/optimumJson.js";
 import { checkParameters, parseParameter, type ParameterSpec } from "../../optimize/parameters.js";
@@ -37,10 +38,8 @@ interface OptimizeFlags extends YearPlaneFlags {
 
 const OBJECTIVES = ["jsc", "angles", "yield"] as const;
 
-function positiveInt(text: string, flag: string, min = 1): number {
-  const n = Number(text);
-  if (!Number.isInteger(n) || n < min) throw new InputError(`${flag}: expected a whole number ≥ ${min}, got ${JSON.stringify(text)}`, "run `lightfold optimize --help` for each flag's form and examples");
-  return n;
+function positiveInt(text: string, flag: string, min = 1, max = 1e9): number {
+  return countFlag(text, flag, min, max, "run `lightfold optimize --help` for each flag's form and examples");
 }
 
 /** Default output folder: runs/optimize-<study file name>. */
@@ -151,7 +150,7 @@ interrupted run resumes when started again. Optical estimate only.`,
           objective: spec,
           objectiveDetails: details,
           outDir,
-          workers: flags.workers === undefined ? undefined : positiveInt(flags.workers, "--workers"),
+          workers: flags.workers === undefined ? undefined : positiveInt(flags.workers, "--workers", 1, MAX_WORKERS),
           replicas: positiveInt(flags.replicas, "--replicas", 3),
           level,
           tolerance: toleranceOf(flags.tolerance, params),
