@@ -43,7 +43,7 @@ function inThreadTracer(subject: TraceSubject, options?: CompileOptions): { chan
     for (let b = 0, done = 0; done < nRays; b++) {
       const n = Math.min(batch, nRays - done);
       t.fill(0);
-      traceBatch(stacks[il], thetaDeg, phiDeg, n, new RandomStream(streamKey(seed, subject.combo, 0, 0, il, b)), t);
+      traceBatch(stacks[il], thetaDeg, phiDeg, n, new RandomStream(streamKey(seed, subject.combo, 0, 0, il, b)), t, "unpolarized", study.lightFrom ?? "front");
       const problem = tallyProblem(t, nCh, n);
       if (problem !== undefined) {
         throw new Error(`convergence run failed at θ=${thetaDeg}°, φ=${phiDeg ?? "averaged"}, λ=${g.wavelengthNm[il]} nm, seed ${seed}, batch ${b}: ${problem}`);

@@ -51,5 +51,6 @@ export function matrixFromTallies(
     pathRatio,
   };
   if (partial) m.partial = true;
+  if (combo.lightFrom === "rear") m.lightFrom = "rear";
   return m;
 }

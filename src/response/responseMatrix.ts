@@ -43,6 +43,11 @@ export interface ResponseMatrix {
   pathRatio: Float64Array;
   /** True when written from an incomplete set of shards (explicitly requested). */
   partial?: boolean;
+  /**
+   * "rear": light arrived from the medium behind the rear, launched along (sinθ cosφ, sinθ sinφ, +cosθ)
+   * in the texture frame; R is still light leaving through the front and T through the rear.
+   */
+  lightFrom?: "rear";
 }
 
 /** Flat index of (theta, phi, lambda, channel). */

@@ -41,6 +41,7 @@ export function validateMatrix(raw: unknown, file: string): ResponseMatrix {
   const nRays = numbers(o.nRays, at(root, "nRays"), { length: nPts, min: 0, max: Number.MAX_SAFE_INTEGER, integer: true });
   const pathRatio = numbers(o.pathRatio, at(root, "pathRatio"), { length: nPts, min: 0, max: 1e9 });
   if (o.partial !== undefined && typeof o.partial !== "boolean") refuse(at(root, "partial"), "true or false", o.partial);
+  if (o.lightFrom !== undefined) oneOf(o.lightFrom, at(root, "lightFrom"), ["rear"] as const);
   for (let q = 0; q < nPts; q++) {
     if (nRays[q] === 0) {
       if (o.partial !== true) refuse(at(root, `nRays[${q}]`), "a traced point (rays > 0) in a matrix not marked partial", 0);

@@ -82,9 +82,11 @@ function assemble(
   base: { path: string; baseDir: string; registry: MaterialRegistry; files: Record<string, string> },
 ): LoadedStudy {
   const hasSweep = Object.keys(sweep).length > 0;
+  // rear-lit twins (illumination "both") follow the front combinations and share their numbers
+  const nDistinct = studies.filter((s) => s.lightFrom !== "rear").length || studies.length;
   const combos: StudyCombo[] = studies.map((study, index) => ({
     index,
-    label: hasSweep ? `p${index}` : "base",
+    label: (hasSweep ? `p${index % nDistinct}` : "base") + (study.lightFrom === "rear" ? "-rear" : ""),
     values: comboValues[index],
     study,
     hash: studyHash(study, base.files),

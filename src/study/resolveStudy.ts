@@ -45,8 +45,7 @@ export function resolveStudyDocument(doc: unknown, registry: MaterialLookup | un
   const rays = parseRays(o.rays, "rays");
   const sweep = o.sweep === undefined ? {} : parseSweep(o.sweep, "sweep");
   const base = { name: o.name, description: o.description ?? "", materials, grid, rays, seed: o.seed, spectrum: o.spectrum ?? "AM1.5G" };
-  // front-only studies keep the field unset (their hash stays as before)
-  const lit = o.illumination === "rear" || o.illumination === "both" ? { illumination: o.illumination } : {};
+  const illumination = o.illumination ?? "front";
 
   const comboValues = sweepCombinations(sweep);
   const studies = comboValues.map((values) => {
@@ -61,9 +60,13 @@ export function resolveStudyDocument(doc: unknown, registry: MaterialLookup | un
       }
       throw err;
     }
-    if (lit.illumination) checkRearIllumination(stack);
-    return { ...base, ...lit, stack } satisfies Study;
+    if (illumination !== "front") checkRearIllumination(stack);
+    return { ...base, stack } satisfies Study;
   });
+  // light from the rear: a twin per combination (front-lit studies keep the field unset, so their hash is unchanged)
+  const rear = studies.map((s) => ({ ...s, lightFrom: "rear" as const }));
+  if (illumination === "rear") return { studies: rear, comboValues, sweep };
+  if (illumination === "both") return { studies: [...studies, ...rear], comboValues: [...comboValues, ...comboValues], sweep };
   return { studies, comboValues, sweep };
 }
 

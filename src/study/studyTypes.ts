@@ -47,8 +47,12 @@ export interface Study {
   rays: RaysPlan;
   seed: number;
   spectrum: SpectrumChoice;
-  /** Light from the rear as well ("both": a rear matrix beside the front one) or only; unset = front only. */
-  illumination?: "rear" | "both";
+  /**
+   * "rear": this combination is traced with light arriving from the medium behind the rear (a study
+   * with "illumination": "both" gets one such twin per combination, labelled "<label>-rear").
+   * Unset = from the front.
+   */
+  lightFrom?: "rear";
 }
 
 /** One parameter-sweep combination: its label ("base" or "p0", "p1", ...) and substituted values. */

@@ -16,6 +16,8 @@ export interface ComboPlan {
   absorberThicknessUm: number;
   /** The combination's values in words with units ("Si 180 µm · SiNx 65 nm"); absent without a sweep. */
   title?: string;
+  /** "rear": traced with light from behind the rear (unset: from the front). */
+  lightFrom?: "rear";
 }
 
 /** Everything that fixes the work of a sweep; plain JSON (written into shard partials). */

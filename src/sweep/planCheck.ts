@@ -48,6 +48,7 @@ function combo(raw: unknown, w: Where): ComboPlan {
     channels: names(o.channels, at(w, "channels")),
     absorberThicknessUm: num(o.absorberThicknessUm, at(w, "absorberThicknessUm"), Number.MIN_VALUE, 1e9),
     ...(o.title !== undefined ? { title: str(o.title, at(w, "title"), 1000) } : {}),
+    ...(o.lightFrom !== undefined ? { lightFrom: oneOf(o.lightFrom, at(w, "lightFrom"), ["rear"] as const) } : {}),
   };
 }
 

@@ -45,6 +45,7 @@ export function sweepPlanOf(study: LoadedStudy, tracer: TracerModule): SweepPlan
       channels: comboChannels(c.study, study.registry, tracer),
       absorberThicknessUm: c.study.stack.absorber.thicknessUm,
       ...(Object.keys(c.values).length > 0 ? { title: comboTitle(c.values, c.study.stack) } : {}),
+      ...(c.study.lightFrom === "rear" ? { lightFrom: "rear" as const } : {}),
     })),
     spectrum: first.spectrum,
     baseDir: study.baseDir,

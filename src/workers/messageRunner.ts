@@ -68,7 +68,7 @@ export function createMessageRunner(setup: WorkerSetup, tracer: TracerModule): (
         const tally = out.subarray(offset, offset + len);
         withCoordinates(item, batch, () => {
           const rng = new RandomStream(streamKey(seed, item.combo, item.it, item.ip, item.il, batch));
-          traceBatch(cs, item.thetaDeg, item.phiDeg, nRays, rng, tally);
+          traceBatch(cs, item.thetaDeg, item.phiDeg, nRays, rng, tally, "unpolarized", studies[item.combo].lightFrom ?? "front");
           const problem = tallyProblem(tally, nChannels, nRays);
           if (problem !== undefined) throw new Error(problem);
         });

@@ -8,7 +8,7 @@ import * as ownTracer from "../trace/index.js";
 export interface TracerModule {
   compileStack(study: Study, registry: MaterialRegistry, wavelengthNm: number): unknown;
   channelNames(compiled: never): string[];
-  traceBatch(cs: never, thetaDeg: number, phiDeg: number | null, nRays: number, rng: RandomStream, tally: Float64Array): void;
+  traceBatch(cs: never, thetaDeg: number, phiDeg: number | null, nRays: number, rng: RandomStream, tally: Float64Array, polarization?: "unpolarized", side?: "front" | "rear"): void;
 }
 
 /**
