@@ -68,6 +68,14 @@ function helpHint(program: Command, argv: string[]): string {
   return `run \`lightfold ${verb ?? ""}${verb ? " " : ""}--help\` for usage and examples`;
 }
 
+/**
+ * Text safe for a terminal: control characters (ESC sequences could recolour or rewrite the screen)
+ * shown as \u escapes; line breaks and tabs kept.
+ */
+export function printable(text: string): string {
+  return text.replace(/[\u0000-\u0008\u000b-\u001f\u007f-\u009f]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, "0")}`);
+}
+
 /** The only place that exits the process. */
 export async function main(argv: string[]): Promise<number> {
   const program = buildProgram();
@@ -80,8 +88,8 @@ export async function main(argv: string[]): Promise<number> {
       return EXIT_BAD_INPUT;
     }
     if (err instanceof InputError) {
-      process.stderr.write(`lightfold: ${err.message}\n`);
-      process.stderr.write(`hint: ${err.hint || helpHint(program, argv)}\n`);
+      process.stderr.write(`lightfold: ${printable(err.message)}\n`);
+      process.stderr.write(`hint: ${printable(err.hint || helpHint(program, argv))}\n`);
       return EXIT_BAD_INPUT;
     }
     const message = err instanceof Error ? (err.stack ?? err.message) : String(err);

@@ -59,6 +59,29 @@ export function checkSlurmWord(value: string, option: string): string {
   return value;
 }
 
+/** Options the generated scripts set themselves: long names and their one-letter forms. */
+const RESERVED_LONG = ["array", "dependency", "output", "error"];
+const RESERVED_SHORT = "adoe";
+/** sbatch's one-letter options that take no value (so letters after them are further options). */
+const SHORT_FLAGS = "hHkOQsvVW";
+
+/**
+ * Whether a word sets a reserved option the way sbatch's getopt_long reads it: a long option by
+ * any prefix ("--arr=1-4", "--dep"), or a one-letter option, alone, with its value attached
+ * ("-a1-100", "-o/tmp/x") or after value-less letters ("-Qo/tmp/x").
+ */
+export function setsReservedOption(word: string): boolean {
+  if (word.startsWith("--")) {
+    const name = word.slice(2).split("=")[0]!;
+    return name !== "" && RESERVED_LONG.some((r) => r.startsWith(name));
+  }
+  for (const c of word.slice(1)) {
+    if (RESERVED_SHORT.includes(c)) return true;
+    if (!SHORT_FLAGS.includes(c)) return false; // the rest is this option's value
+  }
+  return false;
+}
+
 /**
  * Splits pass-through sbatch options ("--qos=low --constraint=skylake") into single options, one per
  * #SBATCH line. Each must start with "-" and may not hold quotes, since sbatch reads #SBATCH lines
@@ -71,7 +94,7 @@ export function splitExtraSbatch(values: readonly string[], option: string): str
       if (word === "") continue;
       if (!word.startsWith("-")) throw new InputError(`${option}: expected sbatch options starting with "-", got "${word}"`);
       if (/["'`$\\]/.test(word)) throw new InputError(`${option}: "${word}" holds a quote, $ or backslash, which #SBATCH lines cannot carry`);
-      if (/^--?(array|a|dependency|d|output|o|error|e)(=|$)/.test(word)) {
+      if (setsReservedOption(word)) {
         throw new InputError(`${option}: "${word}" is set by the generated scripts themselves; use the matching lightfold option`);
       }
       out.push(word);

@@ -84,8 +84,8 @@ export function siteFromObject(raw: unknown, src: string): Site {
       throw new InputError(`${src}: unknown field "${k}" (known: ${[...SITE_KEYS].join(", ")})`);
     }
   }
-  if (typeof raw.name !== "string" || raw.name.trim() === "") {
-    throw new InputError(`${src}: field "name" must be a non-empty string`);
+  if (typeof raw.name !== "string" || raw.name.trim() === "" || raw.name.length > 200 || /[\u0000-\u001f\u007f-\u009f]/.test(raw.name)) {
+    throw new InputError(`${src}: name: expected a non-empty string of at most 200 characters without control characters, got ${JSON.stringify(typeof raw.name === "string" ? raw.name.slice(0, 60) : raw.name)}`);
   }
   const site: Site = {
     name: raw.name,

@@ -1,6 +1,7 @@
 import { readFileSync } from "node:fs";
 import { dirname, resolve } from "node:path";
 import { InputError } from "../util/errors.js";
+import { checkStudySize } from "./studyLimits.js";
 import { dataFileProblem, parseJsonInput, readInputText } from "../util/inputFile.js";
 import type { MaterialRegistry } from "../materials/registry.js";
 import { canonicalJson, studyHash } from "./canonical.js";
@@ -72,6 +73,7 @@ export function withOverrides(loaded: LoadedStudy, overrides: { seed?: number; r
     ...(overrides.seed !== undefined ? { seed: overrides.seed } : {}),
     ...(overrides.rays !== undefined ? { rays: overrides.rays } : {}),
   }));
+  checkStudySize(studies[0].grid, studies[0].rays, studies.length);
   return assemble(studies, loaded.combos.map((c) => c.values), loaded.sweep, loaded);
 }
 

@@ -6,6 +6,7 @@ import { parseSweep, substituteCombo, sweepCombinations, type SweepSpec } from "
 import type { SpectrumChoice, Study } from "./studyTypes.js";
 import { isBacksheet, isIdealRear, type StackSpec } from "./stackTypes.js";
 import { validateStack, type MaterialLookup, type ValidateStackOptions } from "./validateStack.js";
+import { checkIncidenceMedium, checkStudySize } from "./studyLimits.js";
 
 export const STUDY_FIELDS = ["$schema", "name", "description", "materials", "stack", "grid", "rays", "seed", "sweep", "spectrum", "illumination"] as const;
 
@@ -48,6 +49,7 @@ export function resolveStudyDocument(doc: unknown, registry: MaterialLookup | un
   const illumination = o.illumination ?? "front";
 
   const comboValues = sweepCombinations(sweep);
+  checkStudySize(grid, rays, comboValues.length * (illumination === "both" ? 2 : 1));
   const studies = comboValues.map((values) => {
     const stackDoc = Object.keys(values).length === 0 ? o.stack : substituteCombo(o.stack, values, "sweep");
     let stack;
@@ -61,6 +63,7 @@ export function resolveStudyDocument(doc: unknown, registry: MaterialLookup | un
       throw err;
     }
     if (illumination !== "front") checkRearIllumination(stack);
+    checkIncidenceMedium(stack.incidence, registry, grid.wavelengthNm, "stack.incidence");
     return { ...base, stack } satisfies Study;
   });
   // light from the rear: a twin per combination (front-lit studies keep the field unset, so their hash is unchanged)

@@ -1,6 +1,7 @@
 import { readFileSync, statSync } from "node:fs";
 import { extname } from "node:path";
 import { InputError } from "./errors.js";
+import { lineColumn, scanJson } from "./jsonScan.js";
 
 /**
  * Reads a user-supplied text file; an unreadable one is an InputError
@@ -40,22 +41,22 @@ export function readDataFile(path: string, what: string, hint: string): string {
   return readInputText(path, what, hint);
 }
 
-/** Parses JSON text; a syntax error is an InputError naming the file, line and column. */
+/**
+ * Parses JSON text (a leading byte-order mark is dropped); a syntax error or a key repeated within
+ * one object is an InputError naming the file, line and column (and the object's path).
+ */
 export function parseJsonInput(text: string, source: string): unknown {
-  try {
-    return JSON.parse(text);
-  } catch (err) {
-    throw new InputError(`${source}: not valid JSON: ${jsonErrorWhere(text, err as Error)}`, "check the file for a missing comma, quote or bracket near that line");
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  const problem = scanJson(body);
+  if (problem !== undefined) {
+    const { line, column } = lineColumn(body, problem.offset);
+    if (problem.kind === "duplicate") {
+      throw new InputError(
+        `${source}: line ${line}, column ${column}: key ${JSON.stringify(problem.key)} appears twice in ${problem.path}; expected each key once`,
+        "JSON keeps only the last of repeated keys: delete or merge the other",
+      );
+    }
+    throw new InputError(`${source}: not valid JSON: line ${line}, column ${column} (${problem.message})`, "check the file for a missing comma, quote or bracket near that line");
   }
-}
-
-/** Line and column of a JSON.parse error (V8 reports a character position). */
-function jsonErrorWhere(text: string, err: Error): string {
-  const m = /position (\d+)/.exec(err.message);
-  if (m === null) return err.message;
-  const pos = Number(m[1]);
-  const before = text.slice(0, pos);
-  const line = before.split("\n").length;
-  const col = pos - before.lastIndexOf("\n");
-  return `line ${line}, column ${col} (${err.message})`;
+  return JSON.parse(body);
 }

@@ -7,13 +7,16 @@ import { InputError } from "../util/errors.js";
 export function parseAngleList(text: string, flag: string, lo: number, hi: number, what: string): number[] {
   const s = text.trim();
   let values: number[];
-  const range = /^(-?[\d.]+):(-?[\d.]+):([\d.]+)$/.exec(s);
-  if (range) {
-    const [from, to, step] = [Number(range[1]), Number(range[2]), Number(range[3])];
-    if (!(step > 0) || !(to >= from)) throw new InputError(`${flag} "${text}": a range is from:to:step with step > 0 and to ≥ from`);
-    const n = Math.floor((to - from) / step + 1e-9) + 1;
+  const parts = s.split(":");
+  if (parts.length === 3) {
+    const [from, to, step] = parts.map((p) => (p.trim() === "" ? NaN : Number(p)));
+    if (![from, to, step].every((v) => Number.isFinite(v))) {
+      throw new InputError(`${flag} "${text}": a range is from:to:step of three numbers (e.g. 0:90:5)`);
+    }
+    if (!(step! > 0) || !(to! >= from!)) throw new InputError(`${flag} "${text}": a range is from:to:step with step > 0 and to ≥ from, got step ${step} and to ${to} after from ${from}`);
+    const n = Math.floor((to! - from!) / step! + 1e-9) + 1;
     if (n > 1000) throw new InputError(`${flag} "${text}": more than 1000 values`);
-    values = Array.from({ length: n }, (_, i) => Math.round((from + i * step) * 1e9) / 1e9);
+    values = Array.from({ length: n }, (_, i) => Math.round((from! + i * step!) * 1e9) / 1e9);
   } else {
     values = s.split(",").map((p) => {
       const v = p.trim() === "" ? NaN : Number(p);

@@ -57,7 +57,7 @@ describe("study validation against schema/study.schema.json", () => {
     ["facet angle out of (0, 90)", (d) => (d.stack.front.texture.facetAngleDeg = 95),
       "stack.front.texture.facetAngleDeg: expected a number in (0, 90), got 95"],
     ["negative film thickness", (d) => (d.stack.front.films[0].thicknessNm = -5),
-      "stack.front.films[0].thicknessNm: expected a positive number, got -5"],
+      "stack.front.films[0].thicknessNm: expected a number in (0, 5000], got -5"],
     ["reflectance above 1", (d) => (d.stack.rear.ideal.reflectance = 1.2),
       "stack.rear.ideal.reflectance: expected a number in [0, 1], got 1.2"],
     ["an ideal rear with an exit medium", (d) => (d.stack.rear.exit = "Ag"),
@@ -67,7 +67,7 @@ describe("study validation against schema/study.schema.json", () => {
     ["non-integer pyramid count", (d) => (d.stack.front.texture = { type: "random-pyramids", meanBaseUm: 5, count: 1.5 }),
       "stack.front.texture.count: expected an integer in [1, 10000], got 1.5"],
     ["absorber thickness as text", (d) => (d.stack.absorber.thicknessUm = "180"),
-      'stack.absorber.thicknessUm: expected a positive number, got "180"'],
+      'stack.absorber.thicknessUm: expected a number in [1, 10000], got "180"'],
     ["spectrum typo", (d) => (d.spectrum = "AM15G"),
       'spectrum: expected one of "AM1.5G", "AM1.5D", "G173-ETR", got "AM15G"', 'did you mean "AM1.5G"?'],
     ["spectrum object without csv", (d) => (d.spectrum = {}), "spectrum.csv: required field is missing"],
@@ -100,7 +100,7 @@ describe("study validation against schema/study.schema.json", () => {
 
   it("checks each sweep combination after its values are written into the stack", () => {
     const e = errorOf((d) => (d.sweep = { "absorber.thicknessUm": [100, -1] }));
-    expect(e.message).toBe("stack.absorber.thicknessUm: expected a positive number, got -1 (in sweep combination absorber.thicknessUm=-1)");
+    expect(e.message).toBe("stack.absorber.thicknessUm: expected a number in [1, 10000], got -1 (in sweep combination absorber.thicknessUm=-1)");
   });
 
   it("keeps the checks that relate several fields in code", () => {

@@ -1,4 +1,5 @@
 import type { Command } from "commander";
+import { countFlag } from "../countFlag.js";
 import { readSiteFile } from "../../site/siteFile.js";
 import type { Site } from "../../site/site.js";
 import { formatUtcOffset } from "../../site/utcOffset.js";
@@ -19,9 +20,10 @@ import type { WeatherYear } from "../../weather/weatherYear.js";
 /** Integer flag value; `flag` names it in errors. */
 export function intOption(text: string | undefined, flag: string, fallback: number): number {
   if (text === undefined) return fallback;
-  const v = Number(text);
-  if (!Number.isInteger(v)) throw new InputError(`${flag}: expected a whole number, got "${text}"`, "e.g. --year 2027 --seed 7");
-  return v;
+  // A year of the Gregorian calendar that the weather readers and the sun model cover; a seed as the
+  // 32-bit word the random streams take.
+  const [min, max] = flag === "--year" ? [1900, 2200] : [0, 4294967295];
+  return countFlag(text, flag, min, max, "e.g. --year 2027 --seed 7");
 }
 
 /**
