@@ -5,7 +5,9 @@
  *   3. a small convergence run (error vs rays);
  *   4. a synthetic year for an invented northern site, yield at two tilts, a tilt sweep and the
  *      texture-benefit table;
- *   5. the HTML report. Output under runs/demo/ (re-running starts afresh).
+ *   5. an invented glass–glass bifacial stack traced from both sides, and its front + rear year over
+ *      tilts and row pitches at an invented bright-ground site;
+ *   6. the HTML report. Output under runs/demo/ (re-running starts afresh).
  */
 import { existsSync, mkdirSync, rmSync } from "node:fs";
 import { availableParallelism } from "node:os";
@@ -24,17 +26,21 @@ import { photocurrentForMatrix } from "../src/weighting/writePhotocurrent.js";
 import { writeRunPhotocurrent } from "../src/weighting/runSummaries.js";
 import type { PhotocurrentSummary } from "../src/weighting/index.js";
 import { runDemoYield } from "./yieldStage.js";
+import { runDemoBifacial } from "./bifacialStage.js";
 
 const ROOT = packageRoot();
 const OUT = join(ROOT, "runs", "demo");
 const STUDIES = ["configs/demo-random-pyramids.study.json", "configs/demo-planar.study.json"];
 const SITE = "configs/sites/nordvik-fjell.site.json";
 const TILTS_DEG = [20, 45];
+const BIFACIAL_STUDY = "configs/glass-glass-bifacial.study.json";
+const BIFACIAL_SITE = "configs/sites/saltmere-plain.site.json";
 
 interface StackRun {
   loaded: LoadedStudy;
   dir: string;
   matrix: ResponseMatrix;
+  matrices: ResponseMatrix[];
   photocurrent: PhotocurrentSummary;
   wallS: number;
   rays: number;
@@ -60,7 +66,7 @@ async function sweepStack(studyPath: string, workers: number): Promise<StackRun>
   const spectrum = spectrumFromSpec(study.spectrum, loaded.baseDir);
   // the same numbers as photocurrent.json, for the summary table
   const photocurrent = photocurrentForMatrix(matrix, spectrum);
-  return { loaded, dir, matrix, photocurrent, wallS: result.wallS, rays: result.raysTraced };
+  return { loaded, dir, matrix, matrices: result.matrices, photocurrent, wallS: result.wallS, rays: result.raysTraced };
 }
 
 function table(header: string[], rows: string[][]): string {
@@ -110,9 +116,19 @@ async function main(): Promise<void> {
   });
   say(`  yield: ${yieldSummary.siteName}, synthetic year 2027 (seed 7), Perez sky, tilts ${TILTS_DEG.join("° and ")}° and 0–90° in 5° steps (${elapsed(ty).toFixed(1)} s)`);
 
-  // 5. report
+  // 5. bifacial glass–glass stack: light from the front and from the rear, front + rear year
+  const tb = performance.now();
+  const bi = await sweepStack(BIFACIAL_STUDY, workers);
+  const rearMatrix = bi.matrices[1]!;
+  const bif = runDemoBifacial({
+    sitePath: join(ROOT, BIFACIAL_SITE), dir: bi.dir, front: bi.matrix, rear: rearMatrix,
+    tiltsDeg: [10, 20, 30, 40], pitchesM: [4, 5.5, 7, 10, null], centreHeightM: 1.2, slantLengthM: 2.2,
+  });
+  say(`  bifacial: ${bi.loaded.name} traced from both sides (${bi.rays.toExponential(2)} rays), optical bifaciality ${bif.bifaciality.toFixed(3)}; year at 4 tilts × 5 mountings (${elapsed(tb).toFixed(1)} s)`);
+
+  // 6. report
   const report = makeReport(
-    stacks.map((s) => s.dir),
+    [...stacks.map((s) => s.dir), bi.dir],
     { angleDeg: 0, outDir: join(OUT, "report") },
   );
 
@@ -133,6 +149,8 @@ async function main(): Promise<void> {
   say(table(header, rows));
   say("");
   say(yieldSummary.benefitText.trimEnd());
+  say("");
+  say(bif.text.trimEnd());
   say("");
   say(`report: ${relative(process.cwd(), report.indexPath)}  (${report.figures.length} plots, also as .svg beside it)`);
   say(`demo wall time ${elapsed(t0).toFixed(1)} s on ${workers} worker(s)`);

@@ -135,6 +135,24 @@ export interface OptimumEntry {
   cost: { evaluations: number; raysTraced: number; wallS: number };
 }
 
+/** One plane and mounting of a bifacial yield file (yield/bifacial-*.json). */
+export interface BifacialRow {
+  stackLabel: string;
+  siteName: string;
+  opticalBifaciality: number;
+  tiltDeg: number;
+  azimuthDeg: number;
+  /** null: an isolated row. */
+  pitchM: number | null;
+  groundCoverageRatio: number;
+  frontAhM2: number;
+  rearAhM2: number;
+  totalAhM2: number;
+  totalStdErrAhM2: number;
+  gainPct: number;
+  gainStdErrPct: number;
+}
+
 export interface ReportInput {
   /** Page title (study names joined); escaped. */
   title: string;
@@ -149,6 +167,8 @@ export interface ReportInput {
   tiltSweeps: TiltSweep[];
   benefit: BenefitRow[];
   optima: OptimumEntry[];
+  /** Front + rear yields (bifacial files); absent or empty when none. */
+  bifacial?: BifacialRow[];
   /** Remarks about what was read or skipped (e.g. a malformed optional file); shown at the top. */
   notes: string[];
 }

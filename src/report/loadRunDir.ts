@@ -1,4 +1,5 @@
 /** Reads run directories into the report's typed input (the only file reading of the report). */
+import { adaptBifacialFile } from "./adaptBifacial.js";
 import { existsSync, readdirSync, statSync } from "node:fs";
 import { basename, join } from "node:path";
 import { readResponseMatrix } from "../response/matrixFile.js";
@@ -120,7 +121,14 @@ function loadAll(runDirs: string[], opts: LoadOptions): ReportInput {
     if (existsSync(yieldDir) && statSync(yieldDir).isDirectory()) {
       for (const f of readdirSync(yieldDir).filter((n) => n.endsWith(".json")).sort()) {
         const p = join(yieldDir, f);
-        const parts = adaptYieldFile(readJsonFile(p), p);
+        const raw = readJsonFile(p);
+        const bifacial = adaptBifacialFile(raw, p);
+        if (bifacial) {
+          (input.bifacial ??= []).push(...bifacial);
+          found++;
+          continue;
+        }
+        const parts = adaptYieldFile(raw, p);
         if (!parts) {
           input.notes.push(`Skipped ${p}: not a yield, tilt-sweep or comparison result this version reads.`);
           continue;

@@ -1,4 +1,5 @@
 /** The report page: self-contained HTML with inline SVG and CSS. Pure: input → { html, figures }. */
+import { bifacialPitchFigure, bifacialTiltFigure } from "./bifacialFigures.js";
 import { channelGroup, channelLabel } from "./channels.js";
 import { html, escapeText } from "./escape.js";
 import {
@@ -14,7 +15,7 @@ import {
   yieldLabel,
   type Figure,
 } from "./figures.js";
-import type { BenefitRow, OptimumEntry, ReportInput, StackEntry } from "./inputs.js";
+import type { BenefitRow, BifacialRow, OptimumEntry, ReportInput, StackEntry } from "./inputs.js";
 import { CHANNEL_COLOURS, parasiticColour } from "./svg/palette.js";
 import { REPORT_CSS } from "./style.js";
 
@@ -103,6 +104,15 @@ function benefitTable(rows: BenefitRow[]): string {
     body += `<td><strong>${r.benefitPct >= 0 ? "+" : ""}${fmt(r.benefitPct)}</strong></td><td>${fmt(r.stderrPct, 2)}</td></tr>`;
   }
   return `<table class="benefit"><thead><tr><th class="text">site</th><th>tilt (°)</th><th>azimuth (°)</th><th class="text">stack A</th><th class="text">stack B</th><th>A (A·h/m²)</th><th>B (A·h/m²)</th><th>A vs B (%)</th><th>± s.e. (%)</th></tr></thead><tbody>${body}</tbody></table>`;
+}
+
+function bifacialTable(rows: BifacialRow[]): string {
+  let body = "";
+  for (const r of rows) {
+    body += html`<tr><td class="text">${r.stackLabel}, ${r.siteName}</td><td>${r.tiltDeg}</td><td>${r.pitchM === null ? "isolated" : r.pitchM.toFixed(2)}</td><td>${r.groundCoverageRatio.toFixed(2)}</td><td>${fmtCharge(r.frontAhM2)}</td><td>${fmtCharge(r.rearAhM2)}</td><td>${fmtCharge(r.totalAhM2)}</td><td>${r.gainPct.toFixed(2)} ± ${r.gainStdErrPct.toFixed(2)}</td></tr>`;
+  }
+  const b = rows[0]!.opticalBifaciality;
+  return `<table class="bifacial"><caption>${html`optical bifaciality (rear / front photocurrent at 0°, AM1.5G): ${b.toFixed(3)}`}</caption><thead><tr><th class="text">stack, site</th><th>tilt (°)</th><th>pitch (m)</th><th>GCR</th><th>front (A·h/m²)</th><th>rear (A·h/m²)</th><th>total (A·h/m²)</th><th>gain (%)</th></tr></thead><tbody>${body}</tbody></table>`;
 }
 
 function yieldTable(input: ReportInput): string {
@@ -211,6 +221,20 @@ export function renderReport(input: ReportInput): RenderedReport {
   sections += `</div>`;
   if (!tilt && input.yields.length) sections += note("Tilt sweep omitted: no yield result covers more than one tilt.");
   sections += `</section>`;
+
+  // Bifacial
+  const bifacial = input.bifacial ?? [];
+  if (bifacial.length) {
+    sections += `<section id="bifacial"><h2>Front and rear light</h2>`;
+    sections += `<p class="lead">Yearly absorbed charge of the front and the rear of a bifacial stack, the total and the bifacial gain (rear / front), with Monte Carlo standard errors from both matrices. Rear light: 2D view factors of one isolated row or infinitely long rows over uniformly reflecting ground; racking shade and light reflected by neighbouring rows are left out.</p>`;
+    sections += bifacialTable(bifacial);
+    sections += `<div class="row">`;
+    const bt = bifacialTiltFigure(bifacial);
+    if (bt) sections += use(bt);
+    const bp = bifacialPitchFigure(bifacial);
+    if (bp) sections += use(bp);
+    sections += `</div></section>`;
+  }
 
   // Texture benefit
   sections += `<section id="benefit"><h2>Texture benefit</h2>`;

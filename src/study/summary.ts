@@ -60,7 +60,9 @@ export function formatStudySummary(s: LoadedStudy, sum: StudySummary): string[] 
     `grid       θ ${sum.nTheta} (${range(g.thetaDeg, "°")}) × φ ${sum.phiMode === "averaged" ? "averaged" : `${sum.nPhi} (${range(g.phiDeg, "°")}${sum.phiMode === "square" ? ", square-folded" : ""})`} × λ ${sum.nWavelength} (${range(g.wavelengthNm, " nm")}) = ${sum.pointsPerCombo} points`,
   ];
   if (sum.combos.length > 1) {
-    lines.push(`combos     ${sum.combos.length}: ${Object.entries(s.sweep).map(([k, v]) => `${k} ∈ {${v.join(", ")}}`).join(" × ")}`);
+    const rearTwins = s.combos.some((c) => c.study.lightFrom === "rear") && s.combos.some((c) => c.study.lightFrom !== "rear");
+    const sweepText = Object.entries(s.sweep).map(([k, v]) => `${k} ∈ {${v.join(", ")}}`).join(" × ");
+    lines.push(`combos     ${sum.combos.length}: ${[sweepText, rearTwins ? "light from the front and from the rear (-rear)" : ""].filter((t) => t !== "").join(", each with ")}`);
     const width = Math.max(...sum.combos.map((c) => c.title.length));
     for (const c of sum.combos) lines.push(`  ${c.label.padEnd(4)} ${c.title.padEnd(width)}  matrix ${c.hash.slice(0, 16)}`);
   }

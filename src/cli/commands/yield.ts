@@ -12,13 +12,21 @@ import { bestPlane, prepareMatrix, yieldSweep } from "../../yield/yieldRun.js";
 import { readWeatherInput, siteAndWeather } from "../weatherInput.js";
 import { slugOf } from "../../util/safePath.js";
 import { SPECTRA_HELP, hourlySpectraOption } from "../spectraInput.js";
+import { addMountOptions, mountOf, type MountFlags } from "../mountOptions.js";
+import type { ResponseMatrix } from "../../response/responseMatrix.js";
+import type { Plane } from "../../site/site.js";
+import { checkRowGeometry } from "../../sky/rowGeometry.js";
+import type { SkyModel } from "../../sky/transposition.js";
+import { bifacialSweep, opticalBifaciality } from "../../yield/bifacialYield.js";
+import { bifacialJson, formatBifacialTable } from "../../yield/bifacialJson.js";
+import type { PreparedMatrix } from "../../yield/yieldRun.js";
 
 /** File-name-safe form of a site name (at most 60 characters: a long name must not overflow a file name). */
 export function slug(name: string): string {
   return slugOf(name, 60, "site");
 }
 
-interface YieldOpts extends YearPlaneFlags, ResultFlags {
+interface YieldOpts extends YearPlaneFlags, ResultFlags, MountFlags {
   matrix: string; site?: string; weather: string; hourly?: string; spectra: string;
 }
 
@@ -33,6 +41,7 @@ export function register(program: Command): void {
   addYearPlaneOptions(cmd, { tilt: "30" })
     .option("--hourly <file.csv>", "write the hourly POA irradiance and current (single plane only)")
     .option("--spectra <g173|clear-sky-model|file.csv>", SPECTRA_HELP, "g173");
+  addMountOptions(cmd);
   addResultOptions(cmd, "yield-<site>.json", "result")
     .addHelpText(
       "after",
@@ -44,6 +53,8 @@ Examples:
   lightfold yield --matrix m.json --site s.json --weather synthetic --year 2027 --seed 7 --tilt 35 --hourly hours.csv
   lightfold yield --matrix m.json --weather weather-samples/brevenmark-2027.epw --tilt 35 --spectra clear-sky-model
   lightfold yield --matrix m.json --site s.json --weather w.csv --spectra measured-spectra.csv
+  lightfold yield --matrix runs/demo/demo-glass-glass/base/matrix.json --rear-matrix runs/demo/demo-glass-glass/base-rear/matrix.json \
+      --site configs/sites/saltmere-plain.site.json --tilt 10:40:10 --height 1.2 --module-width 2.2 --pitch 5,7,10
 
 Weather files: EPW and TMY3 (hour-ending Wh/m², local standard time; the header gives latitude,
 longitude, time zone and elevation, so --site is optional; a site file given with them must name the
@@ -54,13 +65,20 @@ same place) or lightfold's CSV (hour-starting W/m²); typical-year files are pla
 Charge = Σ over hours of the absorbed photocurrent (A/m²) × 1 h. Beam and circumsolar light use the
 response at the sun's direction in the module frame with the AM1.5D spectral shape; sky, horizon band
 and ground light are integrated over the module's hemisphere with the diffuse shape. Optical estimate
-only: not an electrical or bankable energy yield.`,
+only: not an electrical or bankable energy yield.
+
+With --rear-matrix (bifacial): rear light from 2D view factors of one isolated row or infinitely long
+rows (--pitch or --gcr): the sky, the shaded and unshaded ground (site albedo, uniform) and the
+neighbouring rows (dark); the rear matrix is integrated over where that light comes from. Rows also
+take the front through the same view factors (row ahead's shadow and hidden sky). Front, rear, total
+and gain (rear/front) per tilt and pitch; the result file is yield/bifacial-<site>.json.`,
     )
     .action((opts: YieldOpts) => {
       const { year, seed, planes, sky } = yearPlaneOf(opts);
       if (opts.hourly && planes.length > 1) throw new InputError("--hourly needs a single tilt and azimuth", "e.g. --tilt 30 --azimuth 180 --hourly hourly.csv");
       const matrix = readResponseMatrix(opts.matrix);
       const pm = prepareMatrix(matrix, opts.matrix, opts.channel);
+      if (opts.rearMatrix !== undefined) return bifacialAction(opts, matrix, pm, year, seed, planes, sky);
       const input = readWeatherInput(opts.weather, year);
       const { site, weather, station } = siteAndWeather(input, opts.site ? readSiteFile(opts.site) : undefined, opts.site, year, seed);
       const ctx = yearContext(site, weather);
@@ -80,4 +98,37 @@ only: not an electrical or bankable energy yield.`,
         if (report) process.stdout.write(`report: ${report}\n`);
       }
     });
+}
+
+/** `yield --rear-matrix`: front + rear yearly charge per plane and pitch, and the bifacial gain. */
+function bifacialAction(opts: YieldOpts, matrix: ResponseMatrix, pm: PreparedMatrix, year: number, seed: number, planes: Plane[], sky: SkyModel): void {
+  const mount = mountOf(opts);
+  if (opts.spectra !== "g173") throw new InputError("--spectra: hourly spectra are not applied to the rear light yet; use the default g173 with --rear-matrix");
+  if (opts.hourly) throw new InputError("--hourly: not written with --rear-matrix");
+  if (matrix.lightFrom === "rear") throw new InputError(`--matrix ${opts.matrix}: this matrix was traced with light from the rear; give the front one`);
+  const rearMatrix = readResponseMatrix(opts.rearMatrix!);
+  if (rearMatrix.lightFrom !== "rear") {
+    throw new InputError(`--rear-matrix ${opts.rearMatrix}: this matrix was traced with light from the front`, 'sweep the study with "illumination": "both" and pass <label>-rear/matrix.json');
+  }
+  const rear = prepareMatrix(rearMatrix, opts.rearMatrix!, opts.channel);
+  for (const p of planes) {
+    for (const pitchM of mount.pitchesM) checkRowGeometry({ tiltDeg: p.tiltDeg, slantLengthM: mount.slantLengthM, centreHeightM: mount.centreHeightM, ...(pitchM === null ? {} : { pitchM }) }, "--tilt/--height/--module-width/--pitch");
+  }
+  const input = readWeatherInput(opts.weather, year);
+  const { site, weather } = siteAndWeather(input, opts.site ? readSiteFile(opts.site) : undefined, opts.site, year, seed);
+  const ctx = yearContext(site, weather);
+  const results = bifacialSweep(ctx, planes, mount.pitchesM, mount, pm, rear, sky);
+  const b = opticalBifaciality(pm, rear);
+  const doc = bifacialJson({
+    toolVersion: toolVersion(), front: matrixInfo(matrix, opts.matrix, pm.channel), rear: matrixInfo(rearMatrix, opts.rearMatrix!, rear.channel),
+    site, ctx, skyModel: sky, mounting: mount, opticalBifaciality: b, results,
+  });
+  const text = JSON.stringify(doc, null, 2) + "\n";
+  const report = writeResult(opts, `bifacial-${slug(site.name)}.json`, text);
+  if (opts.json) process.stdout.write(text);
+  else {
+    for (const w of ctx.warnings) process.stderr.write(`warning: ${ctx.weatherSource}: ${w}\n`);
+    process.stdout.write(formatBifacialTable(site.name, sky, b, results));
+    if (report) process.stdout.write(`report: ${report}\n`);
+  }
 }

@@ -1,0 +1,68 @@
+import type { Site } from "../site/site.js";
+import type { SkyModel } from "../sky/transposition.js";
+import type { BifacialResult, Mounting } from "./bifacialYield.js";
+import type { YearContext } from "./yearContext.js";
+import { siteInfo, weatherInfo } from "./yieldJson.js";
+
+export const BIFACIAL_KIND = "lightfold.bifacial";
+export const BIFACIAL_FORMAT_VERSION = 1;
+
+const r = (x: number, digits: number): number => Number(x.toFixed(digits));
+
+/** One plane × mounting row as plain JSON. */
+export function bifacialRowJson(b: BifacialResult): Record<string, unknown> {
+  const face = (f: BifacialResult["front"]) => ({
+    model: f.model, chargeAhM2: r(f.chargeAhM2, 2), chargeStdErrAhM2: r(f.chargeStdErrAhM2, 3), insolationKWhM2: r(f.insolationKWhM2, 2),
+    monthlyChargeAhM2: f.monthlyChargeAhM2.map((q) => r(q, 2)),
+  });
+  const parts = b.rearDetail.insolationByPartKWhM2;
+  return {
+    tiltDeg: b.plane.tiltDeg,
+    azimuthDeg: b.plane.azimuthDeg,
+    pitchM: b.geometry.pitchM,
+    groundCoverageRatio: r(b.groundCoverageRatio, 4),
+    front: face(b.front),
+    rear: { ...face(b.rear), insolationByPartKWhM2: { beam: r(parts.beam, 2), sky: r(parts.sky, 2), ground: r(parts.ground, 2) } },
+    totalChargeAhM2: r(b.totalChargeAhM2, 2),
+    totalStdErrAhM2: r(b.totalStdErrAhM2, 3),
+    bifacialGainPct: r(100 * b.bifacialGain, 4),
+    bifacialGainStdErrPct: r(100 * b.bifacialGainStdErr, 4),
+  };
+}
+
+/** `<out>/yield/bifacial-<site>.json`: front, rear and total yearly charge per plane and row pitch. */
+export function bifacialJson(args: {
+  toolVersion: string; front: Record<string, unknown>; rear: Record<string, unknown>; site: Site; ctx: YearContext; skyModel: SkyModel;
+  mounting: Omit<Mounting, "pitchM">; opticalBifaciality: number; results: BifacialResult[];
+}): Record<string, unknown> {
+  return {
+    kind: BIFACIAL_KIND,
+    formatVersion: BIFACIAL_FORMAT_VERSION,
+    toolVersion: args.toolVersion,
+    matrices: { front: args.front, rear: args.rear },
+    site: siteInfo(args.site),
+    weather: weatherInfo(args.ctx),
+    skyModel: args.skyModel,
+    mounting: { slantLengthM: args.mounting.slantLengthM, centreHeightM: args.mounting.centreHeightM },
+    opticalBifaciality: r(args.opticalBifaciality, 5),
+    model: "2D view factors, infinitely long rows (or one isolated row), uniform albedo, opaque modules, dark neighbouring rows, no racking shade",
+    units: { charge: "A·h/m²", insolation: "kWh/m²", gain: "%" },
+    results: args.results.map(bifacialRowJson),
+  };
+}
+
+const pad = (s: string, n: number): string => s.padStart(n);
+
+/** Plain-text table: one row per plane and pitch. */
+export function formatBifacialTable(siteName: string, skyModel: SkyModel, opticalBifaciality: number, results: BifacialResult[]): string {
+  const lines = [`site ${siteName}, sky model ${skyModel}, optical bifaciality (0°, AM1.5G) ${opticalBifaciality.toFixed(3)}`, ""];
+  lines.push(`${pad("tilt°", 6)} ${pad("pitch m", 8)} ${pad("GCR", 5)} ${pad("front A·h/m²", 13)} ${pad("rear A·h/m²", 12)} ${pad("total A·h/m²", 13)} ${pad("±", 5)} ${pad("gain %", 7)} ${pad("±", 5)} ${pad("rear kWh/m²", 12)}`);
+  for (const b of results) {
+    lines.push(
+      `${pad(b.plane.tiltDeg.toFixed(1), 6)} ${pad(b.geometry.pitchM === null ? "isolated" : b.geometry.pitchM.toFixed(2), 8)} ${pad(b.groundCoverageRatio.toFixed(2), 5)} ${pad(b.front.chargeAhM2.toFixed(0), 13)} ${pad(b.rear.chargeAhM2.toFixed(0), 12)} ${pad(b.totalChargeAhM2.toFixed(0), 13)} ${pad(b.totalStdErrAhM2.toFixed(0), 5)} ${pad((100 * b.bifacialGain).toFixed(2), 7)} ${pad((100 * b.bifacialGainStdErr).toFixed(2), 5)} ${pad(b.rear.insolationKWhM2.toFixed(1), 12)}`,
+    );
+  }
+  lines.push("", "gain = rear / front yearly charge; ± = Monte Carlo standard error (front and rear matrices independent)");
+  lines.push("rows: 2D view factors (infinite rows, uniform albedo, opaque modules, no racking shade); front of an isolated row: the sky model as in `yield`");
+  return lines.join("\n") + "\n";
+}
