@@ -11,6 +11,7 @@ import { syntheticWeather } from "../src/weather/synthetic.js";
 import { annualYield, planeSetup } from "../src/yield/annualYield.js";
 import { yearContext } from "../src/yield/yearContext.js";
 import { planeList, prepareMatrix, yieldSweep } from "../src/yield/yieldRun.js";
+import { clearSkyHourlySpectra } from "../src/yield/clearSkyHours.js";
 
 function benchMatrix(): ResponseMatrix {
   const thetaDeg = Array.from({ length: 18 }, (_, i) => 5 * i);
@@ -43,6 +44,19 @@ function timeMs(f: () => void, repeats: number): number {
   return t[Math.floor(t.length / 2)]!; // median
 }
 
+/** Median CPU time (user + system of this process) of repeated calls, ms: steadier than wall time on a shared machine. */
+function cpuMs(f: () => void, repeats: number): number {
+  const t: number[] = [];
+  for (let i = 0; i < repeats; i++) {
+    const c0 = process.cpuUsage();
+    f();
+    const c = process.cpuUsage(c0);
+    t.push((c.user + c.system) / 1000);
+  }
+  t.sort((a, b) => a - b);
+  return t[Math.floor(t.length / 2)]!;
+}
+
 export async function runYieldBench(): Promise<void> {
   const path = `${packageRoot()}/configs/sites/brevenmark.site.json`;
   const site = siteFromJson(readFileSync(path, "utf8"), path);
@@ -59,6 +73,12 @@ export async function runYieldBench(): Promise<void> {
   const tYear = timeMs(() => annualYield(ctx, setup, pm.grid, pm.tables, { skyModel: "perez" }), 9);
   const planes = planeList(Array.from({ length: 19 }, (_, i) => 5 * i), [180], 0);
   const tSweep = timeMs(() => yieldSweep(ctx, pm, planes, "perez"), 3);
+  // hourly spectra: Bird & Riordan clear-sky spectra for every daylight hour, then the hour loop with them
+  let spectra = clearSkyHourlySpectra(ctx, site, undefined, m.wavelengthNm, pm.tables.weights);
+  const tSpectra = timeMs(() => { spectra = clearSkyHourlySpectra(ctx, site, undefined, m.wavelengthNm, pm.tables.weights); }, 5);
+  const tYearSpectra = timeMs(() => annualYield(ctx, setup, pm.grid, pm.tables, { skyModel: "perez", spectra }), 9);
+  const cSpectra = cpuMs(() => clearSkyHourlySpectra(ctx, site, undefined, m.wavelengthNm, pm.tables.weights), 5);
+  const cYearSpectra = cpuMs(() => annualYield(ctx, setup, pm.grid, pm.tables, { skyModel: "perez", spectra }), 9);
   const lines = [
     `matrix ${m.thetaDeg.length}θ × ${m.phiDeg.length}φ × ${m.wavelengthNm.length}λ, synthetic year 8760 h, Perez sky (median of repeats)`,
     `synthetic weather year          ${tWeather.toFixed(1)} ms`,
@@ -68,6 +88,9 @@ export async function runYieldBench(): Promise<void> {
     `hour loop, one year, one plane  ${tYear.toFixed(1)} ms`,
     `19-tilt sweep (0:90:5)          ${tSweep.toFixed(1)} ms   (quadrature + year per tilt)`,
     `one full year from scratch      ${(tCtx + tTables + tPlane + tYear).toFixed(1)} ms   (context + tables + quadrature + hours)`,
+    `clear-sky hourly spectra        ${tSpectra.toFixed(1)} ms wall, ${cSpectra.toFixed(1)} ms CPU   (${spectra.nOwnHours} daylight hours, Bird & Riordan on 122 λ → ${m.wavelengthNm.length}λ; once per site, weather and matrix grid)`,
+    `hour loop with hourly spectra   ${tYearSpectra.toFixed(1)} ms wall, ${cYearSpectra.toFixed(1)} ms CPU   (one plane)`,
+    `one year with hourly spectra    ${(tCtx + tTables + tPlane + tSpectra + tYearSpectra).toFixed(1)} ms   (context + tables + quadrature + spectra + hours)`,
   ];
   process.stdout.write(lines.join("\n") + "\n");
 }

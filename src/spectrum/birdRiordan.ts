@@ -64,17 +64,44 @@ export const P0_HPA = 1013;
 /** Air mass of the diffuse ground–sky reflection terms (primed quantities, Section 3.1). */
 const M_PRIME = 1.8;
 
-/** Transmittance of the uniformly mixed gases (Eq. 2-11) and water vapour (Eq. 2-8) at air mass m. */
+/** Transmittance of the uniformly mixed gases (Eq. 2-11) and water vapour (Eq. 2-8) at air mass m; 1 where the coefficient is 0. */
 function mixedGas(au: number, m: number): number {
-  return Math.exp((-1.41 * au * m) / Math.pow(1 + 118.93 * au * m, 0.45));
+  return au === 0 ? 1 : Math.exp((-1.41 * au * m) / Math.pow(1 + 118.93 * au * m, 0.45));
 }
 function waterVapour(aw: number, w: number, m: number): number {
-  return Math.exp((-0.2385 * aw * w * m) / Math.pow(1 + 20.07 * aw * w * m, 0.45));
+  return aw === 0 ? 1 : Math.exp((-0.2385 * aw * w * m) / Math.pow(1 + 20.07 * aw * w * m, 0.45));
 }
-/** Rayleigh transmittance (Eq. 2-4), λ in µm. */
-function rayleigh(lambdaUm: number, m: number): number {
-  const l2 = lambdaUm * lambdaUm;
-  return Math.exp(-m / (l2 * l2 * (115.6406 - 1.335 / l2)));
+
+/** Per-wavelength constants of the model (independent of sun and atmosphere), computed once per table. */
+interface Derived {
+  /** Rayleigh optical depth at unit air mass, 1/(λ⁴ (115.6406 − 1.335/λ²)) (Eq. 2-4, λ in µm). */
+  tauRayleigh: Float64Array;
+  /** ln(λ / 0.5 µm), for τa = τ500 (λ/0.5)^−α (Eq. 2-7). */
+  lnOver500: Float64Array;
+  /** Aerosol single-scattering albedo ω(λ) (Eq. 3-16). */
+  omega: Float64Array;
+  /** Rayleigh and mixed-gas transmittance at the primed air mass 1.8 (Section 3.1). */
+  trPrime: Float64Array;
+  tuPrime: Float64Array;
+}
+const derivedOf = new WeakMap<BirdRiordanTable, Derived>();
+
+function derived(t: BirdRiordanTable): Derived {
+  let d = derivedOf.get(t);
+  if (d) return d;
+  const n = t.wavelengthUm.length;
+  const { omega04, omegaPrime } = RURAL_AEROSOL;
+  d = { tauRayleigh: new Float64Array(n), lnOver500: new Float64Array(n), omega: new Float64Array(n), trPrime: new Float64Array(n), tuPrime: new Float64Array(n) };
+  for (let i = 0; i < n; i++) {
+    const lam = t.wavelengthUm[i]!, l2 = lam * lam;
+    d.tauRayleigh[i] = 1 / (l2 * l2 * (115.6406 - 1.335 / l2));
+    d.lnOver500[i] = Math.log(lam / 0.5);
+    d.omega[i] = omega04 * Math.exp(-omegaPrime * Math.log(lam / 0.4) ** 2);
+    d.trPrime[i] = Math.exp(-d.tauRayleigh[i]! * M_PRIME);
+    d.tuPrime[i] = mixedGas(t.au[i]!, M_PRIME);
+  }
+  derivedOf.set(t, d);
+  return d;
 }
 
 /**
@@ -83,7 +110,7 @@ function rayleigh(lambdaUm: number, m: number): number {
  *   I_d = H0 D Tr Ta Tw To Tu (Eq. 2-1); diffuse I_s = (I_r + I_a + I_g) C_s (Eq. 3-1) with the
  *   Rayleigh (3-5), aerosol (3-6) and ground–sky (3-7, 3-8) parts and C_s = (λ + 0.55)^1.8 below 0.45 µm (3-17).
  * Air mass: Kasten & Young (1989) (the report uses Kasten 1966; they differ by under 0.1 % below 80°).
- * Writes zeros with the sun at or below the horizon.
+ * Writes zeros with the sun at or below the horizon. No allocation (per-wavelength constants cached).
  */
 export function birdRiordanInto(t: BirdRiordanTable, zenithDeg: number, earthSunFactor: number, atm: ClearSkyAtmosphere, directNormal: Float64Array, diffuseHorizontal: Float64Array): void {
   const n = t.wavelengthUm.length;
@@ -92,37 +119,38 @@ export function birdRiordanInto(t: BirdRiordanTable, zenithDeg: number, earthSun
     diffuseHorizontal.fill(0, 0, n);
     return;
   }
+  const d = derived(t);
   const cz = Math.cos(zenithDeg * DEG);
   const m = kastenYoungAirMass(zenithDeg);
   const mp = (m * atm.pressureHpa) / P0_HPA;
   // ozone air mass, Robinson as given by Iqbal (Section 2.4), ozone layer at 22 km: (1 + 22/6370) / (cos²Z + 2·22/6370)^0.5
   const mo = (1 + 22 / 6370) / Math.sqrt(cz * cz + (2 * 22) / 6370);
-  const { omega04, omegaPrime, asymmetry } = RURAL_AEROSOL;
-  const alg = Math.log(1 - asymmetry); // Eq. 3-14
+  const alg = Math.log(1 - RURAL_AEROSOL.asymmetry); // Eq. 3-14
   const afs = alg * (1.459 + alg * (0.1595 + alg * 0.4129)); // Eq. 3-12
   const bfs = alg * (0.0783 + alg * (-0.3824 - alg * 0.5874)); // Eq. 3-13
   const fs = 1 - 0.5 * Math.exp((afs + bfs * cz) * cz); // Eq. 3-11
   const fsp = 1 - 0.5 * Math.exp((afs + bfs / M_PRIME) / M_PRIME); // Eq. 3-15 (Z' with cos Z' = 1/1.8)
-  const w = atm.precipitableWaterCm, rg = atm.groundAlbedo;
+  const w = atm.precipitableWaterCm, rg = atm.groundAlbedo, alpha = atm.angstromExponent;
   for (let i = 0; i < n; i++) {
     const lam = t.wavelengthUm[i]!;
     const h0 = t.etrWm2PerNm[i]! * earthSunFactor;
-    const tauA = atm.aod500 * Math.pow(lam / 0.5, -atm.angstromExponent); // Eq. 2-7
-    const omega = omega04 * Math.exp(-omegaPrime * Math.log(lam / 0.4) ** 2); // Eq. 3-16
-    const tr = rayleigh(lam, mp);
+    const tauA = atm.aod500 * Math.exp(-alpha * d.lnOver500[i]!); // Eq. 2-7
+    const omega = d.omega[i]!;
+    const kr = d.tauRayleigh[i]! * mp;
+    const tr = Math.exp(-kr); // Eq. 2-4
     const ta = Math.exp(-tauA * m); // Eq. 2-6
     const tw = waterVapour(t.aw[i]!, w, m);
-    const to = Math.exp(-t.ao[i]! * atm.ozoneAtmCm * mo); // Eq. 2-9
+    const to = t.ao[i] === 0 ? 1 : Math.exp(-t.ao[i]! * atm.ozoneAtmCm * mo); // Eq. 2-9
     const tu = mixedGas(t.au[i]!, mp);
     const tas = Math.exp(-omega * tauA * m); // Eq. 3-9
-    const taa = Math.exp(-(1 - omega) * tauA * m); // Eq. 3-10
+    const taa = ta / tas; // Eq. 3-10: exp(−(1 − ω) τa M)
     const dir = h0 * tr * ta * tw * to * tu; // Eq. 2-1
     // sky reflectivity for ground-reflected light (Eq. 3-8), primed quantities at M = 1.8
-    const trp = rayleigh(lam, M_PRIME), tasp = Math.exp(-omega * tauA * M_PRIME), taap = Math.exp(-(1 - omega) * tauA * M_PRIME);
-    const rs = mixedGas(t.au[i]!, M_PRIME) * waterVapour(t.aw[i]!, w, M_PRIME) * taap * (0.5 * (1 - trp) + (1 - fsp) * trp * (1 - tasp));
+    const trp = d.trPrime[i]!, tasp = Math.exp(-omega * tauA * M_PRIME), taap = Math.exp(-tauA * M_PRIME) / tasp;
+    const rs = d.tuPrime[i]! * waterVapour(t.aw[i]!, w, M_PRIME) * taap * (0.5 * (1 - trp) + (1 - fsp) * trp * (1 - tasp));
     const base = h0 * cz * to * tu * tw * taa;
-    const ir = base * (1 - Math.pow(tr, 0.95)) * 0.5; // Eq. 3-5
-    const ia = base * Math.pow(tr, 1.5) * (1 - tas) * fs; // Eq. 3-6
+    const ir = base * (1 - Math.exp(-0.95 * kr)) * 0.5; // Eq. 3-5 (Tr^0.95)
+    const ia = base * Math.exp(-1.5 * kr) * (1 - tas) * fs; // Eq. 3-6 (Tr^1.5)
     const ig = ((dir * cz + ir + ia) * rs * rg) / (1 - rs * rg); // Eq. 3-7
     const cs = lam <= 0.45 ? Math.pow(lam + 0.55, 1.8) : 1; // Eq. 3-17
     directNormal[i] = dir;
