@@ -29,7 +29,7 @@ function parseStationLine(f: string[], src: string): StationMeta {
   return checkMeta(
     {
       format: "tmy3",
-      name: [f[1], f[2]].filter((s) => s !== "" && s !== "-").join(", ") || `TMY3 station ${f[0]}`,
+      name: [f[1], f[2]].filter((s) => s !== "" && !/^-+$/.test(s)).join(", ") || `TMY3 station ${f[0]}`,
       utcOffsetHours: numberOrNaN(f[3]),
       latitudeDeg: numberOrNaN(f[4]),
       longitudeDeg: numberOrNaN(f[5]),

@@ -57,7 +57,7 @@ export function clearSkyHourlySpectra(ctx: YearContext, site: Site, met: MetSeri
     "cloudy hours keep the clear-sky shapes (no cloud modification of the diffuse spectrum)",
     `ground-reflected light: the hour's global horizontal spectrum × ${albedoShape ? "the given spectral albedo shape" : "a constant spectral albedo"}`,
     `precipitable water: ${water.file} h from the weather file, ${water.temperatureHumidity} h from its temperature and humidity (Gueymard 1994), ${water.siteOrDefault} h from the site file or the 1.42 cm default`,
-    `aerosol (AOD 500 nm, Ångström exponent) and ozone: ${site.aod500Monthly ? "site file" : "defaults 0.1 and 1.14"}, ${site.ozoneAtmCmMonthly ? "site file" : "0.30 atm-cm"}; pressure: weather file, else the site's elevation (ISA)`,
+    `aerosol optical depth at 500 nm ${site.aod500Monthly ? "from the site file" : "0.1 (default)"}, Ångström exponent ${site.angstromExponentMonthly ? "from the site file" : "1.14 (default)"}, ozone ${site.ozoneAtmCmMonthly ? "from the site file" : "0.30 atm-cm (default)"}; pressure from the weather file, else the site's elevation (ISA)`,
   );
   if (s.nFallbackHours > 0) s.notes.push(`${s.nFallbackHours} daylight hour(s) with the sun above ${CLEAR_SKY_MAX_ZENITH_DEG}° zenith keep the G173 shapes`);
   return s;
