@@ -1,91 +1,19 @@
 /** Builds every plot of the report from its typed inputs (pure: strings of SVG). */
-import { CH_ABSORBER } from "../response/responseMatrix.js";
-import { channelGroup, channelLabel } from "./channels.js";
 import { quadraticAt } from "../optimize/quadraticFit.js";
 import type { ConvergenceSeries, OptimumEntry, StackEntry, TiltSweep, YieldEntry } from "./inputs.js";
-import { channelMap, channelSpectra, thetaIndex } from "./spectralBreakdown.js";
+import { figure, slug, type Figure } from "./figureKit.js";
 import { barChart } from "./svg/barChart.js";
-import { heatMap } from "./svg/heatMap.js";
 import { linePlot, type LineSeries, type PointMark } from "./svg/linePlot.js";
-import { CHANNEL_COLOURS, parasiticColour, seriesColour } from "./svg/palette.js";
+import { seriesColour, seriesStyle } from "./svg/palette.js";
 
 const GUIDE_GREY = "#8C93A0";
-import { stackedArea, type AreaLayer } from "./svg/stackedArea.js";
 
-export interface Figure {
-  /** File-safe id: the SVG is written as <id>.svg. */
-  id: string;
-  title: string;
-  svg: string;
-}
+export type { Figure };
 
-/** A figure whose plot carries the same id and title as the figure itself. */
-function figure<O extends { id: string; title: string }>(id: string, title: string, plot: (o: O) => string, rest: Omit<O, "id" | "title">): Figure {
-  return { id, title, svg: plot({ id, title, ...rest } as O) };
-}
-
-/** How the azimuths of a matrix were combined, for plot subtitles. */
-function phiNote(m: StackEntry["matrix"]): string {
-  return m.phiMode === "averaged" ? "azimuth-averaged" : `mean over φ = ${m.phiDeg.join(", ")}°`;
-}
-
-/** Lower-case ASCII slug for file names (user text never reaches a path unfiltered). */
-export function slug(text: string): string {
-  const s = text.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 40);
-  return s || "x";
-}
-
-/** Plot-id part of a stack: position, study name and (when swept) its combination folder. */
-export function stackId(stack: StackEntry, index: number): string {
-  const swept = stack.comboKey !== "base" && Object.keys(stack.combo).length > 0;
-  return `${index + 1}-${slug(stack.studyName).slice(0, 32)}${swept ? `-${slug(stack.comboKey)}` : ""}`;
-}
-
-/** Where the light goes vs wavelength at one incidence angle (stacked, bottom: absorber). */
-export function spectralFigure(stack: StackEntry, index: number, angleDeg: number): Figure {
-  const m = stack.matrix;
-  const it = thetaIndex(m, angleDeg, stack.matrixPath);
-  const spectra = channelSpectra(m, it);
-  const layers: AreaLayer[] = [];
-  const add = (ic: number, colour: string) => layers.push({ label: channelLabel(m.channels[ic]!), values: spectra[ic]!, colour });
-  const order: { group: string; ic: number }[] = m.channels.map((c, ic) => ({ group: channelGroup(c), ic }));
-  // bottom-up: absorber, parasitic absorbers (in channel order), unresolved, rear escape, front reflection
-  for (const o of order) if (o.group === "absorber") add(o.ic, CHANNEL_COLOURS.absorber);
-  let k = 0;
-  for (const o of order) if (o.group === "parasitic") add(o.ic, parasiticColour(k++));
-  for (const o of order) if (o.group === "unresolved") add(o.ic, CHANNEL_COLOURS.unresolved);
-  for (const o of order) if (o.group === "rearEscape") add(o.ic, CHANNEL_COLOURS.rearEscape);
-  for (const o of order) if (o.group === "frontReflection") add(o.ic, CHANNEL_COLOURS.frontReflection);
-  const id = `spectral-${stackId(stack, index)}`;
-  const title = `Where the light goes at θ = ${angleDeg}°`;
-  return figure(id, title, stackedArea, {
-    subtitle: `${stack.label} · ${phiNote(m)}`,
-    width: 660,
-    x: { label: "wavelength (nm)" },
-    y: { label: "fraction of incident power", domain: [0, 1] },
-    xValues: m.wavelengthNm,
-    layers,
-  });
-}
-
-/** θ × λ map of absorber absorptance. */
-export function responseMapFigure(stack: StackEntry, index: number): Figure {
-  const m = stack.matrix;
-  const id = `response-map-${stackId(stack, index)}`;
-  const title = "Absorber absorptance over angle and wavelength";
-  return figure(id, title, heatMap, {
-    subtitle: `${stack.label} · ${phiNote(m)}`,
-    width: 560,
-    height: 380,
-    x: { label: "wavelength (nm)" },
-    y: { label: "incidence angle θ (°)" },
-    xValues: m.wavelengthNm,
-    yValues: m.thetaDeg,
-    z: channelMap(m, CH_ABSORBER),
-    zLabel: "absorber absorptance",
-    zDomain: [0, 1],
-    yLimits: [0, 90],
-  });
+/** Lower end of the modifier axis: the smallest value less a margin, down to a tenth (at most 0). */
+function iamFloor(series: LineSeries[]): number {
+  const lo = Math.min(...series.flatMap((s) => Array.from(s.y).filter(Number.isFinite)), 1);
+  return Math.max(0, Math.floor((lo - 0.02) * 10) / 10);
 }
 
 /** Angular modifier J(θ)/J(0) of every stack that has a photocurrent summary; null when none has. */
@@ -94,17 +22,17 @@ export function iamFigure(stacks: StackEntry[]): Figure | null {
   stacks.forEach((s, i) => {
     const iam = s.photocurrent?.iam;
     if (!iam || iam.thetaDeg.length === 0) return;
-    series.push({ label: s.label, x: iam.thetaDeg, y: iam.modifier, yErr: iam.stderr, markers: true, colour: seriesColour(i) });
+    const st = seriesStyle(series.length);
+    series.push({ label: s.title ?? s.label, x: iam.thetaDeg, y: iam.modifier, yErr: iam.stderr, markers: true, colour: st.colour, dash: st.dash, marker: st.marker });
   });
   if (series.length === 0) return null;
   const id = "angular-modifier";
   const title = "Angular modifier of the absorber photocurrent";
   return figure(id, title, linePlot, {
-    subtitle: "J(θ) / J(0); whiskers ±1 standard error",
-    width: 560,
-    height: 380,
+    subtitle: `${[...new Set(stacks.map((s) => s.studyName))].join(", ")} · J(θ) / J(0); whiskers ±1 standard error`,
     x: { label: "incidence angle θ (°)", domain: [0, 90], ticks: [0, 15, 30, 45, 60, 75, 90] },
-    y: { label: "J(θ) / J(0)", domain: [0, 1.05], ticks: [0, 0.2, 0.4, 0.6, 0.8, 1] },
+    // zoomed to the data (nice lower bound), so close curves stay apart
+    y: { label: "J(θ) / J(0)", domain: [iamFloor(series), 1.02] },
     series,
   });
 }
@@ -151,10 +79,8 @@ export function convergenceFigure(all: ConvergenceSeries[]): Figure | null {
   });
 }
 
-/** Charge unit for plots: kA·h/m² when values run into the tens of thousands (keeps tick labels short). */
-export function chargeUnit(maxAhM2: number): { factor: number; unit: string } {
-  return maxAhM2 >= 1e4 ? { factor: 1e-3, unit: "kA·h/m²" } : { factor: 1, unit: "A·h/m²" };
-}
+/** Charge unit of plots and tables alike: A·h/m² (large values get grouped digits, "350,000"). */
+const CHARGE = { factor: 1, unit: "A·h/m²" } as const;
 
 const MONTHS = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
 
@@ -176,7 +102,7 @@ export function monthlyFigure(yields: YieldEntry[]): Figure | null {
   const id = "monthly-yield";
   const title = "Monthly absorbed photon charge";
   const sites = [...new Set(shown.map((y) => y.siteName))];
-  const u = chargeUnit(Math.max(...shown.flatMap((y) => y.monthlyAhM2)));
+  const u = CHARGE;
   return figure(id, title, barChart, {
     subtitle: `site: ${sites.join(", ")}`,
     xLabel: "month",
@@ -207,7 +133,7 @@ export function tiltFigure(sweeps: TiltSweep[]): Figure | null {
   const shown = sweeps.filter((s) => s.tiltDeg.length > 1);
   if (shown.length === 0) return null;
   const sites = new Set(shown.map((s) => s.siteName));
-  const u = chargeUnit(Math.max(...shown.flatMap((s) => s.annualAhM2)));
+  const u = CHARGE;
   const series: LineSeries[] = shown.map((s, i) => ({
     label: sites.size > 1 ? `${s.stackLabel}, ${s.siteName}` : s.stackLabel,
     x: s.tiltDeg,
@@ -228,10 +154,28 @@ export function tiltFigure(sweeps: TiltSweep[]): Figure | null {
   });
 }
 
+/** The words of one swept field in a combination title ("SiNx 65 nm"), by the field's position. */
+function titlePart(s: StackEntry, key: string): string {
+  const k = Object.keys(s.combo).indexOf(key);
+  const parts = s.title?.split(" · ") ?? [];
+  return parts.length === Object.keys(s.combo).length && k >= 0 ? parts[k]! : `${key} = ${s.combo[key]}`;
+}
+
+/** Axis name of a swept field from its words: "SiNx 65 nm" → "SiNx thickness (nm)", "… facet angle 50°" → "… facet angle (°)". */
+function parameterAxis(s: StackEntry, key: string): string {
+  const words = titlePart(s, key);
+  const v = String(s.combo[key]);
+  const m = new RegExp(`^(.*?)\\s*${v.replace(/[.+-]/g, "\\$&")}\\s*(.*)$`).exec(words);
+  if (m === null || m[1] === "") return key;
+  const unit = m[2] ? ` (${m[2]})` : "";
+  return /thickness/i.test(key) ? `${m[1]} thickness${unit}` : `${m[1]}${unit}`;
+}
+
 /**
  * Photocurrent at the report angle vs a swept study parameter (the way engineers pick a thickness):
- * x = the parameter with the most values, one curve per combination of the others; best point marked.
- * Null unless some study has three or more combinations with photocurrent summaries.
+ * x = the parameter with the most values, one curve per combination of the others (colour, marker
+ * and, past ten, dash differ); best point marked. Null unless some study has three or more
+ * combinations with photocurrent summaries.
  */
 export function parameterSweepFigure(stacks: StackEntry[], angleDeg: number): Figure | null {
   const byStudy = new Map<string, StackEntry[]>();
@@ -246,36 +190,38 @@ export function parameterSweepFigure(stacks: StackEntry[], angleDeg: number): Fi
   const distinct = (k: string) => new Set(list.map((s) => s.combo[k])).size;
   const xKey = keys.reduce((a, b) => (distinct(b) > distinct(a) ? b : a));
   const others = keys.filter((k) => k !== xKey);
-  const groupKey = (s: StackEntry) => others.map((k) => `${k} = ${s.combo[k]}`).join(", ");
+  const groupKey = (s: StackEntry) => others.map((k) => titlePart(s, k)).join(" · ");
   const groups = new Map<string, StackEntry[]>();
   for (const s of list) groups.set(groupKey(s), [...(groups.get(groupKey(s)) ?? []), s]);
   const jAt = (s: StackEntry) => s.photocurrent!.perAngle.find((a) => Math.abs(a.thetaDeg - angleDeg) < 1e-6);
   const series: LineSeries[] = [];
   let best: { x: number; y: number; i: number } | null = null;
-  [...groups.entries()].slice(0, 7).forEach(([label, members], i) => {
+  [...groups.entries()].forEach(([label, members], i) => {
     const sorted = [...members].sort((a, b) => a.combo[xKey]! - b.combo[xKey]!);
     const y = sorted.map((s) => jAt(s)?.absorberMaCm2 ?? NaN);
     sorted.forEach((s, k) => {
       if (Number.isFinite(y[k]!) && (!best || y[k]! > best.y)) best = { x: s.combo[xKey]!, y: y[k]!, i };
     });
+    const st = seriesStyle(i);
     series.push({
       label: label || studyName,
       x: sorted.map((s) => s.combo[xKey]!),
       y,
       yErr: sorted.map((s) => jAt(s)?.absorberStderrMaCm2 ?? NaN),
       markers: true,
-      colour: seriesColour(i),
+      colour: st.colour,
+      dash: st.dash,
+      marker: st.marker,
     });
   });
   const b = best as { x: number; y: number; i: number } | null;
-  const id = "parameter-sweep";
-  const title = `Absorber photocurrent vs ${xKey}`;
-  return figure(id, title, linePlot, {
+  const axis = parameterAxis(list[0]!, xKey);
+  return figure("parameter-sweep", `Absorber photocurrent vs ${axis}`, linePlot, {
     subtitle: `${studyName} · θ = ${angleDeg}° · whiskers ±1 standard error`,
-    x: { label: xKey, tight: true, padding: 0.04 },
+    x: { label: axis, tight: true, padding: 0.04 },
     y: { label: "absorber photocurrent (mA/cm²)", headroom: 0.1 },
     series,
-    marks: b ? [{ x: b.x, y: b.y, label: `best ${b.x}`, colour: seriesColour(b.i) }] : [],
+    marks: b ? [{ x: b.x, y: b.y, label: `best ${b.x}`, colour: seriesStyle(b.i).colour }] : [],
   });
 }
 

@@ -40,6 +40,8 @@ export interface StackEntry {
   /** Combination folder ("base", "p0", …). */
   comboKey: string;
   combo: Record<string, number>;
+  /** The combination's values in words with units ("Si 100 µm · SiNx 65 nm"), parts in `combo`'s key order; sweeps only. */
+  title?: string;
   /** Path of the matrix file as given (displayed, escaped). */
   matrixPath: string;
   matrix: ResponseMatrix;

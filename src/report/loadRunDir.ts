@@ -36,7 +36,7 @@ function comboDirs(runDir: string): string[] {
 function comboText(combo: Record<string, number>): string {
   return Object.entries(combo)
     .map(([k, v]) => `${k} = ${v}`)
-    .join(", ");
+    .join(" · ");
 }
 
 export interface LoadOptions {
@@ -79,9 +79,13 @@ function loadAll(runDirs: string[], opts: LoadOptions): ReportInput {
       throw new InputError(`run directory ${dir} does not exist or is not a directory`, "give the --out folder of a sweep, e.g. lightfold report runs/my-study");
     }
     let found = 0;
+    const titles = new Map<string, string>();
     if (existsSync(join(dir, "run.json"))) {
       const run = readJsonFile(join(dir, "run.json"));
       if (typeof run.studyName === "string") studyNames.push(run.studyName);
+      if (Array.isArray(run.combos)) {
+        for (const c of run.combos as Json[]) if (typeof c?.label === "string" && typeof c.title === "string") titles.set(c.label, c.title);
+      }
       found++;
     }
     const combos = comboDirs(dir);
@@ -92,11 +96,13 @@ function loadAll(runDirs: string[], opts: LoadOptions): ReportInput {
       const pcPath = join(dir, c, "photocurrent.json");
       const photocurrent = existsSync(pcPath) ? adaptPhotocurrent(readJsonFile(pcPath), pcPath) : undefined;
       const swept = Object.keys(matrix.combo).length > 0;
+      const title = swept ? (titles.get(c) ?? comboText(matrix.combo)) : undefined;
       const entry: StackEntry = {
-        label: swept ? `${matrix.studyName} [${comboText(matrix.combo)}]` : matrix.studyName,
+        label: title !== undefined ? `${matrix.studyName} · ${title}` : matrix.studyName,
         studyName: matrix.studyName,
         comboKey: c,
         combo: matrix.combo,
+        ...(title !== undefined ? { title } : {}),
         matrixPath,
         matrix,
         photocurrent,

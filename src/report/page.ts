@@ -1,6 +1,5 @@
 /** The report page: self-contained HTML with inline SVG and CSS. Pure: input → { html, figures }. */
 import { bifacialPitchFigure, bifacialTiltFigure } from "./bifacialFigures.js";
-import { channelGroup, channelLabel } from "./channels.js";
 import { html, escapeText } from "./escape.js";
 import {
   convergenceFigure,
@@ -9,14 +8,12 @@ import {
   optimumFigures,
   spectralCorrectionFigure,
   parameterSweepFigure,
-  responseMapFigure,
-  spectralFigure,
   tiltFigure,
   yieldLabel,
   type Figure,
 } from "./figures.js";
 import type { BenefitRow, BifacialRow, OptimumEntry, ReportInput, StackEntry } from "./inputs.js";
-import { CHANNEL_COLOURS, parasiticColour } from "./svg/palette.js";
+import { ledgerFigure, responseMapFigure, spectralStripsFigure } from "./stackFigures.js";
 import { REPORT_CSS } from "./style.js";
 
 export interface RenderedReport {
@@ -48,36 +45,14 @@ function note(text: string): string {
   return html`<p class="note">${text}</p>`;
 }
 
-function swatchColour(stack: StackEntry, channel: string): string {
-  const g = channelGroup(channel);
-  if (g === "absorber") return CHANNEL_COLOURS.absorber;
-  if (g === "frontReflection") return CHANNEL_COLOURS.frontReflection;
-  if (g === "rearEscape") return CHANNEL_COLOURS.rearEscape;
-  if (g === "unresolved") return CHANNEL_COLOURS.unresolved;
-  const parasitic = stack.matrix.channels.filter((c) => channelGroup(c) === "parasitic");
-  return parasiticColour(Math.max(0, parasitic.indexOf(channel)));
-}
-
-/** Photocurrent and loss breakdown (mA/cm²) of one stack at the chosen angle. */
-function breakdownTable(stack: StackEntry, angleDeg: number): string {
-  const pc = stack.photocurrent;
-  if (!pc) return note("No photocurrent summary for this stack (photocurrent.json missing), so no breakdown in mA/cm².");
-  const at = pc.perAngle.find((a) => Math.abs(a.thetaDeg - angleDeg) < 1e-6);
-  if (!at) return note(`The photocurrent summary has no entry at θ = ${angleDeg}°.`);
-  const rows = [{ channel: "A_absorber", currentMaCm2: at.absorberMaCm2, stderrMaCm2: at.absorberStderrMaCm2 }, ...at.losses];
-  const total = rows.reduce((s, r) => s + r.currentMaCm2, 0);
-  let body = "";
-  for (const r of rows) {
-    const share = total > 0 ? (100 * r.currentMaCm2) / total : NaN;
-    body += `<tr><td class="text"><span class="swatch" style="background:${swatchColour(stack, r.channel)}"></span>${escapeText(channelLabel(r.channel))}</td><td>${fmt(r.currentMaCm2)}</td><td>${fmt(r.stderrMaCm2, 3)}</td><td>${fmt(share, 1)}</td></tr>`;
-  }
-  body += `<tr class="total"><td class="text">total${pc.incidentMaCm2 !== undefined ? html` (incident ${fmt(pc.incidentMaCm2)})` : ""}</td><td>${fmt(total)}</td><td></td><td>100.0</td></tr>`;
-  const unresolved = rows.find((r) => r.channel === "unresolved");
-  const warn =
-    unresolved && total > 0 && unresolved.currentMaCm2 / total > UNRESOLVED_WARN_FRACTION
-      ? note(`${fmt((100 * unresolved.currentMaCm2) / total, 1)} % of the incident photocurrent was still travelling when rays reached the per-ray event limit (channel "unresolved"): that light is neither absorbed nor lost, so the absorber current is a lower bound.`)
-      : "";
-  return `<div>${warn}<table class="breakdown" data-stack="${escapeText(stack.label)}"><caption>${html`Photocurrent at θ = ${angleDeg}°, ${pc.spectrumName}`}</caption><thead><tr><th class="text">where the photons go</th><th>mA/cm²</th><th>± s.e.</th><th>%</th></tr></thead><tbody>${body}</tbody></table></div>`;
+/** A warning when much of the light was still travelling at the event limit (absorber current a lower bound). */
+function unresolvedNote(stack: StackEntry, angleDeg: number): string {
+  const at = stack.photocurrent?.perAngle.find((a) => Math.abs(a.thetaDeg - angleDeg) < 1e-6);
+  const unresolved = at?.losses.find((l) => l.channel === "unresolved");
+  if (!at || !unresolved) return "";
+  const total = at.absorberMaCm2 + at.losses.reduce((s, l) => s + l.currentMaCm2, 0);
+  if (!(total > 0 && unresolved.currentMaCm2 / total > UNRESOLVED_WARN_FRACTION)) return "";
+  return note(`${fmt((100 * unresolved.currentMaCm2) / total, 1)} % of the incident photocurrent was still travelling when rays reached the per-ray event limit (channel "unresolved"): that light is neither absorbed nor lost, so the absorber current is a lower bound.`);
 }
 
 function summaryTable(input: ReportInput): string {
@@ -153,14 +128,17 @@ export function renderReport(input: ReportInput): RenderedReport {
   sections += input.stacks.length ? summaryTable(input) : note("No response matrix was found in the run directory.");
   sections += `</section>`;
 
-  // Where the light goes
-  sections += `<section id="spectral"><h2>Where the light goes</h2>`;
-  sections += html`<p class="lead">Fraction of the incident power reflected at the front, absorbed in the absorber and in each parasitic layer, and escaping at the rear, vs wavelength at θ = ${input.angleDeg}°; the table weights the same channels with the spectrum.</p>`;
+  // Photon ledger: from the incident photon current to the absorber current, then per wavelength
+  sections += `<section id="ledger"><h2>Photon ledger</h2>`;
+  sections += html`<p class="lead">At θ = ${input.angleDeg}°: the photon current the spectrum brings over the matrix's wavelengths, what each loss takes in the order the light meets it, and what the absorber keeps (mA/cm²); below, where each wavelength ends up, one strip per channel.</p>`;
   const shown = input.stacks.slice(0, MAX_STACK_SECTIONS);
   if (shown.length === 0) sections += note("Omitted: no response matrix.");
   shown.forEach((s, i) => {
     sections += html`<h3>${s.label}</h3>`;
-    sections += `<div class="row">${use(spectralFigure(s, i, input.angleDeg))}${breakdownTable(s, input.angleDeg)}</div>`;
+    sections += unresolvedNote(s, input.angleDeg);
+    const led = ledgerFigure(s, i, input.angleDeg);
+    sections += led ? use(led) : note("No photocurrent summary for this stack (photocurrent.json missing), so no ledger in mA/cm².");
+    sections += use(spectralStripsFigure(s, i, input.angleDeg));
   });
   if (input.stacks.length > shown.length) sections += note(`Only the first ${MAX_STACK_SECTIONS} of ${input.stacks.length} stacks are plotted.`);
   sections += `</section>`;

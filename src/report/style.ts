@@ -22,7 +22,6 @@ th, td { padding: 4px 10px; border-bottom: 1px solid var(--line); text-align: ri
 th { background: #EEF1F5; font-weight: 600; }
 td.text, th.text { text-align: left; white-space: normal; overflow-wrap: anywhere; max-width: 320px; }
 tr.total td { font-weight: 600; border-top: 2px solid var(--ink); }
-.swatch { display: inline-block; width: 11px; height: 11px; margin-right: 6px; border: 1px solid #0003; vertical-align: -1px; }
 code { font-family: 'DejaVu Sans Mono', monospace; font-size: 12px; overflow-wrap: anywhere; }
 footer { color: var(--soft); font-size: 12px; margin-top: 24px; }
 `;

@@ -10,6 +10,7 @@ import { pathToFileURL } from "node:url";
 import { chromium, type BrowserContext } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { makeReport, type MakeReportResult } from "../../src/report/makeReport.js";
+import { MODULE_CHANNELS, writeModuleRun, writeSweepRun } from "../fixtures/report/moduleRuns.js";
 import { writeTinyRun, XSS_NAME } from "../fixtures/report/tinyRun.js";
 
 const CHROMIUM = "/usr/bin/chromium";
@@ -27,6 +28,8 @@ const FLAGS = [
 const tmp = mkdtempSync(join(tmpdir(), "lightfold-browser-"));
 let context: BrowserContext;
 let report: MakeReportResult;
+let moduleReport: MakeReportResult;
+let sweepReport: MakeReportResult;
 
 beforeAll(async () => {
   if (!existsSync(CHROMIUM)) {
@@ -37,6 +40,8 @@ beforeAll(async () => {
     );
   }
   report = makeReport([writeTinyRun(join(tmp, "run"))], { angleDeg: 0 });
+  moduleReport = makeReport([writeModuleRun(join(tmp, "module"))], { angleDeg: 0 });
+  sweepReport = makeReport([writeSweepRun(join(tmp, "sweep"))], { angleDeg: 0 });
   // A fresh profile folder per run (playwright passes it as --user-data-dir).
   context = await chromium.launchPersistentContext(join(tmp, "profile"), {
     executablePath: CHROMIUM,
@@ -113,6 +118,54 @@ describe("report page in headless Chromium", () => {
       expect(info.width).toBeGreaterThan(200);
       expect(info.height).toBeGreaterThan(150);
     }
+    await page.close();
+  });
+
+  /** Every text of every plot lies inside its SVG (nothing cut at an edge) and none is shortened with "…". */
+  async function labelsFit(page: import("playwright-core").Page): Promise<string[]> {
+    return page.$$eval("svg[data-plot]", (svgs) =>
+      svgs.flatMap((s) => {
+        const box = s.getBoundingClientRect();
+        return [...s.querySelectorAll("text")].flatMap((t) => {
+          const b = t.getBoundingClientRect();
+          const cut = b.right > box.right + 1 || b.left < box.left - 1 || (t.textContent ?? "").includes("…");
+          return cut ? [`${s.getAttribute("data-plot")}: "${t.textContent}"`] : [];
+        });
+      }),
+    );
+  }
+
+  it("a 12-channel module stack: every ledger step and spectral strip has its own colour and a label that fits", async () => {
+    const page = await context.newPage();
+    await page.goto(pathToFileURL(resolve(moduleReport.indexPath)).href, { waitUntil: "load" });
+    const ledger = await page.$$eval('svg[data-plot^="ledger"] rect.step', (r) => r.map((e) => e.getAttribute("fill")));
+    expect(ledger.length).toBe(MODULE_CHANNELS.length); // 11 losses + the absorber, none hidden
+    expect(new Set(ledger).size).toBe(ledger.length);
+    const strips = await page.$$eval('svg[data-plot^="spectral"] g.strip', (g) => g.map((e) => e.getAttribute("data-colour")));
+    expect(strips.length).toBe(MODULE_CHANNELS.length);
+    expect(new Set(strips).size).toBe(strips.length);
+    const rows = await page.$$eval('svg[data-plot^="ledger"] text.row-label', (t) => t.map((e) => e.textContent));
+    expect(rows).toContain("− cover glass (layer)");
+    expect(rows).toContain("− SiO2 film on cover glass (#1)");
+    expect(await labelsFit(page)).toEqual([]);
+    await page.screenshot({ path: join("test-artifacts", "report-module.png"), fullPage: true });
+    await page.close();
+  });
+
+  it("a 9-combination sweep: nine distinct series in the angular modifier, labelled by parameter and unit", async () => {
+    const page = await context.newPage();
+    await page.goto(pathToFileURL(resolve(sweepReport.indexPath)).href, { waitUntil: "load" });
+    const legend = await page.$$eval('svg[data-plot="angular-modifier"] .legend line', (l) => l.map((e) => e.getAttribute("stroke")));
+    const names = await page.$$eval('svg[data-plot="angular-modifier"] .legend text', (t) => t.map((e) => e.lastChild?.textContent ?? ""));
+    expect(legend.length).toBe(9);
+    expect(new Set(legend).size).toBe(9);
+    expect(names).toContain("Si 140 µm · SiNx 75 nm");
+    expect(new Set(names).size).toBe(9);
+    const series = await page.$$eval('svg[data-plot="angular-modifier"] .marks .series path[stroke-linejoin]', (p) => p.map((e) => e.getAttribute("stroke")));
+    expect(new Set(series).size).toBe(9);
+    expect(await page.locator('svg[data-plot="parameter-sweep"] text.axis-label').first().textContent()).toMatch(/^(Si|SiNx) thickness \((µm|nm)\)$/);
+    expect(await labelsFit(page)).toEqual([]);
+    await page.screenshot({ path: join("test-artifacts", "report-sweep.png"), fullPage: true });
     await page.close();
   });
 });

@@ -22,7 +22,7 @@ describe("lightfold report", () => {
     for (const f of ["index.html", "spectral-2-planar-reference.svg", "convergence.svg", "tilt-sweep.svg"]) {
       expect(existsSync(join(run, "report", f)), f).toBe(true);
     }
-    expect(readFileSync(join(run, "report", "index.html"), "utf8")).toContain("Where the light goes at θ = 30°");
+    expect(readFileSync(join(run, "report", "index.html"), "utf8")).toContain("Photon ledger at θ = 30°");
   });
 
   it("--json prints the written files and omitted sections", () => {
@@ -31,7 +31,7 @@ describe("lightfold report", () => {
     expect(r.status).toBe(0);
     const j = JSON.parse(r.stdout) as { indexPath: string; files: string[]; omitted: string[] };
     expect(j.indexPath).toBe(join(out, "index.html"));
-    expect(j.files.length).toBe(10); // index.html + 9 plots (the optimum plot included)
+    expect(j.files.length).toBe(12); // index.html + 11 plots (two ledgers, the optimum plot included)
     expect(j.omitted).toEqual([]);
   });
 

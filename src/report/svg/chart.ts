@@ -1,6 +1,6 @@
 import { escapeText } from "../escape.js";
 import { el, num, text } from "./element.js";
-import { FONT_FAMILY, GRID, INK, INK_SOFT } from "./palette.js";
+import { FONT_FAMILY, GRID, INK, INK_SOFT, markerPath } from "./palette.js";
 import { formatTick, linearScale, linearTicks, logDomain, logScale, logTicks, niceDomain, type Scale } from "./scale.js";
 
 /** One axis of a chart: numeric (linear or log) or categorical ("band"). */
@@ -27,6 +27,10 @@ export interface LegendItem {
   label: string;
   colour: string;
   shape: "line" | "dashed" | "box" | "marker" | "guide";
+  /** Dash pattern of the line (drawn as in the plot). */
+  dash?: string;
+  /** Marker shape index (palette.markerPath), drawn on the line sample. */
+  marker?: number;
 }
 
 export interface ChartSpec {
@@ -62,7 +66,7 @@ export interface Chart {
 const TICK_FONT = 12;
 const LABEL_FONT = 13;
 const TITLE_FONT = 15;
-const MAX_LEGEND_CHARS = 36;
+const MAX_LEGEND_CHARS = 52;
 
 function legendLabel(label: string): string {
   return label.length > MAX_LEGEND_CHARS ? `${label.slice(0, MAX_LEGEND_CHARS - 1)}…` : label;
@@ -71,7 +75,7 @@ function legendLabel(label: string): string {
 function legendWidth(items: LegendItem[] | undefined): number {
   if (!items || items.length === 0) return 0;
   const chars = Math.max(...items.map((i) => legendLabel(i.label).length));
-  return 40 + chars * 7.2;
+  return 52 + chars * 7.7;
 }
 
 function numericScale(axis: AxisSpec, extent: [number, number], range: [number, number]): Scale {
@@ -106,10 +110,10 @@ function bandScale(categories: string[], range: [number, number]): { scale: Scal
  * extents (`xExtent`, `yExtent` = [min, max] of the data; ignored for band axes and fixed domains).
  */
 export function layoutChart(spec: ChartSpec, xExtent: [number, number], yExtent: [number, number]): Chart {
-  const width = spec.width ?? 720;
-  const height = spec.height ?? 420;
+  const width = spec.width ?? 780;
+  const height = spec.height ?? 460;
   const top = spec.subtitle ? 58 : 42;
-  const left = 74;
+  const left = 86;
   const bottom = height - 52;
   const right = width - 18 - legendWidth(spec.legend) - (spec.extraRight ?? 0);
   let x: Scale;
@@ -184,11 +188,16 @@ function legend(c: Chart): string {
   items.forEach((item, i) => {
     const y = c.top + 8 + i * 20;
     if (item.shape === "box") out += el("rect", { x: x0, y: y - 6, width: 18, height: 12, fill: item.colour, stroke: INK, "stroke-width": 0.5 });
-    else if (item.shape === "marker")
-      out += el("line", { x1: x0, y1: y, x2: x0 + 18, y2: y, stroke: item.colour, "stroke-width": 2 }) + el("circle", { cx: x0 + 9, cy: y, r: 4, fill: item.colour, stroke: "#fff", "stroke-width": 1 });
-    else if (item.shape === "guide") out += el("line", { x1: x0, y1: y, x2: x0 + 18, y2: y, stroke: item.colour, "stroke-width": 7, "stroke-opacity": 0.45 });
-    else out += el("line", { x1: x0, y1: y, x2: x0 + 18, y2: y, stroke: item.colour, "stroke-width": 2.5, "stroke-dasharray": item.shape === "dashed" ? "6 4" : undefined });
-    out += el("text", { x: x0 + 25, y: y + 4, "font-size": TICK_FONT, fill: INK }, `${el("title", {}, escapeText(item.label))}${escapeText(legendLabel(item.label))}`);
+    else if (item.shape === "guide") out += el("line", { x1: x0, y1: y, x2: x0 + 24, y2: y, stroke: item.colour, "stroke-width": 7, "stroke-opacity": 0.45 });
+    else {
+      // the same dash and marker as the series in the plot
+      const dash = item.dash ?? (item.shape === "dashed" ? "6 4" : undefined);
+      out += el("line", { x1: x0, y1: y, x2: x0 + 24, y2: y, stroke: item.colour, "stroke-width": item.shape === "dashed" ? 1.6 : 2.2, "stroke-dasharray": dash });
+      if (item.shape === "marker" || item.marker !== undefined) {
+        out += el("path", { d: markerPath(item.marker ?? 0), transform: `translate(${num(x0 + 12)},${num(y)})`, fill: item.colour, stroke: "#fff", "stroke-width": 1 });
+      }
+    }
+    out += el("text", { x: x0 + 31, y: y + 4, "font-size": TICK_FONT, fill: INK }, `${el("title", {}, escapeText(item.label))}${escapeText(legendLabel(item.label))}`);
   });
   return el("g", { class: "legend" }, out);
 }

@@ -1,3 +1,4 @@
+import { line } from "d3-shape";
 import { escapeText } from "../escape.js";
 
 /** Attribute values: numbers are rounded to 0.01 px to keep files small; text is escaped. */
@@ -26,19 +27,13 @@ export function text(x: number, y: number, content: string, attrs: Attrs = {}): 
   return el("text", { x, y, ...attrs }, escapeText(content));
 }
 
-/** Polyline path through the points, breaking at non-finite values. */
+/** Polyline path through the points (d3-shape's line), breaking at non-finite values. */
 export function pathThrough(xs: ArrayLike<number>, ys: ArrayLike<number>): string {
-  let d = "";
-  let pen = false;
-  for (let i = 0; i < xs.length; i++) {
-    const x = xs[i]!;
-    const y = ys[i]!;
-    if (!Number.isFinite(x) || !Number.isFinite(y)) {
-      pen = false;
-      continue;
-    }
-    d += `${pen ? "L" : "M"}${num(x)},${num(y)}`;
-    pen = true;
-  }
-  return d;
+  const points = Array.from({ length: xs.length }, (_, i) => [xs[i]!, ys[i]!] as [number, number]);
+  return (
+    line()
+      .defined(([x, y]) => Number.isFinite(x) && Number.isFinite(y))
+      .x(([x]) => Math.round(x * 100) / 100)
+      .y(([, y]) => Math.round(y * 100) / 100)(points) ?? ""
+  );
 }

@@ -1,6 +1,6 @@
 import { layoutChart, renderChart, type ChartSpec } from "./chart.js";
 import { el, num, text } from "./element.js";
-import { duskColour, NO_DATA_COLOUR } from "./colourMap.js";
+import { NO_DATA_COLOUR, sequentialColour } from "./colourMap.js";
 import { INK } from "./palette.js";
 import { formatTick, linearTicks, niceDomain } from "./scale.js";
 
@@ -70,13 +70,13 @@ export function heatMap(spec: HeatMapSpec): string {
       const x0 = chart.x(ex[ix]!);
       const x1 = chart.x(ex[ix + 1]!);
       const v = spec.z[iy * nx + ix]!;
-      const fill = Number.isFinite(v) ? duskColour((v - zDomain[0]) / zSpan) : NO_DATA_COLOUR;
+      const fill = Number.isFinite(v) ? sequentialColour((v - zDomain[0]) / zSpan) : NO_DATA_COLOUR;
       body += `<rect x="${num(Math.min(x0, x1))}" y="${num(Math.min(y0, y1))}" width="${num(Math.abs(x1 - x0) + 0.4)}" height="${num(Math.abs(y1 - y0) + 0.4)}" fill="${fill}"/>`;
     }
   }
   // colour bar
   const barX = chart.right + 18;
-  const stops = Array.from({ length: 11 }, (_, k) => el("stop", { offset: `${k * 10}%`, "stop-color": duskColour(1 - k / 10) })).join("");
+  const stops = Array.from({ length: 11 }, (_, k) => el("stop", { offset: `${k * 10}%`, "stop-color": sequentialColour(1 - k / 10) })).join("");
   const gradId = `grad-${spec.id.replace(/[^A-Za-z0-9_-]/g, "_")}`;
   let bar = el("defs", {}, el("linearGradient", { id: gradId, x1: 0, y1: 0, x2: 0, y2: 1 }, stops));
   bar += el("rect", { x: barX, y: chart.top, width: BAR_WIDTH, height: chart.bottom - chart.top, fill: `url(#${gradId})`, stroke: INK, "stroke-width": 0.5, class: "colour-bar" });

@@ -1,6 +1,6 @@
 import { extentOf, layoutChart, renderChart, type ChartSpec, type LegendItem } from "./chart.js";
-import { el, pathThrough, text } from "./element.js";
-import { INK, seriesColour } from "./palette.js";
+import { el, num, pathThrough, text } from "./element.js";
+import { INK, markerPath, seriesColour } from "./palette.js";
 
 export interface LineSeries {
   label: string;
@@ -10,7 +10,11 @@ export interface LineSeries {
   yErr?: ArrayLike<number>;
   colour?: string;
   dashed?: boolean;
+  /** Dash pattern (overrides `dashed`). */
+  dash?: string;
   markers?: boolean;
+  /** Marker shape (palette.markerPath); default: the series index. */
+  marker?: number;
   /** Leave out of the legend (default: listed). */
   hideInLegend?: boolean;
   /** A reference guide: drawn first, as a wide pale line beneath the data. */
@@ -51,7 +55,13 @@ export function linePlot(spec: LinePlotSpec): string {
   const legend: LegendItem[] = spec.series
     .map((s, i) => ({ s, i }))
     .filter(({ s }) => !s.hideInLegend)
-    .map(({ s, i }) => ({ label: s.label, colour: s.colour ?? seriesColour(i), shape: s.guide ? "guide" : s.dashed ? "dashed" : s.markers ? "marker" : "line" }));
+    .map(({ s, i }) => ({
+      label: s.label,
+      colour: s.colour ?? seriesColour(i),
+      shape: s.guide ? "guide" : s.dashed ? "dashed" : s.markers ? "marker" : "line",
+      dash: s.dash,
+      marker: s.markers ? (s.marker ?? i) : undefined,
+    }));
   const chart = layoutChart({ ...spec, legend }, extentOf(...xs, marksX), extentOf(...ys, marksY));
   let body = "";
   const order = spec.series.map((s, i) => ({ s, i })).sort((a, b) => Number(Boolean(b.s.guide)) - Number(Boolean(a.s.guide)));
@@ -73,10 +83,11 @@ export function linePlot(spec: LinePlotSpec): string {
     }
     const d = pathThrough(px, py);
     if (d && s.guide) g += el("path", { d, stroke: colour, "stroke-width": 7, fill: "none", "stroke-linecap": "round", "stroke-opacity": 0.45 });
-    else if (d) g += el("path", { d, stroke: colour, "stroke-width": s.dashed ? 1.6 : 2.2, fill: "none", "stroke-dasharray": s.dashed ? "6 4" : undefined, "stroke-linejoin": "round" });
+    else if (d) g += el("path", { d, stroke: colour, "stroke-width": s.dashed ? 1.6 : 2.2, fill: "none", "stroke-dasharray": s.dash ?? (s.dashed ? "6 4" : undefined), "stroke-linejoin": "round" });
     if (s.markers) {
+      const shape = markerPath(s.marker ?? i);
       for (let k = 0; k < px.length; k++) {
-        if (Number.isFinite(px[k]!) && Number.isFinite(py[k]!)) g += el("circle", { cx: px[k]!, cy: py[k]!, r: 3.5, fill: colour, stroke: "#fff", "stroke-width": 1 });
+        if (Number.isFinite(px[k]!) && Number.isFinite(py[k]!)) g += el("path", { d: shape, transform: `translate(${num(px[k]!)},${num(py[k]!)})`, fill: colour, stroke: "#fff", "stroke-width": 1 });
       }
     }
     body += el("g", { class: "series" }, g);

@@ -1,55 +1,51 @@
 /**
- * lightfold's colours. Categorical colours are the Okabe–Ito set (Okabe & Ito 2008, "Color Universal
- * Design"), published as distinguishable under the common colour-vision deficiencies; the channel
- * assignment and the greys are our own.
+ * lightfold's colours, line dashes and marker shapes. Categorical colours come from d3-scale-chromatic
+ * (its "Observable 10" scheme, then "Dark 2"); a series or channel past the colours keeps its colour
+ * family but gets a dash pattern and another marker, so twelve and more stay apart.
  */
-export const OKABE_ITO = {
-  orange: "#E69F00",
-  skyBlue: "#56B4E9",
-  bluishGreen: "#009E73",
-  yellow: "#F0E442",
-  blue: "#0072B2",
-  vermillion: "#D55E00",
-  reddishPurple: "#CC79A7",
-  black: "#000000",
-} as const;
+import { schemeDark2, schemeObservable10 } from "d3-scale-chromatic";
+import { symbol, symbolsFill } from "d3-shape";
 
-/** Series colours in order of use for line plots and grouped bars. */
-export const SERIES_COLOURS: readonly string[] = [
-  OKABE_ITO.blue,
-  OKABE_ITO.vermillion,
-  OKABE_ITO.bluishGreen,
-  OKABE_ITO.reddishPurple,
-  OKABE_ITO.orange,
-  OKABE_ITO.skyBlue,
-  OKABE_ITO.black,
-];
+/** Series colours in order of use for line plots and grouped bars (10 distinct). */
+export const SERIES_COLOURS: readonly string[] = schemeObservable10;
 
-/** Fixed colours of the optical loss channels in the stacked spectral plot. */
-export const CHANNEL_COLOURS = {
-  absorber: OKABE_ITO.bluishGreen,
-  frontReflection: OKABE_ITO.skyBlue,
-  rearEscape: "#8C8C8C",
-  unresolved: "#3A3A3A",
-} as const;
+/** Dash patterns in order of use: solid, then dashed, dotted, dash-dot. */
+export const DASHES: readonly (string | undefined)[] = [undefined, "7 4", "2 3", "8 3 2 3"];
 
-/** Parasitic absorbers (films, thick layers, rear reflector) cycle through these. */
-export const PARASITIC_COLOURS: readonly string[] = [
-  OKABE_ITO.orange,
-  OKABE_ITO.vermillion,
-  OKABE_ITO.reddishPurple,
-  OKABE_ITO.yellow,
-  OKABE_ITO.blue,
-  "#7A4E2D",
-];
+/** How series i is drawn: colour, dash (from the 11th series on), marker shape (7 shapes, by i). */
+export interface SeriesStyle {
+  colour: string;
+  dash: string | undefined;
+  marker: number;
+}
+
+export function seriesStyle(i: number): SeriesStyle {
+  const n = SERIES_COLOURS.length;
+  return { colour: SERIES_COLOURS[i % n]!, dash: DASHES[Math.floor(i / n) % DASHES.length], marker: i % symbolsFill.length };
+}
 
 export function seriesColour(i: number): string {
-  return SERIES_COLOURS[i % SERIES_COLOURS.length]!;
+  return seriesStyle(i).colour;
 }
 
-export function parasiticColour(i: number): string {
-  return PARASITIC_COLOURS[i % PARASITIC_COLOURS.length]!;
+/** SVG path data of marker shape k (d3-shape's fill symbols: circle, cross, diamond, square, star, triangle, wye), centred on 0,0. */
+export function markerPath(k: number, areaPx2 = 48): string {
+  return symbol(symbolsFill[k % symbolsFill.length]!, areaPx2)() ?? "";
 }
+
+/** Colours of channel kinds that keep one meaning throughout the report. */
+export const KIND_COLOURS = {
+  absorber: "#3ca951",
+  reflection: ["#4269d0", "#97bbf5", "#1f3f8f"],
+  transmission: ["#9498a0", "#c5c8ce"],
+  unresolved: "#3a3a3a",
+} as const;
+
+/** Parasitic absorbers (films, layers, rear reflector) take these in channel order (11 distinct). */
+export const PARASITIC_COLOURS: readonly string[] = [
+  ...schemeObservable10.filter((c) => !["#4269d0", "#3ca951", "#97bbf5", "#9498a0"].includes(c)),
+  ...schemeDark2.filter((c) => !["#1b9e77", "#66a61e", "#666666"].includes(c)),
+];
 
 /** Ink for axes, text and grid lines. */
 export const INK = "#1E2430";
