@@ -3,8 +3,6 @@ import { BUILTIN_ALIASES, builtinMaterials } from "./builtins.js";
 import { suggestNames } from "../util/didYouMean.js";
 import type { Material } from "./types.js";
 
-export { materialFromSpec, registerStudyMaterials } from "./spec.js";
-
 /**
  * Named materials: the built-in catalogue, its aliases (e.g. "Si" → "Si-Green2008") and user
  * materials. A user material may take a built-in's name (or alias) only with { override: true }.

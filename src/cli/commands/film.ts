@@ -1,6 +1,7 @@
 import type { Command } from "commander";
 import { constantIndexMaterial, parseConstantIndex } from "../../materials/constantIndex.js";
-import { MaterialRegistry, materialFromSpec } from "../../materials/registry.js";
+import { MaterialRegistry } from "../../materials/registry.js";
+import { materialFromSpec } from "../../materials/spec.js";
 import type { Material } from "../../materials/types.js";
 import { filmPointText, filmSweepText, pick, type FilmPolarization } from "../../optics/filmText.js";
 import { parseNumberSweep, parseStackSpec } from "../../optics/stackSpec.js";
