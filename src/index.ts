@@ -16,7 +16,16 @@ export { readResponseMatrix, writeResponseMatrix, matrixToJson, matrixFromJson }
 export * from "./export/index.js";
 export * from "./weighting/index.js";
 export { logLogSlope, buildConvergenceReport, buildConvergenceReportOnPool, convergenceEstimator, replicaSeed, type ConvergeRequest } from "./convergence/index.js";
+export { parseEpw } from "./weather/epw.js";
+export { parseTmy3 } from "./weather/tmy3.js";
+export type { StationWeather, StationMeta, MetSeries } from "./weather/stationFile.js";
+export { parseSpectralSeries, type SpectralSeries } from "./weather/spectralSeries.js";
+export { birdRiordanTable, birdRiordanInto, birdRiordanTiltedInto, type ClearSkyAtmosphere } from "./spectrum/birdRiordan.js";
+export { yearContext, type YearContext } from "./yield/yearContext.js";
 export { prepareMatrix, planeList, yieldSweep, bestPlane, type PreparedMatrix } from "./yield/yieldRun.js";
+export { clearSkyHourlySpectra } from "./yield/clearSkyHours.js";
+export { userHourlySpectra } from "./yield/userHours.js";
+export type { HourlySpectra } from "./yield/hourlySpectra.js";
 export { textureBenefit, type Benefit } from "./yield/compare.js";
 export type { YieldResult } from "./yield/annualYield.js";
 export { makeReport, type MakeReportOptions, type MakeReportResult } from "./report/makeReport.js";

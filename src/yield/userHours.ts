@@ -14,9 +14,10 @@ import type { YearContext } from "./yearContext.js";
  * its beam, sky and ground light alike (a global spectrum carries no split). A measured range [a, b]
  * narrower than the whole spectrum covers a share of the broadband irradiance; that share is taken
  * from the AM1.5G spectrum (G173 global over [a, b] ÷ its total), so the weights stay per W/m² of
- * broadband light. Hours without a measurement keep the G173 shapes.
+ * broadband light. Ground-reflected light is the measured shape times `albedoShape` (on the
+ * series' wavelengths) when given. Hours without a measurement keep the G173 shapes.
  */
-export function userHourlySpectra(ctx: YearContext, series: SpectralSeries, gridNm: ArrayLike<number>, fallback: SpectralWeights): HourlySpectra {
+export function userHourlySpectra(ctx: YearContext, series: SpectralSeries, gridNm: ArrayLike<number>, fallback: SpectralWeights, albedoShape?: Float64Array): HourlySpectra {
   const wl = series.wavelengthNm, nW = wl.length;
   const a = wl[0]!, b = wl[nW - 1]!;
   if (gridNm[0]! < a || gridNm[gridNm.length - 1]! > b) {
@@ -47,12 +48,15 @@ export function userHourlySpectra(ctx: YearContext, series: SpectralSeries, grid
     if (!(trapezoid(wl, mean) > 0)) continue;
     projectPerWm2(p, mean, share, s.beam, h * nL);
     s.sky.set(s.beam.subarray(h * nL, (h + 1) * nL), h * nL);
-    s.ground.set(s.beam.subarray(h * nL, (h + 1) * nL), h * nL);
+    if (albedoShape) {
+      for (let j = 0; j < nW; j++) mean[j] *= albedoShape[j]!;
+      projectPerWm2(p, mean, share, s.ground, h * nL);
+    } else s.ground.set(s.beam.subarray(h * nL, (h + 1) * nL), h * nL);
     s.nOwnHours++;
   }
   s.nFallbackHours = daylightWithout;
   s.notes.push(
-    `measured global spectra (${a}–${b} nm; AM1.5G puts ${(100 * share).toFixed(1)} % of the broadband irradiance in that range) give each measured hour's shape for beam, sky and ground light`,
+    `measured global spectra (${a}–${b} nm; AM1.5G puts ${(100 * share).toFixed(1)} % of the broadband irradiance in that range) give each measured hour's shape for beam, sky and ground light${albedoShape ? " (ground: times the given spectral albedo)" : ""}`,
     `${daylightWithout} daylight hour(s) without a measurement keep the G173 shapes` + (outside > 0 ? `; ${outside} measurement(s) outside the weather year ignored` : ""),
   );
   return s;

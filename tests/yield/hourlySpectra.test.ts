@@ -4,6 +4,7 @@ import { astmG173 } from "../../src/spectrum/astmG173.js";
 import { binProjector, projectPerWm2 } from "../../src/spectrum/binProjector.js";
 import { birdRiordanInto, birdRiordanTable } from "../../src/spectrum/birdRiordan.js";
 import { trapezoid } from "../../src/spectrum/integrate.js";
+import { albedoShapeOn, parseSpectralAlbedo } from "../../src/spectrum/spectralAlbedo.js";
 import { photocurrentWeights } from "../../src/spectrum/photocurrent.js";
 import { InputError } from "../../src/util/errors.js";
 import { parseSpectralSeries } from "../../src/weather/spectralSeries.js";
@@ -109,6 +110,29 @@ describe("hourly spectra in the yield (annualYield with opts.spectra)", () => {
     const blue = corr((l) => (l <= 500 ? 0.9 : 0));
     expect(red.dec).toBeGreaterThan(red.jun);
     expect(blue.dec).toBeLessThan(blue.jun);
+  });
+});
+
+describe("spectral albedo (ground-reflected light)", () => {
+  it("shapes the ground light: a reflectance stepping from 0 to 1 at 700 nm removes the blue from the ground weights and adds red", () => {
+    const { m, weights } = setup(() => 1);
+    const table = birdRiordanTable();
+    const step = parseSpectralAlbedo("wavelength_nm,reflectance\n300,0\n690,0\n710,1\n4000,1\n", "step.csv");
+    const plain = clearSkyHourlySpectra(ctx, site, undefined, m.wavelengthNm, weights);
+    const shaped = clearSkyHourlySpectra(ctx, site, undefined, m.wavelengthNm, weights, albedoShapeOn(step, table.wavelengthNm));
+    const nL = m.wavelengthNm.length;
+    const h = ctx.zenithDeg.findIndex((z, i) => z < 40 && ctx.dniWm2[i]! > 300);
+    const at = (nm: number): number => m.wavelengthNm.indexOf(nm);
+    // per W/m² of ground light: no current below the edge (hat bins end at 690 nm), more above it
+    expect(shaped.ground[h * nL + at(600)]).toBe(0);
+    expect(shaped.ground[h * nL + at(900)]!).toBeGreaterThan(plain.ground[h * nL + at(900)]!);
+    // beam and sky are untouched
+    expect(shaped.beam[h * nL + at(600)]).toBe(plain.beam[h * nL + at(600)]);
+  });
+
+  it("refuses a reflectance above 1 or a bad header, naming file and line", () => {
+    expect(() => parseSpectralAlbedo("wavelength_nm,reflectance\n400,0.2\n500,1.3\n", "alb.csv")).toThrow(/alb\.csv.*(line 3|:3)/);
+    expect(() => parseSpectralAlbedo("wavelength_nm,rho\n400,0.2\n500,0.3\n", "alb.csv")).toThrow(/alb\.csv: header is "wavelength_nm,rho"; expected "wavelength_nm,reflectance"/);
   });
 });
 

@@ -27,7 +27,7 @@ export function slug(name: string): string {
 }
 
 interface YieldOpts extends YearPlaneFlags, ResultFlags, MountFlags {
-  matrix: string; site?: string; weather: string; hourly?: string; spectra: string;
+  matrix: string; site?: string; weather: string; hourly?: string; spectra: string; albedoSpectrum?: string;
 }
 
 /** `lightfold yield --matrix m --site s --weather csv|synthetic --tilt 30 --azimuth 180` */
@@ -40,7 +40,8 @@ export function register(program: Command): void {
     .option("--weather <file|synthetic>", "hourly weather: EPW, TMY3 CSV or lightfold CSV (told apart by content), or a synthetic year", "synthetic");
   addYearPlaneOptions(cmd, { tilt: "30" })
     .option("--hourly <file.csv>", "write the hourly POA irradiance and current (single plane only)")
-    .option("--spectra <g173|clear-sky-model|file.csv>", SPECTRA_HELP, "g173");
+    .option("--spectra <g173|clear-sky-model|file.csv>", SPECTRA_HELP, "g173")
+    .option("--albedo-spectrum <file.csv>", "spectral shape of the ground reflectance (wavelength_nm,reflectance) for ground light under hourly spectra; default constant");
   addMountOptions(cmd);
   addResultOptions(cmd, "yield-<site>.json", "result")
     .addHelpText(
@@ -82,7 +83,7 @@ and gain (rear/front) per tilt and pitch; the result file is yield/bifacial-<sit
       const input = readWeatherInput(opts.weather, year);
       const { site, weather, station } = siteAndWeather(input, opts.site ? readSiteFile(opts.site) : undefined, opts.site, year, seed);
       const ctx = yearContext(site, weather);
-      const hourlySpectra = hourlySpectraOption(opts.spectra, ctx, site, station?.met, pm, matrix.wavelengthNm);
+      const hourlySpectra = hourlySpectraOption(opts.spectra, ctx, site, station?.met, pm, matrix.wavelengthNm, opts.albedoSpectrum);
       const results = yieldSweep(ctx, pm, planes, sky, Boolean(opts.hourly), hourlySpectra?.spectra);
       const spectral = hourlySpectra ? { ...hourlySpectra, fixed: yieldSweep(ctx, pm, planes, sky) } : undefined;
       const best = results.length > 1 ? bestPlane(results) : undefined;
@@ -105,6 +106,7 @@ function bifacialAction(opts: YieldOpts, matrix: ResponseMatrix, pm: PreparedMat
   const mount = mountOf(opts);
   if (opts.spectra !== "g173") throw new InputError("--spectra: hourly spectra are not applied to the rear light yet; use the default g173 with --rear-matrix");
   if (opts.hourly) throw new InputError("--hourly: not written with --rear-matrix");
+  if (opts.albedoSpectrum) throw new InputError("--albedo-spectrum: applies to hourly spectra, which are not applied to the rear light yet");
   if (matrix.lightFrom === "rear") throw new InputError(`--matrix ${opts.matrix}: this matrix was traced with light from the rear; give the front one`);
   const rearMatrix = readResponseMatrix(opts.rearMatrix!);
   if (rearMatrix.lightFrom !== "rear") {
