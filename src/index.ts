@@ -1,7 +1,7 @@
 /**
  * lightfold's public API, in the order of the data path:
  * study → materials/optics → trace kernel → sweep (worker pool) → response matrix → weighting/exports
- * → yield → report.
+ * → yield → optimise → report.
  */
 export { loadStudy, loadStudyFromDocument, withOverrides, type LoadedStudy } from "./study/load.js";
 export * from "./materials/index.js";
@@ -28,5 +28,10 @@ export { userHourlySpectra } from "./yield/userHours.js";
 export type { HourlySpectra } from "./yield/hourlySpectra.js";
 export { textureBenefit, type Benefit } from "./yield/compare.js";
 export type { YieldResult } from "./yield/annualYield.js";
+export { optimize } from "./optimize/optimize.js";
+export type { Objective, OptimizeOptions, OptimumResult, Estimate as OptimizeEstimate } from "./optimize/types.js";
+export { studyObjective, evaluationStudy, type StudyObjectiveOptions } from "./optimize/studyObjective.js";
+export { objectiveValue, objectiveGrid, type ObjectiveSpec } from "./optimize/objectives.js";
+export { runOptimization, type OptimizationRequest } from "./optimize/runOptimization.js";
 export { makeReport, type MakeReportOptions, type MakeReportResult } from "./report/makeReport.js";
 export { InputError } from "./util/errors.js";
