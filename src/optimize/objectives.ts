@@ -13,13 +13,30 @@ import { photocurrentWeights, type Spectrum } from "../spectrum/index.js";
 import type { StudyGrid } from "../study/studyTypes.js";
 import { InputError } from "../util/errors.js";
 import type { YearContext } from "../yield/yearContext.js";
-import { prepareMatrix, yieldSweep } from "../yield/yieldRun.js";
+import { bifacialYield, type Mounting } from "../yield/bifacialYield.js";
+import type { HourlySpectra } from "../yield/hourlySpectra.js";
+import { prepareMatrix, yieldSweep, type PreparedMatrix } from "../yield/yieldRun.js";
 import type { Estimate } from "./types.js";
+
+/**
+ * The yearly charge: the front face under the fixed G173 shapes or hourly spectra (`spectra`, built
+ * once for the evaluations' common wavelength grid), or front + rear of a bifacial module when a
+ * mounting is given (the evaluation then also traces light from the rear; G173 shapes).
+ */
+export interface YieldObjective {
+  kind: "yield";
+  ctx: YearContext;
+  plane: Plane;
+  sky: SkyModel;
+  channel: string;
+  spectra?: { name: string; of: (pm: PreparedMatrix, gridNm: number[]) => HourlySpectra };
+  mounting?: Mounting;
+}
 
 export type ObjectiveSpec =
   | { kind: "jsc"; thetaDeg: number; spectrum: Spectrum }
   | { kind: "angles"; thetaDeg: number[]; weights: number[]; spectrum: Spectrum }
-  | { kind: "yield"; ctx: YearContext; plane: Plane; sky: SkyModel; channel: string };
+  | YieldObjective;
 
 export interface ObjectiveInfo {
   kind: ObjectiveSpec["kind"];
@@ -38,13 +55,16 @@ export function objectiveInfo(o: ObjectiveSpec): ObjectiveInfo {
       const parts = o.thetaDeg.map((t, i) => `${t}°×${o.weights[i]}`).join(", ");
       return { kind: o.kind, name: "angle-weighted Jsc", unit: "mA/cm²", description: `weighted mean of the absorber photocurrent over θ (${parts}) under ${o.spectrum.name}` };
     }
-    case "yield":
+    case "yield": {
+      const faces = o.mounting === undefined ? "" : `front + rear (${o.mounting.pitchM === null ? "isolated row" : `rows ${o.mounting.pitchM} m apart`}, ${o.mounting.slantLengthM} m modules at ${o.mounting.centreHeightM} m), `;
+      const spectra = o.spectra === undefined ? "" : `, ${o.spectra.name} spectra`;
       return {
         kind: o.kind,
-        name: "yearly charge",
+        name: o.mounting === undefined ? "yearly charge" : "yearly charge, front + rear",
         unit: "A·h/m²",
-        description: `yearly absorbed charge (${o.channel}) at ${o.ctx.siteName}, tilt ${o.plane.tiltDeg}°, azimuth ${o.plane.azimuthDeg}°, ${o.ctx.weatherSource}, ${o.sky} sky`,
+        description: `yearly absorbed charge (${o.channel}), ${faces}at ${o.ctx.siteName}, tilt ${o.plane.tiltDeg}°, azimuth ${o.plane.azimuthDeg}°, ${o.ctx.weatherSource}, ${o.sky} sky${spectra}`,
       };
+    }
   }
 }
 
@@ -72,13 +92,30 @@ function photocurrentAt(m: ResponseMatrix, w: Float64Array, it: number): Estimat
   return { value, stderr: Math.sqrt(var2) };
 }
 
-/** The objective's value and standard error for one evaluation's matrix. */
-export function objectiveValue(o: ObjectiveSpec, m: ResponseMatrix, label: string): Estimate {
-  if (o.kind === "yield") {
-    const pm = prepareMatrix(m, label, o.channel);
-    const y = yieldSweep(o.ctx, pm, [o.plane], o.sky)[0];
-    return { value: y.chargeAhM2, stderr: y.chargeStdErrAhM2 };
+/** Does an evaluation need the light-from-the-rear twin of its study? */
+export function needsRearLight(o: ObjectiveSpec): boolean {
+  return o.kind === "yield" && o.mounting !== undefined;
+}
+
+function yieldValue(o: YieldObjective, matrices: ResponseMatrix[], label: string): Estimate {
+  const front = matrices.find((m) => m.lightFrom !== "rear");
+  if (front === undefined) throw new InputError(`${label}: no front-lit matrix`);
+  const pm = prepareMatrix(front, label, o.channel);
+  if (o.mounting !== undefined) {
+    const rear = matrices.find((m) => m.lightFrom === "rear");
+    if (rear === undefined) throw new InputError(`${label}: the bifacial objective needs the rear-lit matrix`);
+    const b = bifacialYield(o.ctx, o.plane, o.mounting, pm, prepareMatrix(rear, `${label} (rear)`, o.channel), o.sky);
+    return { value: b.totalChargeAhM2, stderr: b.totalStdErrAhM2 };
   }
+  const y = yieldSweep(o.ctx, pm, [o.plane], o.sky, false, o.spectra?.of(pm, front.wavelengthNm))[0];
+  return { value: y.chargeAhM2, stderr: y.chargeStdErrAhM2 };
+}
+
+/** The objective's value and standard error from one evaluation's matrices (front-lit, and rear-lit when traced). */
+export function objectiveValue(o: ObjectiveSpec, matrices: ResponseMatrix[], label: string): Estimate {
+  if (o.kind === "yield") return yieldValue(o, matrices, label);
+  const m = matrices.find((x) => x.lightFrom !== "rear");
+  if (m === undefined) throw new InputError(`${label}: no front-lit matrix`);
   const w = photocurrentWeights(m.wavelengthNm, o.spectrum);
   if (o.kind === "jsc") return photocurrentAt(m, w, 0);
   const total = o.weights.reduce((a, b) => a + b, 0);

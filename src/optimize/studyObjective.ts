@@ -15,7 +15,7 @@ import { substituteCombo } from "../study/sweepCombos.js";
 import { runSweep, type SweepProgress } from "../sweep/runSweep.js";
 import { InputError } from "../util/errors.js";
 import type { TracePool } from "../workers/pool.js";
-import { objectiveGrid, objectiveValue, type ObjectiveSpec } from "./objectives.js";
+import { needsRearLight, objectiveGrid, objectiveValue, type ObjectiveSpec } from "./objectives.js";
 import type { ParameterSpec } from "./parameters.js";
 import type { Estimate, Objective } from "./types.js";
 
@@ -72,7 +72,9 @@ export function evaluationStudy(o: Pick<StudyObjectiveOptions, "base" | "params"
   const { sweep: _dropped, ...rest } = raw as Record<string, unknown>;
   let loaded: LoadedStudy;
   try {
-    const doc = { ...rest, stack: substituteCombo((raw as Record<string, unknown>).stack, values, "--param") };
+    // Light from the rear is traced only when the objective reads it (bifacial yield).
+    const illumination = needsRearLight(o.objective) ? "both" : "front";
+    const doc = { ...rest, illumination, stack: substituteCombo((raw as Record<string, unknown>).stack, values, "--param") };
     loaded = loadStudyFromDocument(doc, { baseDir: o.base.baseDir, path: o.base.path });
   } catch (err) {
     if (err instanceof InputError) {
@@ -105,7 +107,7 @@ export function studyObjective(o: StudyObjectiveOptions): { objective: Objective
     const combo = study.combos[0];
     const r = await runSweep({
       study,
-      pool: o.pool.forVariant(combo.hash, [combo.study]),
+      pool: o.pool.forVariant(study.hash, study.combos.map((c) => c.study)),
       raysPerMessage: messageRays(combo.study, o.pool.nWorkers),
       ...(o.outDir !== undefined ? { outDir: join(o.outDir, "evaluations", tag) } : {}),
       fresh: o.fresh === true,
@@ -115,7 +117,7 @@ export function studyObjective(o: StudyObjectiveOptions): { objective: Objective
     stats.evaluations++;
     stats.raysTraced += r.raysTraced;
     stats.raysResumed += r.raysResumed;
-    return objectiveValue(o.objective, r.matrices[0], tag);
+    return objectiveValue(o.objective, r.matrices, tag);
   };
   return { objective, stats };
 }

@@ -66,6 +66,46 @@ describe("lightfold optimize", () => {
     expect(existsSync(join(o, "report"))).toBe(false);
   });
 
+  it("--objective yield --spectra clear-sky-model: hourly spectra built once for every evaluation", async () => {
+    const site = join(ROOT, "configs", "sites", "nordvik-fjell.site.json");
+    const r = await run("optimize", studyPath, "--param", PARAM, "--objective", "yield", "--site", site, "--tilt", "45", "--spectra", "clear-sky-model", "--replicas", "3", "--out", join(dir, "spectra"), "--quiet", "--no-report", "--json");
+    expect(r.code).toBe(0);
+    const doc = JSON.parse(r.out) as OptimumDocument;
+    expect(doc.objective.description).toContain("clear-sky-model spectra");
+    expect(doc.objective.details.spectra).toBe("clear-sky-model");
+  });
+
+  it("--bifacial: front + rear yearly charge; light from the rear is traced too", async () => {
+    const bifacial = join(dir, "bifacial.study.json");
+    writeFileSync(
+      bifacial,
+      JSON.stringify({
+        name: "planar-bifacial",
+        stack: {
+          front: { texture: { type: "planar" }, films: [{ material: "SiNx", thicknessNm: 75 }] },
+          absorber: { material: "Si", thicknessUm: 180 },
+          rear: { texture: { type: "planar" }, films: [{ material: "SiNx", thicknessNm: 80 }], exit: "air" },
+        },
+        grid: { thetaDeg: [0, 20, 40, 60, 80], phiDeg: [0], wavelengthNm: [450, 600, 750, 900] },
+        rays: { perPoint: 300, batch: 100 },
+        seed: 4,
+      }),
+    );
+    const site = join(ROOT, "configs", "sites", "nordvik-fjell.site.json");
+    const o = join(dir, "bifacial");
+    const r = await run("optimize", bifacial, "--param", "rear.films[0].thicknessNm=40:140", "--objective", "yield", "--site", site, "--tilt", "30", "--bifacial", "2:1.5:6", "--replicas", "3", "--tolerance", "10", "--out", o, "--quiet", "--no-report", "--json");
+    expect(r.code).toBe(0);
+    const doc = JSON.parse(r.out) as OptimumDocument;
+    expect(doc.objective.name).toBe("yearly charge, front + rear");
+    expect(doc.objective.details).toMatchObject({ faces: "front+rear", mounting: { slantLengthM: 2, centreHeightM: 1.5, pitchM: 6 } });
+    // each evaluation traced the front and the rear-lit twin
+    const ev = readdirSync(join(o, "evaluations"))[0]!;
+    expect(readdirSync(join(o, "evaluations", ev)).sort()).toEqual(expect.arrayContaining(["base", "base-rear"]));
+    const bad = await run("optimize", studyPath, "--param", PARAM, "--objective", "yield", "--site", site, "--bifacial", "2:1.5:6", "--out", join(dir, "never2"), "--quiet");
+    expect(bad.code).toBe(2);
+    expect(bad.err).toMatch(/transparent rear/);
+  });
+
   it("--objective angles: a weighted mean over the listed angles", async () => {
     const r = await run("optimize", studyPath, "--param", PARAM, "--objective", "angles", "--angles", "0:2,60:1", "--replicas", "3", "--out", join(dir, "angles"), "--quiet", "--no-report", "--json");
     expect(r.code).toBe(0);

@@ -14,6 +14,10 @@ import { yearContext } from "../../yield/yearContext.js";
 import { siteInfo, weatherInfo } from "../../yield/yieldJson.js";
 import { addYearPlaneOptions, yearPlaneOf, type YearPlaneFlags } from "../yearPlaneOptions.js";
 import { readWeatherInput, siteAndWeather } from "../weatherInput.js";
+import { SPECTRA_HELP, hourlySpectraOption } from "../spectraInput.js";
+import type { Mounting } from "../../yield/bifacialYield.js";
+import type { HourlySpectra } from "../../yield/hourlySpectra.js";
+import type { PreparedMatrix } from "../../yield/yieldRun.js";
 
 interface OptimizeFlags extends YearPlaneFlags {
   param: string[];
@@ -23,6 +27,8 @@ interface OptimizeFlags extends YearPlaneFlags {
   spectrum?: string;
   site?: string;
   weather: string;
+  spectra: string;
+  bifacial?: string;
   replicas: string;
   level: string;
   tolerance?: string;
@@ -58,11 +64,28 @@ function objectiveOf(flags: OptimizeFlags, studyPath: string): { spec: Objective
     const { year, seed, planes, sky } = yearPlaneOf(flags);
     if (planes.length !== 1) throw new InputError("--tilt/--azimuth: the yield objective takes one plane", "e.g. --tilt 45 --azimuth 180");
     const input = readWeatherInput(flags.weather, year);
-    const { site, weather } = siteAndWeather(input, flags.site ? readSiteFile(flags.site) : undefined, flags.site, year, seed);
+    const { site, weather, station } = siteAndWeather(input, flags.site ? readSiteFile(flags.site) : undefined, flags.site, year, seed);
     const ctx = yearContext(site, weather);
     for (const w of ctx.warnings) process.stderr.write(`warning: ${ctx.weatherSource}: ${w}\n`);
-    const spec: ObjectiveSpec = { kind: "yield", ctx, plane: planes[0], sky, channel: flags.channel };
-    return { spec, details: { site: siteInfo(site), weather: weatherInfo(ctx), plane: planes[0], skyModel: sky, channel: flags.channel, faces: "front" } };
+    const mounting = flags.bifacial === undefined ? undefined : mountingOf(flags.bifacial);
+    if (mounting !== undefined && flags.spectra !== "g173") throw new InputError("--bifacial uses the fixed G173 shapes; leave out --spectra", "e.g. --bifacial 2:1.5:6 (module slant length : centre height : row pitch, metres)");
+    // Hourly spectra depend only on the wavelength grid, the same for every evaluation: built once.
+    let built: { grid: number[]; spectra: HourlySpectra | undefined } | undefined;
+    const spectra = flags.spectra === "g173" ? undefined : {
+      name: flags.spectra === "clear-sky-model" ? "clear-sky-model" : `measured (${flags.spectra})`,
+      of: (pm: PreparedMatrix, gridNm: number[]): HourlySpectra => {
+        if (built === undefined || built.grid.join() !== gridNm.join()) built = { grid: gridNm, spectra: hourlySpectraOption(flags.spectra, ctx, site, station?.met, pm, gridNm)?.spectra };
+        return built.spectra as HourlySpectra;
+      },
+    };
+    const spec: ObjectiveSpec = { kind: "yield", ctx, plane: planes[0], sky, channel: flags.channel, ...(spectra ? { spectra } : {}), ...(mounting ? { mounting } : {}) };
+    return {
+      spec,
+      details: {
+        site: siteInfo(site), weather: weatherInfo(ctx), plane: planes[0], skyModel: sky, channel: flags.channel,
+        faces: mounting === undefined ? "front" : "front+rear", spectra: flags.spectra, ...(mounting ? { mounting } : {}),
+      },
+    };
   }
   const spectrum = flags.spectrum === undefined
     ? spectrumFromSpec(loaded.combos[0].study.spectrum, loaded.baseDir)
@@ -75,6 +98,15 @@ function objectiveOf(flags: OptimizeFlags, studyPath: string): { spec: Objective
   if (flags.angles === undefined) throw new InputError("--objective angles needs --angles", "e.g. --angles 0:2,30:1,60:1 (angle in degrees : weight)");
   const aw = parseAngleWeights(flags.angles, "--angles");
   return { spec: { kind: "angles", ...aw, spectrum }, details: { ...aw, spectrum: spectrum.name } };
+}
+
+/** "--bifacial slant:height[:pitch]" in metres (no pitch: an isolated row). */
+function mountingOf(text: string): Mounting {
+  const parts = text.split(":").map((v) => Number(v));
+  if (!(parts.length === 2 || parts.length === 3) || parts.some((v) => !(v > 0) || !Number.isFinite(v))) {
+    throw new InputError(`--bifacial: expected slant:height or slant:height:pitch in metres, got "${text}"`, "e.g. --bifacial 2:1.5:6 (2 m modules, centre 1.5 m high, rows 6 m apart) or --bifacial 2:1.5 (an isolated row)");
+  }
+  return { slantLengthM: parts[0], centreHeightM: parts[1], pitchM: parts.length === 3 ? parts[2] : null };
 }
 
 function toleranceOf(text: string | undefined, params: ParameterSpec[]): number[] | undefined {
@@ -97,7 +129,9 @@ export function register(program: Command): void {
     .option("--angles <deg:weight,...>", "angles: incidence angles and their weights, e.g. 0:2,30:1,60:1")
     .option("--spectrum <name|file.csv>", "jsc/angles: AM1.5G, AM1.5D, G173-ETR or a spectrum CSV (default: the study's)")
     .option("--site <site.json>", "yield: site file (optional with an EPW or TMY3 weather file)")
-    .option("--weather <file|synthetic>", "yield: hourly weather file, or a synthetic year", "synthetic");
+    .option("--weather <file|synthetic>", "yield: hourly weather file, or a synthetic year", "synthetic")
+    .option("--spectra <g173|clear-sky-model|file.csv>", `yield: ${SPECTRA_HELP}`, "g173")
+    .option("--bifacial <slant:height[:pitch]>", "yield: front + rear charge of a bifacial module (metres; no pitch: an isolated row); traces light from the rear too");
   addYearPlaneOptions(cmd, { tilt: "30" })
     .option("--replicas <n>", "independent replicas of the local fit (≥ 3)", "5")
     .option("--level <p>", "confidence level of the intervals", "0.95")
@@ -117,6 +151,8 @@ Examples:
   lightfold optimize configs/demo-random-pyramids.study.json --param "front.films[0].thicknessNm=55:105"
   lightfold optimize configs/demo-random-pyramids.study.json --param "front.films[0].thicknessNm=55:105" \\
       --objective yield --site configs/sites/nordvik-fjell.site.json --tilt 45
+  lightfold optimize configs/bifacial-cell.study.json --param "stack.rear.films[0].thicknessNm=40:140" --objective yield \\
+      --weather weather-samples/brevenmark-2027.epw --tilt 30 --bifacial 2:1.5:6
   lightfold optimize my.study.json --param "absorber.thicknessUm=100:250" --param "front.films[0].thicknessNm=60:100"
   lightfold optimize my.study.json --param "front.films[0].thicknessNm=55:105" --objective angles --angles 0:2,30:1,60:1
 
