@@ -93,7 +93,7 @@ describe("lightfold optimize", () => {
     );
     const site = join(ROOT, "configs", "sites", "nordvik-fjell.site.json");
     const o = join(dir, "bifacial");
-    const r = await run("optimize", bifacial, "--param", "rear.films[0].thicknessNm=40:140", "--objective", "yield", "--site", site, "--tilt", "30", "--bifacial", "2:1.5:6", "--replicas", "3", "--tolerance", "10", "--out", o, "--quiet", "--no-report", "--json");
+    const r = await run("optimize", bifacial, "--param", "rear.films[0].thicknessNm=40:140", "--objective", "yield", "--site", site, "--tilt", "30", "--bifacial", "--height", "1.5", "--module-width", "2", "--pitch", "6", "--replicas", "3", "--tolerance", "10", "--out", o, "--quiet", "--no-report", "--json");
     expect(r.code).toBe(0);
     const doc = JSON.parse(r.out) as OptimumDocument;
     expect(doc.objective.name).toBe("yearly charge, front + rear");
@@ -101,7 +101,7 @@ describe("lightfold optimize", () => {
     // each evaluation traced the front and the rear-lit twin
     const ev = readdirSync(join(o, "evaluations"))[0]!;
     expect(readdirSync(join(o, "evaluations", ev)).sort()).toEqual(expect.arrayContaining(["base", "base-rear"]));
-    const bad = await run("optimize", studyPath, "--param", PARAM, "--objective", "yield", "--site", site, "--bifacial", "2:1.5:6", "--out", join(dir, "never2"), "--quiet");
+    const bad = await run("optimize", studyPath, "--param", PARAM, "--objective", "yield", "--site", site, "--bifacial", "--out", join(dir, "never2"), "--quiet");
     expect(bad.code).toBe(2);
     expect(bad.err).toMatch(/transparent rear/);
   });

@@ -16,6 +16,7 @@ import { addYearPlaneOptions, yearPlaneOf, type YearPlaneFlags } from "../yearPl
 import { readWeatherInput, siteAndWeather } from "../weatherInput.js";
 import { SPECTRA_HELP, hourlySpectraOption } from "../spectraInput.js";
 import type { Mounting } from "../../yield/bifacialYield.js";
+import { mountOf } from "../mountOptions.js";
 import type { HourlySpectra } from "../../yield/hourlySpectra.js";
 import type { PreparedMatrix } from "../../yield/yieldRun.js";
 
@@ -28,7 +29,11 @@ interface OptimizeFlags extends YearPlaneFlags {
   site?: string;
   weather: string;
   spectra: string;
-  bifacial?: string;
+  bifacial?: boolean;
+  height: string;
+  moduleWidth: string;
+  pitch?: string;
+  gcr?: string;
   replicas: string;
   level: string;
   tolerance?: string;
@@ -67,8 +72,8 @@ function objectiveOf(flags: OptimizeFlags, studyPath: string): { spec: Objective
     const { site, weather, station } = siteAndWeather(input, flags.site ? readSiteFile(flags.site) : undefined, flags.site, year, seed);
     const ctx = yearContext(site, weather);
     for (const w of ctx.warnings) process.stderr.write(`warning: ${ctx.weatherSource}: ${w}\n`);
-    const mounting = flags.bifacial === undefined ? undefined : mountingOf(flags.bifacial);
-    if (mounting !== undefined && flags.spectra !== "g173") throw new InputError("--bifacial uses the fixed G173 shapes; leave out --spectra", "e.g. --bifacial 2:1.5:6 (module slant length : centre height : row pitch, metres)");
+    const mounting = flags.bifacial === true ? mountingOf(flags) : undefined;
+    if (mounting !== undefined && flags.spectra !== "g173") throw new InputError("--spectra: hourly spectra are not applied to the rear light yet; use the default g173 with --bifacial");
     // Hourly spectra depend only on the wavelength grid, the same for every evaluation: built once.
     let built: { grid: number[]; spectra: HourlySpectra | undefined } | undefined;
     const spectra = flags.spectra === "g173" ? undefined : {
@@ -100,13 +105,11 @@ function objectiveOf(flags: OptimizeFlags, studyPath: string): { spec: Objective
   return { spec: { kind: "angles", ...aw, spectrum }, details: { ...aw, spectrum: spectrum.name } };
 }
 
-/** "--bifacial slant:height[:pitch]" in metres (no pitch: an isolated row). */
-function mountingOf(text: string): Mounting {
-  const parts = text.split(":").map((v) => Number(v));
-  if (!(parts.length === 2 || parts.length === 3) || parts.some((v) => !(v > 0) || !Number.isFinite(v))) {
-    throw new InputError(`--bifacial: expected slant:height or slant:height:pitch in metres, got "${text}"`, "e.g. --bifacial 2:1.5:6 (2 m modules, centre 1.5 m high, rows 6 m apart) or --bifacial 2:1.5 (an isolated row)");
-  }
-  return { slantLengthM: parts[0], centreHeightM: parts[1], pitchM: parts.length === 3 ? parts[2] : null };
+/** The mounting of --bifacial, read like `yield --rear-matrix` reads it (one pitch, or an isolated row). */
+function mountingOf(flags: OptimizeFlags): Mounting {
+  const m = mountOf({ height: flags.height, moduleWidth: flags.moduleWidth, pitch: flags.pitch, gcr: flags.gcr });
+  if (m.pitchesM.length !== 1) throw new InputError("--pitch/--gcr: the bifacial objective takes one row pitch", "e.g. --pitch 6 (or leave it out for an isolated row)");
+  return { slantLengthM: m.slantLengthM, centreHeightM: m.centreHeightM, pitchM: m.pitchesM[0] };
 }
 
 function toleranceOf(text: string | undefined, params: ParameterSpec[]): number[] | undefined {
@@ -131,7 +134,11 @@ export function register(program: Command): void {
     .option("--site <site.json>", "yield: site file (optional with an EPW or TMY3 weather file)")
     .option("--weather <file|synthetic>", "yield: hourly weather file, or a synthetic year", "synthetic")
     .option("--spectra <g173|clear-sky-model|file.csv>", `yield: ${SPECTRA_HELP}`, "g173")
-    .option("--bifacial <slant:height[:pitch]>", "yield: front + rear charge of a bifacial module (metres; no pitch: an isolated row); traces light from the rear too");
+    .option("--bifacial", "yield: front + rear charge of a bifacial module (traces the study's light from the rear too)")
+    .option("--height <m>", "with --bifacial: height of the module centre above the ground, m", "1.0")
+    .option("--module-width <m>", "with --bifacial: module width across the row (slant length), m", "2.0")
+    .option("--pitch <m>", "with --bifacial: row pitch, m (omit --pitch and --gcr for an isolated row)")
+    .option("--gcr <ratio>", "with --bifacial: ground-coverage ratio = module width / pitch, in (0, 1]");
   addYearPlaneOptions(cmd, { tilt: "30" })
     .option("--replicas <n>", "independent replicas of the local fit (≥ 3)", "5")
     .option("--level <p>", "confidence level of the intervals", "0.95")
@@ -151,8 +158,8 @@ Examples:
   lightfold optimize configs/demo-random-pyramids.study.json --param "front.films[0].thicknessNm=55:105"
   lightfold optimize configs/demo-random-pyramids.study.json --param "front.films[0].thicknessNm=55:105" \\
       --objective yield --site configs/sites/nordvik-fjell.site.json --tilt 45
-  lightfold optimize configs/bifacial-cell.study.json --param "stack.rear.films[0].thicknessNm=40:140" --objective yield \\
-      --weather weather-samples/brevenmark-2027.epw --tilt 30 --bifacial 2:1.5:6
+  lightfold optimize configs/glass-glass-bifacial.study.json --param "rear.films[0].thicknessNm=40:140" --objective yield \\
+      --site configs/sites/saltmere-plain.site.json --tilt 30 --bifacial --height 1.2 --module-width 2.2 --pitch 7
   lightfold optimize my.study.json --param "absorber.thicknessUm=100:250" --param "front.films[0].thicknessNm=60:100"
   lightfold optimize my.study.json --param "front.films[0].thicknessNm=55:105" --objective angles --angles 0:2,30:1,60:1
 
