@@ -7,11 +7,13 @@ export function pressureRatio(elevationM: number): number {
 }
 
 /**
- * Clear-sky global horizontal irradiance, Ineichen & Perez, Solar Energy 73, 151 (2002):
- * GHI = cg1 · E0n · cos z · exp(−cg2 · AM · (fh1 + fh2 (TL − 1))),
- * cg1 = 5.09e-5 h + 0.868, cg2 = 3.92e-5 h + 0.0387, fh1 = exp(−h/8000), fh2 = exp(−h/1250),
- * AM = Kasten–Young air mass × p/p0 (form as in common open implementations; from memory).
- * Without the optional exp(0.01 AM^1.8) enhancement term.
+ * Clear-sky global horizontal irradiance, Ineichen & Perez, Solar Energy 73(3), 151–157 (2002), the
+ * global model on p. 156: GHI = cg1 · E0n · cos z · exp(−cg2 · AM · (fh1 + fh2 (TL − 1))),
+ * cg1 = 5.09e-5 h + 0.868, cg2 = 3.92e-5 h + 0.0387, fh1 = exp(−h/8000), fh2 = exp(−h/1250), h in m.
+ * The exp(0.01 AM^1.8) factor belongs to the satellite model of Perez et al., Solar Energy 73, 307
+ * (2002), p. 311, and is left out. AM: Kasten–Young relative air mass × p/p0 (the pressure-corrected
+ * air mass; open implementations differ here, see DEVELOPERS.md — the difference is under 1 % below
+ * about 100 m). Coefficients agree with two independent open implementations (tests/weather).
  */
 export function ineichenPerezGhiWm2(zenithDeg: number, e0nWm2: number, linkeTurbidity: number, elevationM: number): number {
   if (zenithDeg >= 90) return 0;

@@ -28,21 +28,29 @@ export interface SyntheticWeather extends WeatherYear {
   dailySigma: number[];
 }
 
-/** TAG mean hourly clearness for a day of clearness Kt at solar altitude α (sin α given). */
-function tagMeanKt(dailyKt: number, sinAltitude: number): number {
-  // Aguiar & Collares-Pereira, Solar Energy 49, 167 (1992): ktm = λ + ε exp(−κ / sin α) (coefficients from memory)
+// TAG, Aguiar & Collares-Pereira, Solar Energy 49(3), 167–174 (1992): kt = ktm(Kt, h) + σ(Kt, h)·y,
+// y a unit-variance first-order autoregression with lag-1 coefficient φ(Kt). The coefficients below
+// agree with two independent open implementations of the paper (see tests/weather/synthetic.test.ts);
+// the paper's body was not available to us to quote page and table.
+
+/** TAG mean hourly clearness for a day of clearness Kt at solar altitude h (sin h given): λ + ε exp(−κ / sin h). */
+export function tagMeanKt(dailyKt: number, sinAltitude: number): number {
   const lambda = -0.19 + 1.12 * dailyKt + 0.24 * Math.exp(-8 * dailyKt);
   const eps = 0.32 - 1.6 * (dailyKt - 0.5) ** 2;
   const kappa = 0.19 + 2.27 * dailyKt ** 2 - 2.51 * dailyKt ** 3;
   return lambda + eps * Math.exp(-kappa / Math.max(sinAltitude, 1e-3));
 }
 
-/** TAG hourly AR(1) lag-1 coefficient and standard deviation of the residual (from memory). */
-function tagAr1(dailyKt: number): number {
+/** TAG lag-1 autocorrelation of the normalised hourly clearness: φ = 0.38 + 0.06 cos(7.4 Kt − 2.5). */
+export function tagAr1(dailyKt: number): number {
   return 0.38 + 0.06 * Math.cos(7.4 * dailyKt - 2.5);
 }
-function tagSigma(dailyKt: number): number {
-  return 0.32 * Math.exp(-50 * (dailyKt - 0.4) ** 2) + 0.002;
+
+/** TAG standard deviation of the hourly clearness: σ = A exp(B (1 − sin h)), A = 0.14 exp(−20 (Kt − 0.35)²), B = 3 (Kt − 0.45)² + 16 Kt⁵. */
+export function tagSigma(dailyKt: number, sinAltitude: number): number {
+  const a = 0.14 * Math.exp(-20 * (dailyKt - 0.35) ** 2);
+  const b = 3 * (dailyKt - 0.45) ** 2 + 16 * dailyKt ** 5;
+  return a * Math.exp(b * (1 - Math.min(1, Math.max(sinAltitude, 0))));
 }
 
 function normal(r: RandomStream): number {
@@ -183,11 +191,11 @@ export function syntheticWeather(site: Site, year: number, seed: number): Synthe
     const h0d = h0[d]!;
     if (h0d <= 0) continue;
     // hourly: TAG mean profile plus AR(1) fluctuation, bounded by the clear sky
-    const phi = tagAr1(ktDay), sd = tagSigma(ktDay), hInnov = Math.sqrt(1 - phi * phi);
+    const phi = tagAr1(ktDay), hInnov = Math.sqrt(1 - phi * phi);
     for (let h = d * 24; h < d * 24 + 24; h++) {
       if (i0h[h]! <= 0) continue;
-      yHour = phi * yHour + sd * hInnov * normal(rng);
-      kt[h] = Math.min(cap[h]!, Math.max(0.02, tagMeanKt(ktDay, cosz[h]!) + yHour));
+      yHour = phi * yHour + hInnov * normal(rng);
+      kt[h] = Math.min(cap[h]!, Math.max(0.02, tagMeanKt(ktDay, cosz[h]!) + tagSigma(ktDay, cosz[h]!) * yHour));
     }
     fillToTotal(kt, cap, i0h, d * 24, d * 24 + 24, ktDay * h0d);
     let s = 0;

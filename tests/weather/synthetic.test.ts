@@ -6,7 +6,9 @@ import { sunTrack } from "../../src/sky/sunPosition.js";
 import { DEG } from "../../src/util/math.js";
 import { ineichenPerezGhiWm2 } from "../../src/weather/clearSky.js";
 import { erbsDiffuseFraction } from "../../src/weather/diffuseFraction.js";
-import { DAILY_AR1, KT_HOURLY_MAX, syntheticWeather } from "../../src/weather/synthetic.js";
+import { DAILY_AR1, KT_HOURLY_MAX, syntheticWeather, tagAr1, tagMeanKt, tagSigma } from "../../src/weather/synthetic.js";
+import { kastenYoungAirMass } from "../../src/sky/irradianceBasics.js";
+import { pressureRatio } from "../../src/weather/clearSky.js";
 import { InputError } from "../../src/util/errors.js";
 
 const SITES = ["nordvik-fjell", "brevenmark", "tessarit-reg"].map((n) =>
@@ -142,3 +144,40 @@ describe("ineichenPerezGhiWm2 (Ineichen & Perez 2002)", () => {
     expect(ineichenPerezGhiWm2(30, 1367, 2, 0)).toBeGreaterThan(ineichenPerezGhiWm2(30, 1367, 4, 0));
   });
 });
+
+describe("TAG hourly clearness (Aguiar & Collares-Pereira, Solar Energy 49, 167, 1992)", () => {
+  // Values worked by hand from the TAG expressions as written in two independent open implementations
+  // of the paper that agree term for term (J. Susanto's synthetic-solar, synth_solar.py, 2014; and a
+  // MATLAB synthesiser's "aguiar" option): ktm = λ + ε exp(−κ/sin h), φ = 0.38 + 0.06 cos(7.4 Kt − 2.5),
+  // σ = A exp(B (1 − sin h)).
+  it("mean profile at Kt = 0.5: λ = 0.374396, ε = 0.32, κ = 0.44375 → ktm(sin h = 1) = 0.57972", () => {
+    expect(tagMeanKt(0.5, 1)).toBeCloseTo(0.374396 + 0.32 * Math.exp(-0.44375), 5);
+    expect(tagMeanKt(0.5, 1)).toBeCloseTo(0.57972, 4);
+    // lower sun, lower mean clearness (longer path)
+    expect(tagMeanKt(0.5, 0.2)).toBeLessThan(tagMeanKt(0.5, 0.6));
+  });
+  it("lag-1 coefficient φ(0.5) = 0.38 + 0.06 cos(1.2) = 0.401742", () => {
+    expect(tagAr1(0.5)).toBeCloseTo(0.401742, 5);
+  });
+  it("standard deviation: σ(0.35, sin h = 1) = A = 0.14; σ grows as the sun sinks (B > 0)", () => {
+    expect(tagSigma(0.35, 1)).toBeCloseTo(0.14, 12);
+    const b = 3 * (0.5 - 0.45) ** 2 + 16 * 0.5 ** 5; // 0.5075
+    expect(tagSigma(0.5, 0.5)).toBeCloseTo(0.14 * Math.exp(-20 * 0.15 ** 2) * Math.exp(b * 0.5), 12);
+    expect(tagSigma(0.5, 0.2)).toBeGreaterThan(tagSigma(0.5, 0.8));
+  });
+});
+
+describe("ineichenPerezGhiWm2 air mass", () => {
+  it("uses the pressure-corrected air mass: at 1000 m it equals the relative-air-mass reading within 3 % (AM 1.5, TL 3)", () => {
+    // Open implementations differ on relative vs pressure-corrected air mass in the p. 156 model; the
+    // size of that difference bounds what the choice can change in a synthetic year.
+    const z = Math.acos(1 / 1.5) / DEG;
+    const h = 1000;
+    const relative = (0.868 + 5.09e-5 * h) * 1367 * Math.cos(z * DEG) * Math.exp(-(0.0387 + 3.92e-5 * h) * kastenYoungAirMass(z) * (Math.exp(-h / 8000) + Math.exp(-h / 1250) * 2));
+    const ours = ineichenPerezGhiWm2(z, 1367, 3, h);
+    expect(pressureRatio(h)).toBeCloseTo(0.887, 3); // ISA at 1000 m: 898.7 hPa / 1013.25 hPa
+    expect(ours / relative - 1).toBeGreaterThan(0);
+    expect(ours / relative - 1).toBeLessThan(0.03);
+  });
+});
+
