@@ -56,7 +56,7 @@ describe("lightfold optimize", () => {
   it("--objective yield: the yearly charge at a sample site and tilt", async () => {
     const o = join(dir, "yield");
     const site = join(ROOT, "configs", "sites", "nordvik-fjell.site.json");
-    const r = await run("optimize", studyPath, "--param", PARAM, "--objective", "yield", "--site", site, "--tilt", "45", "--replicas", "3", "--out", o, "--quiet", "--no-report", "--json");
+    const r = await run("optimize", studyPath, "--param", PARAM, "--objective", "yield", "--site", site, "--tilt", "45", "--replicas", "3", "--tolerance", "6", "--out", o, "--quiet", "--no-report", "--json");
     expect(r.code).toBe(0);
     const doc = JSON.parse(r.out) as OptimumDocument;
     expect(doc.objective.kind).toBe("yield");
@@ -68,7 +68,7 @@ describe("lightfold optimize", () => {
 
   it("--objective yield --spectra clear-sky-model: hourly spectra built once for every evaluation", async () => {
     const site = join(ROOT, "configs", "sites", "nordvik-fjell.site.json");
-    const r = await run("optimize", studyPath, "--param", PARAM, "--objective", "yield", "--site", site, "--tilt", "45", "--spectra", "clear-sky-model", "--replicas", "3", "--out", join(dir, "spectra"), "--quiet", "--no-report", "--json");
+    const r = await run("optimize", studyPath, "--param", PARAM, "--objective", "yield", "--site", site, "--tilt", "45", "--spectra", "clear-sky-model", "--replicas", "3", "--tolerance", "6", "--out", join(dir, "spectra"), "--quiet", "--no-report", "--json");
     expect(r.code).toBe(0);
     const doc = JSON.parse(r.out) as OptimumDocument;
     expect(doc.objective.description).toContain("clear-sky-model spectra");
@@ -93,7 +93,7 @@ describe("lightfold optimize", () => {
     );
     const site = join(ROOT, "configs", "sites", "nordvik-fjell.site.json");
     const o = join(dir, "bifacial");
-    const r = await run("optimize", bifacial, "--param", "rear.films[0].thicknessNm=40:140", "--objective", "yield", "--site", site, "--tilt", "30", "--bifacial", "--height", "1.5", "--module-width", "2", "--pitch", "6", "--replicas", "3", "--tolerance", "10", "--out", o, "--quiet", "--no-report", "--json");
+    const r = await run("optimize", bifacial, "--param", "rear.films[0].thicknessNm=40:140", "--objective", "yield", "--site", site, "--tilt", "30", "--bifacial", "--height", "1.5", "--module-width", "2", "--pitch", "6", "--replicas", "3", "--tolerance", "25", "--out", o, "--quiet", "--no-report", "--json");
     expect(r.code).toBe(0);
     const doc = JSON.parse(r.out) as OptimumDocument;
     expect(doc.objective.name).toBe("yearly charge, front + rear");
@@ -107,11 +107,31 @@ describe("lightfold optimize", () => {
   });
 
   it("--objective angles: a weighted mean over the listed angles", async () => {
-    const r = await run("optimize", studyPath, "--param", PARAM, "--objective", "angles", "--angles", "0:2,60:1", "--replicas", "3", "--out", join(dir, "angles"), "--quiet", "--no-report", "--json");
+    const r = await run("optimize", studyPath, "--param", PARAM, "--objective", "angles", "--angles", "0:2,60:1", "--replicas", "3", "--tolerance", "6", "--out", join(dir, "angles"), "--quiet", "--no-report", "--json");
     expect(r.code).toBe(0);
     const doc = JSON.parse(r.out) as OptimumDocument;
     expect(doc.objective.details).toMatchObject({ thetaDeg: [0, 60], weights: [2, 1] });
     expect(doc.study.grid.nTheta).toBe(2);
+  });
+
+  it("two parameters: film thickness inside its bounds, wafer thickness at its upper bound (flagged)", async () => {
+    // near the band edge, where the wafer thickness matters
+    const edge = join(dir, "edge.study.json");
+    const doc0 = JSON.parse(readFileSync(studyPath, "utf8")) as { grid: { wavelengthNm: number[] } };
+    doc0.grid.wavelengthNm = [500, 800, 1000, 1100];
+    writeFileSync(edge, JSON.stringify(doc0));
+    const r = await run("optimize", edge, "--param", PARAM, "--param", "absorber.thicknessUm=100:300", "--replicas", "3", "--tolerance", "6,20", "--out", join(dir, "two"), "--quiet", "--json");
+    expect(r.code).toBe(0);
+    const doc = JSON.parse(r.out) as OptimumDocument;
+    expect(doc.result.dims).toBe(2);
+    expect(doc.result.design.points.length).toBe(9);
+    // Beer–Lambert: Jsc keeps rising with the wafer thickness, so that optimum sits on the upper bound
+    expect(doc.result.atBound).toEqual([null, "upper"]);
+    expect(doc.result.location[0]).toBeGreaterThan(55);
+    expect(doc.result.location[0]).toBeLessThan(105);
+    const report = readFileSync(join(dir, "two", "report", "index.html"), "utf8");
+    expect(report).toContain("at the upper bound");
+    expect(readdirSync(join(dir, "two", "report")).filter((f) => f.startsWith("optimum-")).length).toBe(2);
   });
 
   it("bad input: one line + hint, exit 2, nothing written", async () => {
