@@ -33,12 +33,16 @@ const HC_EV_NM = ((H_PLANCK_JS * C_LIGHT_MS) / Q_ELEMENTARY_C) * 1e9;
  * increasing (energies strictly monotonic, either way), n > 0, k ≥ 0, at least 2 rows.
  */
 export function parseNkCsv(text: string, label: string): NkColumns {
+  // Counted before parsing, so an oversized table is refused without building its rows.
+  let lines = 0;
+  for (let i = text.indexOf("\n"); i >= 0 && lines <= MAX_NK_ROWS + 1000; i = text.indexOf("\n", i + 1)) lines++;
+  if (lines > MAX_NK_ROWS + 1000) throw new InputError(`${label}: more than ${MAX_NK_ROWS} data rows (thin the table; the tracer interpolates)`);
   const t = parseNumericTable(text, label);
   const scale = WAVELENGTH_HEADERS[t.header[0]!];
   const energy = ENERGY_HEADERS.has(t.header[0]!);
   if (scale === undefined && !energy) {
     throw new InputError(
-      `${label}: first header column is "${t.header[0]}"; expected wavelength_nm, wavelength_um or energy_eV (header e.g. "wavelength_nm,n,k")`,
+      `${label}: first header column is ${JSON.stringify(t.header[0]!.slice(0, 40))}; expected wavelength_nm, wavelength_um or energy_eV (header e.g. "wavelength_nm,n,k")`,
     );
   }
   const rest = t.header.slice(1);
@@ -46,7 +50,7 @@ export function parseNkCsv(text: string, label: string): NkColumns {
   const iK = rest.indexOf("k");
   const unknown = rest.filter((h) => h !== "n" && h !== "k");
   if (unknown.length > 0 || (iN < 0 && iK < 0) || new Set(rest).size !== rest.length) {
-    throw new InputError(`${label}: header columns after the wavelength must be n, k or both (got "${t.header.join(",")}")`);
+    throw new InputError(`${label}: header columns after the wavelength must be n, k or both (got ${JSON.stringify(t.header.join(",").slice(0, 60))})`);
   }
   if (t.columns[0]!.length < 2) throw new InputError(`${label}: needs at least 2 data rows, found ${t.columns[0]!.length}`);
   if (t.columns[0]!.length > MAX_NK_ROWS) throw new InputError(`${label}: ${t.columns[0]!.length} data rows, more than ${MAX_NK_ROWS} (thin the table; the tracer interpolates)`);
