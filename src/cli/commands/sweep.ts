@@ -116,8 +116,9 @@ with the same study; a changed study sets the old journal aside and starts afres
           },
         });
       } catch (err) {
-        // Name the study file in input errors found while running (e.g. a channel name).
-        if (err instanceof InputError && !err.message.startsWith(studyPath)) throw new InputError(`${studyPath}: ${err.message}`, err.hint);
+        // Name the study file in input errors found while running (e.g. a channel name); those about
+        // the run folder (lock, journal) already name it.
+        if (err instanceof InputError && !err.message.startsWith(studyPath) && !err.message.startsWith(outDir)) throw new InputError(`${studyPath}: ${err.message}`, err.hint);
         throw err;
       } finally {
         reporter.stop();
