@@ -13,9 +13,11 @@ export interface MountFlags {
   gcr?: string;
 }
 
-export function addMountOptions(cmd: Command): Command {
-  return cmd
-    .option("--rear-matrix <matrix.json>", "the same stack traced with light from the rear (\"illumination\": \"both\"): adds rear and total charge and the bifacial gain")
+export function addMountOptions(cmd: Command, opts: { rearMatrixRepeatable?: (v: string, prev?: string[]) => string[] } = {}): Command {
+  const rear = opts.rearMatrixRepeatable
+    ? cmd.option("--rear-matrix <matrix.json>", "give twice: the rear-lit matrices of A then B (\"illumination\": \"both\"): compares front + rear charge", opts.rearMatrixRepeatable)
+    : cmd.option("--rear-matrix <matrix.json>", "the same stack traced with light from the rear (\"illumination\": \"both\"): adds rear and total charge and the bifacial gain");
+  return rear
     .option("--height <m>", "height of the module centre above the ground, m (with --rear-matrix)", "1.0")
     .option("--module-width <m>", "module width across the row (slant length), m (with --rear-matrix)", "2.0")
     .option("--pitch <m|list|from:to:step>", "row pitch(es), m (with --rear-matrix; omit both --pitch and --gcr for an isolated row)")
@@ -47,7 +49,7 @@ function positive(text: string, flag: string, what: string): number {
 }
 
 /** The mounting: module size and height, and the pitches to try (null = isolated row). */
-export function mountOf(f: MountFlags): { slantLengthM: number; centreHeightM: number; pitchesM: (number | null)[] } {
+export function mountOf(f: Omit<MountFlags, "rearMatrix">): { slantLengthM: number; centreHeightM: number; pitchesM: (number | null)[] } {
   const centreHeightM = positive(f.height, "--height", "module centre above the ground, m");
   const slantLengthM = positive(f.moduleWidth, "--module-width", "module width across the row, m");
   if (f.pitch !== undefined && f.gcr !== undefined) throw new InputError("give --pitch or --gcr, not both");

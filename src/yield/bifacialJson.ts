@@ -66,3 +66,73 @@ export function formatBifacialTable(siteName: string, skyModel: SkyModel, optica
   lines.push("rows: 2D view factors (infinite rows, uniform albedo, opaque modules, no racking shade); front of an isolated row: the sky model as in `yield`");
   return lines.join("\n") + "\n";
 }
+
+/** One site, plane and mounting of a bifacial comparison. */
+export interface BifacialCompareRow {
+  site: string;
+  a: BifacialResult;
+  b: BifacialResult;
+}
+
+/** Benefit of A over B in front + rear charge, 100 (Q_A/Q_B − 1), independent errors in quadrature. */
+export function totalBenefit(row: BifacialCompareRow): { pct: number; stderrPct: number } {
+  const qa = row.a.totalChargeAhM2, qb = row.b.totalChargeAhM2;
+  const ratio = qa / qb;
+  return { pct: 100 * (ratio - 1), stderrPct: 100 * ratio * Math.hypot(row.a.totalStdErrAhM2 / qa, row.b.totalStdErrAhM2 / qb) };
+}
+
+/**
+ * `compare --rear-matrix …` as kind "lightfold.compare" (basis "front+rear"): the charge fields hold
+ * each stack's front + rear total, so readers of comparisons show the bifacial benefit; the rear
+ * charge and bifacial gain of each stack and the pitch come with every row.
+ */
+export function bifacialCompareJson(args: {
+  toolVersion: string; matrices: Record<string, unknown>[]; skyModel: SkyModel; sites: Record<string, unknown>[]; weather: Record<string, unknown>[];
+  mounting: Omit<Mounting, "pitchM">; rows: BifacialCompareRow[];
+}): Record<string, unknown> {
+  return {
+    kind: "lightfold.compare",
+    formatVersion: 1,
+    toolVersion: args.toolVersion,
+    basis: "front+rear",
+    skyModel: args.skyModel,
+    matrices: args.matrices,
+    sites: args.sites,
+    weather: args.weather,
+    mounting: { slantLengthM: args.mounting.slantLengthM, centreHeightM: args.mounting.centreHeightM },
+    units: { charge: "A·h/m²", benefit: "%", gain: "%" },
+    rows: args.rows.map((row) => {
+      const t = totalBenefit(row);
+      return {
+        site: row.site,
+        tiltDeg: row.a.plane.tiltDeg,
+        azimuthDeg: row.a.plane.azimuthDeg,
+        pitchM: row.a.geometry.pitchM,
+        chargeAAhM2: r(row.a.totalChargeAhM2, 2),
+        chargeAStdErrAhM2: r(row.a.totalStdErrAhM2, 3),
+        chargeBAhM2: r(row.b.totalChargeAhM2, 2),
+        chargeBStdErrAhM2: r(row.b.totalStdErrAhM2, 3),
+        rearAAhM2: r(row.a.rear.chargeAhM2, 2),
+        rearBAhM2: r(row.b.rear.chargeAhM2, 2),
+        bifacialGainAPct: r(100 * row.a.bifacialGain, 4),
+        bifacialGainBPct: r(100 * row.b.bifacialGain, 4),
+        benefitPct: r(t.pct, 4),
+        benefitStdErrPct: r(t.stderrPct, 4),
+      };
+    }),
+  };
+}
+
+export function formatBifacialCompareTable(labelA: string, labelB: string, rows: BifacialCompareRow[]): string {
+  const lines = [`benefit of A = ${labelA} over B = ${labelB} (yearly front + rear absorbed charge)`, ""];
+  lines.push(`${"site".padEnd(16)} ${pad("tilt°", 6)} ${pad("pitch m", 8)} ${pad("A total", 9)} ${pad("B total", 9)} ${pad("A gain %", 9)} ${pad("B gain %", 9)} ${pad("benefit %", 10)} ${pad("± %", 6)}`);
+  for (const row of rows) {
+    const t = totalBenefit(row);
+    const p = row.a.geometry.pitchM;
+    lines.push(
+      `${row.site.slice(0, 16).padEnd(16)} ${pad(row.a.plane.tiltDeg.toFixed(1), 6)} ${pad(p === null ? "isolated" : p.toFixed(2), 8)} ${pad(row.a.totalChargeAhM2.toFixed(0), 9)} ${pad(row.b.totalChargeAhM2.toFixed(0), 9)} ${pad((100 * row.a.bifacialGain).toFixed(2), 9)} ${pad((100 * row.b.bifacialGain).toFixed(2), 9)} ${pad(t.pct.toFixed(3), 10)} ${pad(t.stderrPct.toFixed(3), 6)}`,
+    );
+  }
+  lines.push("", "totals in A·h/m²; gain = rear / front; ± = Monte Carlo standard error from all four matrices (independent, linear propagation)");
+  return lines.join("\n") + "\n";
+}

@@ -36,6 +36,21 @@ describe("lightfold yield --rear-matrix", () => {
     expect(existsSync(join(runDir, "report", "bifacial-pitch.svg"))).toBe(true);
   });
 
+  it("compare --rear-matrix ×2 gives the benefit in front + rear charge with both stacks' gains", async () => {
+    // A = the fixture pair, B = the same front with no rear response: B's total is its front alone
+    const zeroRear = join(dir, "dark-rear.matrix.json");
+    writeResponseMatrix(zeroRear, { ...makeMatrix({ thetaDeg: range(0, 85, 5), absorber: () => 0, stderr: 0, name: "monofacial" }), lightFrom: "rear" });
+    const res = await runMain("compare", "--matrix", f(), "--matrix", f(), "--rear-matrix", r(), "--rear-matrix", zeroRear, "--site", SITE, "--tilt", "25", "--gcr", "0.4", "--json");
+    expect(res.code).toBe(0);
+    const doc = JSON.parse(res.out);
+    expect(doc.basis).toBe("front+rear");
+    const row = doc.rows[0];
+    expect(row.bifacialGainBPct).toBe(0);
+    // same front matrix: the total benefit equals A's bifacial gain (Q_A/Q_B − 1 = rear_A/front)
+    expect(row.benefitPct).toBeCloseTo(row.bifacialGainAPct, 3);
+    expect(row.pitchM).toBeCloseTo(5, 12);
+  });
+
   it("refuses negative pitch or height, a ground-coverage ratio outside (0, 1] and a front-lit rear matrix (exit 2, nothing written)", async () => {
     const out = join(dir, "bad.json");
     const bad = async (args: string[], re: RegExp) => {

@@ -9,11 +9,19 @@ import { yearContext } from "../../yield/yearContext.js";
 import { compareJson, formatCompareTable, matrixInfo, siteInfo, weatherInfo, type CompareRow } from "../../yield/yieldJson.js";
 import { prepareMatrix, yieldSweep } from "../../yield/yieldRun.js";
 import { loadWeather } from "./weather.js";
+import { addMountOptions, mountOf, type MountFlags } from "../mountOptions.js";
+import type { ResponseMatrix } from "../../response/responseMatrix.js";
+import type { Plane, Site } from "../../site/site.js";
+import { checkRowGeometry } from "../../sky/rowGeometry.js";
+import type { SkyModel } from "../../sky/transposition.js";
+import { bifacialSweep } from "../../yield/bifacialYield.js";
+import { bifacialCompareJson, formatBifacialCompareTable, type BifacialCompareRow } from "../../yield/bifacialJson.js";
+import type { PreparedMatrix } from "../../yield/yieldRun.js";
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
 
-interface CompareOpts extends YearPlaneFlags, ResultFlags {
-  matrix: string[]; site: string[]; weather?: string[];
+interface CompareOpts extends YearPlaneFlags, ResultFlags, Omit<MountFlags, "rearMatrix"> {
+  matrix: string[]; site: string[]; weather?: string[]; rearMatrix?: string[];
 }
 
 /** `lightfold compare --matrix a.json --matrix b.json --site s1 [--site s2] --tilt 20,35` */
@@ -25,6 +33,7 @@ export function register(program: Command): void {
     .requiredOption("--site <site.json>", "site file; repeat for several sites", collect)
     .option("--weather <file.csv|synthetic>", "weather per site, in the order of --site (default: synthetic for all)", collect);
   addYearPlaneOptions(cmd, { tilt: "20,35" });
+  addMountOptions(cmd, { rearMatrixRepeatable: collect });
   addResultOptions(cmd, "compare.json", "comparison")
     .addHelpText(
       "after",
@@ -33,9 +42,14 @@ Examples:
   lightfold compare --matrix runs/pyr/base/matrix.json --matrix runs/planar/base/matrix.json \\
       --site configs/sites/nordvik-fjell.site.json --site configs/sites/tessarit-reg.site.json --tilt 20,35
   lightfold compare --matrix a.json --matrix b.json --site s.json --weather measured.csv --tilt 0:60:10 --run-dir runs/cmp
+  lightfold compare --matrix a.json --matrix b.json --rear-matrix a-rear.json --rear-matrix b-rear.json \
+      --site configs/sites/saltmere-plain.site.json --tilt 20,30 --pitch 5,8 --height 1.2
 
 benefit % = 100 (Q_A/Q_B − 1); its ± is the Monte Carlo standard error propagated linearly from both
-matrices' stderr (independent runs). Both use the same weather, sky model and planes.`,
+matrices' stderr (independent runs). Both use the same weather, sky model and planes.
+With --rear-matrix twice (the rear-lit matrices of A and B): Q is the front + rear yearly charge of
+each bifacial stack (as yield --rear-matrix, per tilt and --pitch/--gcr), and each row also gives
+both stacks' rear charge and bifacial gain.`,
     )
     .action((opts: CompareOpts) => {
       if (opts.matrix.length !== 2) throw new InputError(
@@ -53,6 +67,7 @@ matrices' stderr (independent runs). Both use the same weather, sky model and pl
       const sites = opts.site.map((s) => readSiteFile(s));
       const matrices = opts.matrix.map((f) => readResponseMatrix(f));
       const prepared = matrices.map((m, i) => prepareMatrix(m, opts.matrix[i]!, opts.channel));
+      if (opts.rearMatrix !== undefined) return bifacialCompare(opts, matrices, prepared, weatherSpecs, sites, year, seed, planes, sky);
       const rows: CompareRow[] = [];
       const weatherInfos: Record<string, unknown>[] = [];
       sites.forEach((site, i) => {
@@ -79,4 +94,43 @@ matrices' stderr (independent runs). Both use the same weather, sky model and pl
         if (report) process.stdout.write(`report: ${report}\n`);
       }
     });
+}
+
+/** `compare --rear-matrix A --rear-matrix B`: benefit of A over B in front + rear yearly charge. */
+function bifacialCompare(
+  opts: CompareOpts, matrices: ResponseMatrix[], prepared: PreparedMatrix[], weatherSpecs: string[], sites: Site[],
+  year: number, seed: number, planes: Plane[], sky: SkyModel,
+): void {
+  const rearFiles = opts.rearMatrix!;
+  if (rearFiles.length !== 2) throw new InputError(`--rear-matrix: give exactly two rear-lit matrices (of A then of B), got ${rearFiles.length}`);
+  const mount = mountOf(opts);
+  const rears = rearFiles.map((f) => readResponseMatrix(f));
+  rears.forEach((m, i) => {
+    if (m.lightFrom !== "rear") throw new InputError(`--rear-matrix ${rearFiles[i]}: this matrix was traced with light from the front`, 'sweep the study with "illumination": "both" and pass <label>-rear/matrix.json');
+  });
+  const rearPrepared = rears.map((m, i) => prepareMatrix(m, rearFiles[i]!, opts.channel));
+  for (const p of planes) {
+    for (const pitchM of mount.pitchesM) checkRowGeometry({ tiltDeg: p.tiltDeg, slantLengthM: mount.slantLengthM, centreHeightM: mount.centreHeightM, ...(pitchM === null ? {} : { pitchM }) }, "--tilt/--height/--module-width/--pitch");
+  }
+  const rows: BifacialCompareRow[] = [];
+  const weatherInfos: Record<string, unknown>[] = [];
+  sites.forEach((site, i) => {
+    const ctx = yearContext(site, loadWeather(weatherSpecs[i]!, site, year, seed));
+    weatherInfos.push(weatherInfo(ctx));
+    const a = bifacialSweep(ctx, planes, mount.pitchesM, mount, prepared[0]!, rearPrepared[0]!, sky);
+    const b = bifacialSweep(ctx, planes, mount.pitchesM, mount, prepared[1]!, rearPrepared[1]!, sky);
+    a.forEach((ya, k) => rows.push({ site: site.name, a: ya, b: b[k]! }));
+  });
+  const doc = bifacialCompareJson({
+    toolVersion: toolVersion(),
+    matrices: matrices.map((m, i) => ({ label: i === 0 ? "A" : "B", ...matrixInfo(m, opts.matrix[i]!, opts.channel), rear: matrixInfo(rears[i]!, rearFiles[i]!, opts.channel) })),
+    skyModel: sky, sites: sites.map(siteInfo), weather: weatherInfos, mounting: mount, rows,
+  });
+  const text = JSON.stringify(doc, null, 2) + "\n";
+  const report = writeResult(opts, "compare.json", text);
+  if (opts.json) process.stdout.write(text);
+  else {
+    process.stdout.write(formatBifacialCompareTable(`${matrices[0]!.studyName} (${opts.matrix[0]!})`, `${matrices[1]!.studyName} (${opts.matrix[1]!})`, rows));
+    if (report) process.stdout.write(`report: ${report}\n`);
+  }
 }
