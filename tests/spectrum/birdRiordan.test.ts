@@ -8,14 +8,15 @@ const t = birdRiordanTable();
 const N = t.wavelengthNm.length;
 
 /**
- * The atmosphere ASTM G173-03 states for its reference spectra (as read in validation-sources.md;
- * the standard's own text was not available to read here, so these are "from memory" of it): 1976
- * U.S. Standard Atmosphere at sea level (1013.25 hPa), precipitable water 1.42 cm, ozone 0.34 atm-cm,
- * rural aerosol with optical depth 0.084 at 500 nm, sun at zenith 48.19° (air mass 1.5), surface
- * tilted 37° toward the sun (incidence 11.19°). Ångström exponent: the model's rural default 1.14
- * (the report's program listing); ground albedo 0.2 constant (G173 used a light-soil spectral albedo).
+ * The atmosphere of the ASTM G173-03 reference spectra (the standard names SMARTS 2.9.2 and its 1976
+ * U.S. Standard Atmosphere, rural aerosol, 37° tilt, air mass 1.5): inputs as printed in the SMARTS
+ * 2.9.5 user's manual sample run "Example_6: USSA_AOD=0.084" — sea level 1013.25 hPa, precipitable
+ * water 1.4160 cm, ozone 0.3438 atm-cm, aerosol optical depth 0.084 at 500 nm, Shettle & Fenn rural
+ * aerosol with mean Ångström exponent 1.1977, light sandy soil albedo. Sun at 48.19° (AM1.5 by
+ * Kasten & Young), surface tilted 37° toward it (incidence 11.19°). The simple model's ground term
+ * takes a constant albedo: 0.2 here (the soil's spectral albedo was not read).
  */
-const G173_ATMOSPHERE: ClearSkyAtmosphere = { pressureHpa: 1013.25, precipitableWaterCm: 1.42, ozoneAtmCm: 0.34, aod500: 0.084, angstromExponent: 1.14, groundAlbedo: 0.2 };
+const G173_ATMOSPHERE: ClearSkyAtmosphere = { pressureHpa: 1013.25, precipitableWaterCm: 1.416, ozoneAtmCm: 0.3438, aod500: 0.084, angstromExponent: 1.1977, groundAlbedo: 0.2 };
 
 function g173Case(): { global: Float64Array; direct: Float64Array } {
   const global = new Float64Array(N), direct = new Float64Array(N), diffuse = new Float64Array(N);
@@ -71,27 +72,27 @@ describe("Bird & Riordan (1986) clear-sky spectral model", () => {
     }
   });
 
-  it("direct normal: within 2.5 % of G173 in every 100-nm band from 300 to 900 nm and 1000–1100, 1200–1300, 1500–1700 nm; total within 2 %", () => {
+  it("direct normal: within 3 % of G173 in every 100-nm band from 300 to 900 nm and 1000–1100, 1200–1300, 1500–1700 nm; total within 2 %", () => {
     const { direct } = g173Case();
     const d = astmG173("direct");
-    // Measured deviations (percent): 300 −2.0, 400 −0.9, 500 +1.6, 600 +0.2, 700 +2.2, 800 −0.6,
-    // 1000 +0.7, 1200 −0.4, 1500 −0.3, 1600 +1.9. Outside absorption bands the two models share
+    // Measured deviations (percent): 300 −2.4, 400 −1.0, 500 +1.6, 600 +0.3, 700 +2.4, 800 −0.4,
+    // 1000 +1.0, 1200 −0.2, 1500 −0.1, 1600 +2.1. Outside absorption bands the two models share
     // Rayleigh, aerosol and ozone physics, so they must agree to a few percent.
-    for (const a of [300, 400, 500, 600, 700, 800, 1000, 1200, 1500, 1600]) expect(Math.abs(bandDeviationPct(direct, d, a))).toBeLessThan(2.5);
+    for (const a of [300, 400, 500, 600, 700, 800, 1000, 1200, 1500, 1600]) expect(Math.abs(bandDeviationPct(direct, d, a))).toBeLessThan(3);
     const total = trapezoid(t.wavelengthNm, direct);
-    // G173 direct + circumsolar: 900.1 W/m² (stated in the standard); the model: 911.7 W/m²
+    // G173 direct + circumsolar: 900.1 W/m² (stated in the standard); the model: 912.8 W/m²
     expect(Math.abs(total / 900.1 - 1)).toBeLessThan(0.02);
   });
 
   it("global tilted: within 3 % of G173 from 600 to 1300 nm, within 7 % from 300 to 600 nm (the simple diffuse is bluer), total within 3 %", () => {
     const { global } = g173Case();
     const g = astmG173("global");
-    // Measured: 300 +4.9, 400 +6.4, 500 +5.4, 600 +0.8, 700 +1.0, 800 −2.0, 900 +2.3, 1000 −1.0,
-    // 1100 +2.4, 1200 −2.0 (percent). Below 600 nm the model's sky diffuse (Rayleigh-dominated, with
+    // Measured: 300 +4.7, 400 +6.4, 500 +5.4, 600 +0.8, 700 +1.0, 800 −2.0, 900 +2.4, 1000 −0.9,
+    // 1100 +2.6, 1200 −2.0 (percent). Below 600 nm the model's sky diffuse (Rayleigh-dominated, with
     // the empirical C_s factor of Eq. 3-17) exceeds G173's; the direct beam there agrees within 2 %.
     for (const a of [600, 700, 800, 900, 1000, 1100, 1200]) expect(Math.abs(bandDeviationPct(global, g, a))).toBeLessThan(3);
     for (const a of [300, 400, 500]) expect(Math.abs(bandDeviationPct(global, g, a))).toBeLessThan(7);
-    // G173 global tilt: 1000.4 W/m² (stated in the standard); the model: 1025.1 W/m²
+    // G173 global tilt: 1000.4 W/m² (stated in the standard); the model: 1025.3 W/m²
     expect(Math.abs(trapezoid(t.wavelengthNm, global) / 1000.4 - 1)).toBeLessThan(0.03);
   });
 
