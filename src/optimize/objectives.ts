@@ -56,13 +56,13 @@ export function objectiveInfo(o: ObjectiveSpec): ObjectiveInfo {
       return { kind: o.kind, name: "angle-weighted Jsc", unit: "mA/cm²", description: `weighted mean of the absorber photocurrent over θ (${parts}) under ${o.spectrum.name}` };
     }
     case "yield": {
-      const faces = o.mounting === undefined ? "" : `front + rear (${o.mounting.pitchM === null ? "isolated row" : `rows ${o.mounting.pitchM} m apart`}, ${o.mounting.slantLengthM} m modules at ${o.mounting.centreHeightM} m), `;
+      const faces = o.mounting === undefined ? "" : `, front + rear (${o.mounting.pitchM === null ? "isolated row" : `rows ${o.mounting.pitchM} m apart`}, ${o.mounting.slantLengthM} m modules at ${o.mounting.centreHeightM} m),`;
       const spectra = o.spectra === undefined ? "" : `, ${o.spectra.name} spectra`;
       return {
         kind: o.kind,
         name: o.mounting === undefined ? "yearly charge" : "yearly charge, front + rear",
         unit: "A·h/m²",
-        description: `yearly absorbed charge (${o.channel}), ${faces}at ${o.ctx.siteName}, tilt ${o.plane.tiltDeg}°, azimuth ${o.plane.azimuthDeg}°, ${o.ctx.weatherSource}, ${o.sky} sky${spectra}`,
+        description: `yearly absorbed charge (${o.channel})${faces} at ${o.ctx.siteName}, tilt ${o.plane.tiltDeg}°, azimuth ${o.plane.azimuthDeg}°, ${o.ctx.weatherSource}, ${o.sky} sky${spectra}`,
       };
     }
   }

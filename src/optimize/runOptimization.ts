@@ -48,6 +48,9 @@ export interface OptimizationOutcome {
 export async function runOptimization(req: OptimizationRequest): Promise<OptimizationOutcome> {
   const t0 = Date.now();
   const base = readStudyDocument(req.studyPath);
+  if (base.doc !== null && typeof base.doc === "object" && "sweep" in base.doc) {
+    req.onNotice?.("the study's \"sweep\" section is ignored: the optimiser sets the parameters it varies");
+  }
   const lower = req.params.map((p) => p.lower);
   const upper = req.params.map((p) => p.upper);
   // The study as written decides the default rays; evaluations trace a fixed number per point.

@@ -148,7 +148,7 @@ export function register(program: Command): void {
     .option("--out <dir>", "output folder (default: runs/optimize-<study>)")
     .option("--workers <n>", "worker threads (default: SLURM_CPUS_PER_TASK when set, else all available cores)")
     .option("--fresh", "set existing evaluation journals aside and start again")
-    .option("--no-report", "do not write <out>/report/index.html")
+    .option("--no-report", "do not write <out>/report/ (the page and the plot of the objective vs each parameter)")
     .option("--quiet", "no progress lines")
     .option("--json", "print optimum.json instead of the table")
     .addHelpText(
