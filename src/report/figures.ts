@@ -108,7 +108,7 @@ export function monthlyFigure(yields: YieldEntry[]): Figure | null {
     xLabel: "month",
     y: { label: `charge per area (${u.unit})` },
     categories: MONTHS,
-    groups: shown.map((y) => ({ label: yieldLabel(y, shown, true), values: y.monthlyAhM2.map((v) => v * u.factor) })),
+    groups: shown.map((y) => ({ label: yieldLabel(y, shown), values: y.monthlyAhM2.map((v) => v * u.factor) })),
     width: 820,
   });
 }
@@ -123,7 +123,7 @@ export function spectralCorrectionFigure(yields: YieldEntry[]): Figure | null {
     xLabel: "month",
     y: { label: "charge with hourly spectra ÷ with G173 shapes − 1 (%)" },
     categories: MONTHS,
-    groups: shown.map((y) => ({ label: yieldLabel(y, shown, true), values: y.spectralCorrection!.monthlyPct })),
+    groups: shown.map((y) => ({ label: yieldLabel(y, shown), values: y.spectralCorrection!.monthlyPct })),
     width: 820,
   });
 }

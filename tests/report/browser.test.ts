@@ -56,6 +56,20 @@ afterAll(async () => {
   rmSync(tmp, { recursive: true, force: true });
 });
 
+/** Every text of every plot lies inside its SVG (nothing cut at an edge) and none is shortened with "…". */
+async function labelsFit(page: import("playwright-core").Page): Promise<string[]> {
+  return page.$$eval("svg[data-plot]", (svgs) =>
+    svgs.flatMap((s) => {
+      const box = s.getBoundingClientRect();
+      return [...s.querySelectorAll("text")].flatMap((t) => {
+        const b = t.getBoundingClientRect();
+        const cut = b.right > box.right + 1 || b.left < box.left - 1 || (t.textContent ?? "").includes("…");
+        return cut ? [`${s.getAttribute("data-plot")}: "${t.textContent}"`] : [];
+      });
+    }),
+  );
+}
+
 describe("report page in headless Chromium", () => {
   it("shows every plot non-empty, renders the XSS study name as text, runs no script", async () => {
     const page = await context.newPage();
@@ -97,6 +111,9 @@ describe("report page in headless Chromium", () => {
     // Only the page itself was loaded: no network, no CDN.
     expect(requests.filter((u) => !u.startsWith("file://"))).toEqual([]);
 
+    // no label of any plot is cut at an edge or shortened
+    expect(await labelsFit(page)).toEqual([]);
+
     mkdirSync("test-artifacts", { recursive: true });
     await page.screenshot({ path: join("test-artifacts", "report.png"), fullPage: true });
     expect(existsSync(join("test-artifacts", "report.png"))).toBe(true);
@@ -120,20 +137,6 @@ describe("report page in headless Chromium", () => {
     }
     await page.close();
   });
-
-  /** Every text of every plot lies inside its SVG (nothing cut at an edge) and none is shortened with "…". */
-  async function labelsFit(page: import("playwright-core").Page): Promise<string[]> {
-    return page.$$eval("svg[data-plot]", (svgs) =>
-      svgs.flatMap((s) => {
-        const box = s.getBoundingClientRect();
-        return [...s.querySelectorAll("text")].flatMap((t) => {
-          const b = t.getBoundingClientRect();
-          const cut = b.right > box.right + 1 || b.left < box.left - 1 || (t.textContent ?? "").includes("…");
-          return cut ? [`${s.getAttribute("data-plot")}: "${t.textContent}"`] : [];
-        });
-      }),
-    );
-  }
 
   it("a 12-channel module stack: every ledger step and spectral strip has its own colour and a label that fits", async () => {
     const page = await context.newPage();
