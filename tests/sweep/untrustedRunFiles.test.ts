@@ -1,16 +1,22 @@
-import { existsSync, mkdirSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { cpSync, existsSync, mkdirSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { dirname, join } from "node:path";
-import { describe, expect, it } from "vitest";
+import { beforeAll, describe, expect, it } from "vitest";
 import { entryLine, readJournal } from "../../src/sweep/journal.js";
 import { mergeShards } from "../../src/sweep/mergeShards.js";
 import { runSweep } from "../../src/sweep/runSweep.js";
 import { InputError } from "../../src/util/errors.js";
 import { expectSameMatrices, tempDir, tinyStudy } from "./helpers.js";
 
-/** A two-shard run of the tiny study; returns its folder. */
+let shardRun = "";
+beforeAll(async () => {
+  shardRun = tempDir("crafted-base");
+  for (const index of [1, 2]) await runSweep({ study: tinyStudy(), outDir: shardRun, workers: 1, shard: { index, count: 2 } });
+});
+
+/** A copy of a two-shard run of the tiny study; returns its folder. */
 async function twoShards(): Promise<string> {
   const out = tempDir("crafted");
-  for (const index of [1, 2]) await runSweep({ study: tinyStudy(), outDir: out, workers: 1, shard: { index, count: 2 } });
+  cpSync(shardRun, out, { recursive: true });
   return out;
 }
 
