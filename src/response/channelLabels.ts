@@ -44,6 +44,10 @@ function filmWords(rest: string): Words | null {
     const layer = where.slice("top:".length);
     return { long: `${material} film on ${layer} (#${n})`, short: `${material} on ${layer}` };
   }
+  if (where.startsWith("bottom:")) {
+    const layer = where.slice("bottom:".length);
+    return { long: `${material} film under ${layer} (#${n})`, short: `${material} under ${layer}` };
+  }
   return { long: `${material} film, ${where} (#${n})`, short: `${material} ${where}` };
 }
 

@@ -30,6 +30,12 @@ function subjectOf(stack: StackSpec, segs: (string | number)[]): string {
     if (sub === "topFilms" && typeof j === "number") return `${layer.topFilms[j]?.material ?? "film"} on ${layer.name}`;
     return layer.name;
   }
+  if (head === "rearLayers" && typeof i === "number") {
+    const layer = stack.rearLayers?.[i];
+    if (layer === undefined) return `rear layer ${i + 1}`;
+    if (sub === "bottomFilms" && typeof j === "number") return `${layer.bottomFilms[j]?.material ?? "film"} under ${layer.name}`;
+    return layer.name;
+  }
   if ((head === "front" || head === "rear") && i === "films" && typeof sub === "number") {
     const films = head === "front" ? stack.front.films : "films" in stack.rear ? stack.rear.films : [];
     return `${head} ${films[sub]?.material ?? "film"}`.replace(/^front /, "");

@@ -48,6 +48,8 @@ describe("CLI details", () => {
     expect(comboTitle({ "front.texture.facetAngleDeg": 50 }, stack)).toBe("front texture facet angle 50°");
     expect(comboTitle({ "layers[0].thicknessUm": 2000, "rear.films[1].thicknessNm": 90 }, stack)).toBe("cover glass 2000 µm · rear SiNx 90 nm");
     expect(comboTitle({ "layers[0].topFilms[0].thicknessNm": 100 }, stack)).toBe("SiO2 on cover glass 100 nm");
+    const bifacial = loadStudy(join(ROOT, "configs", "glass-glass-bifacial.study.json")).combos[0]!.study.stack;
+    expect(comboTitle({ "rearLayers[1].thicknessUm": 3200 }, bifacial)).toBe("rear glass 3200 µm");
   });
 
   it("the sweep summary shows Jsc and the matrix hash for a study without a sweep too", () => {
@@ -90,5 +92,7 @@ describe("CLI details", () => {
     expect(channelLabel("A_rearLayer:backsheet")).toBe("backsheet (rearLayer)");
     expect(channelKind("A_rearLayer:backsheet")).toBe("parasitic");
     expect(channelLabel("R_ground")).toBe("reflected (ground)");
+    expect(channelLabel("A_film:bottom:rear glass:0:SiO2")).toBe("SiO2 film under rear glass (#1)");
+    expect(channelShortLabel("A_film:bottom:rear glass:0:SiO2")).toBe("SiO2 under rear glass");
   });
 });
