@@ -21,7 +21,8 @@ export function absorbAlong(cs: CompiledStack, st: Float64Array, m: number, rng:
   }
   // Expected value, unless this stretch would take the weight below the roulette weight: then the
   // ray turns analog before it (the same expectation, and no work spent on negligible weights).
-  const att = Math.exp(-alpha * lenUm);
+  // Analog rays need no exponential.
+  const att = st[ANALOG] === 0 ? Math.exp(-alpha * lenUm) : 0;
   if (st[ANALOG] === 0 && w * att < cs.rouletteWeight) {
     st[ANALOG] = 1;
     st[TAU] = -Math.log(rng.next());

@@ -47,7 +47,8 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   const nF = iface.nFilms;
   const sink = up ? -1 : iface.lowerSinkChan;
   const contrib = cs.contrib;
-  const u = rng.next();
+  // Total reflection (Rpow = 1) needs no random number: u = 0 reflects in both estimators.
+  const u = Rpow < 1 ? rng.next() : 0;
   let reflect: boolean;
   if (st[ANALOG] !== 0) {
     if (u < Rpow) {
