@@ -1,7 +1,7 @@
 /**
  * Seed of one convergence run: a 32-bit FNV-1a hash (Fowler–Noll–Vo, public-domain reference
  * algorithm) of "<study seed>/<namespace>". Each step, replica and the reference get their own seed,
- * so their streams streamKey(seed', combo, it, ip, il, batch) never coincide with one another or,
+ * so their streams streamKey(seed', it, ip, il, batch) never coincide with one another or,
  * barring a 2^-32 coincidence, with the sweep's streams of the same study.
  */
 export function replicaSeed(studySeed: number, namespace: string): number {

@@ -1,4 +1,4 @@
-import { RandomStream, streamKey } from "../random/stream.js";
+import { lightStreamKey, RandomStream } from "../random/stream.js";
 import type { LoadedStudy } from "../study/load.js";
 import { channelMean, channelStdErr, tallyLength, tallyProblem } from "../sweep/tally.js";
 import { channelNames, compileStack, traceBatch, type CompiledStack, type CompileOptions } from "../trace/index.js";
@@ -11,7 +11,7 @@ import type { AsyncEstimator, Estimate, Estimator } from "./runConvergence.js";
 /**
  * A convergence subject traced on a one-direction study: `study` is the loaded study with its grid
  * reduced to θ = [thetaDeg], one azimuth, and the wavelengths of interest (see convergeStudy.ts).
- * Run (namespace) traces batch b of wavelength il on streamKey(replicaSeed(seed, namespace), combo,
+ * Run (namespace) traces batch b of wavelength il on streamKey(replicaSeed(seed, namespace),
  * 0, 0, il, b), in this thread or on the pool alike, so both give the same numbers.
  */
 export interface TraceSubject {
@@ -43,7 +43,7 @@ function inThreadTracer(subject: TraceSubject, options?: CompileOptions): { chan
     for (let b = 0, done = 0; done < nRays; b++) {
       const n = Math.min(batch, nRays - done);
       t.fill(0);
-      traceBatch(stacks[il], thetaDeg, phiDeg, n, new RandomStream(streamKey(seed, subject.combo, 0, 0, il, b)), t, "unpolarized", study.lightFrom ?? "front");
+      traceBatch(stacks[il], thetaDeg, phiDeg, n, new RandomStream(lightStreamKey(seed, study.lightFrom, 0, 0, il, b)), t, "unpolarized", study.lightFrom ?? "front");
       const problem = tallyProblem(t, nCh, n);
       if (problem !== undefined) {
         throw new Error(`convergence run failed at θ=${thetaDeg}°, φ=${phiDeg ?? "averaged"}, λ=${g.wavelengthNm[il]} nm, seed ${seed}, batch ${b}: ${problem}`);

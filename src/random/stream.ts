@@ -7,12 +7,32 @@ import seedrandom from "seedrandom";
  */
 export class RandomStream {
   private readonly s = new Uint32Array(4);
+  /** The seed words of the key (substreams are derived from them). */
+  private readonly base = new Uint32Array(4);
 
   constructor(key: string) {
     // seedrandom's xor4096 hashes the key string into well-mixed seed words (ARC4-style key mixing).
     const mix = seedrandom.xor4096(key);
-    for (let i = 0; i < 4; i++) this.s[i] = mix.int32() >>> 0;
+    for (let i = 0; i < 4; i++) this.s[i] = this.base[i] = mix.int32() >>> 0;
     if ((this.s[0] | this.s[1] | this.s[2] | this.s[3]) === 0) this.s[0] = 0x9e3779b9;
+  }
+
+  /**
+   * Restarts the stream as substream `index` of its key (index < 2^30): each seed word is hashed
+   * with the index (MurmurHash3's 32-bit finaliser, Appleby 2011). The tracer starts one substream
+   * per ray, so what a ray draws never depends on how many numbers the rays before it used: two
+   * stacks traced with the same key keep their rays paired (common random numbers) until a ray's
+   * own history differs.
+   */
+  startSubstream(index: number): void {
+    const s = this.s;
+    const b = this.base;
+    const i4 = (index << 2) >>> 0;
+    s[0] = fmix32((b[0] ^ fmix32(i4 + 1)) >>> 0);
+    s[1] = fmix32((b[1] ^ fmix32(i4 + 2)) >>> 0);
+    s[2] = fmix32((b[2] ^ fmix32(i4 + 3)) >>> 0);
+    s[3] = fmix32((b[3] ^ fmix32(i4 + 4)) >>> 0);
+    if ((s[0] | s[1] | s[2] | s[3]) === 0) s[0] = 0x9e3779b9;
   }
 
   /** Next uint32. */
@@ -35,6 +55,16 @@ export class RandomStream {
   }
 }
 
+/** MurmurHash3 32-bit finaliser (Appleby 2011, public domain): a bijective avalanche mix. */
+function fmix32(h: number): number {
+  h ^= h >>> 16;
+  h = Math.imul(h, 0x85ebca6b);
+  h ^= h >>> 13;
+  h = Math.imul(h, 0xc2b2ae35);
+  h ^= h >>> 16;
+  return h >>> 0;
+}
+
 function rotl(x: number, k: number): number {
   return (x << k) | (x >>> (32 - k));
 }
@@ -45,4 +75,12 @@ function rotl(x: number, k: number): number {
  */
 export function streamKey(seed: number, ...coords: (number | string)[]): string {
   return `lightfold/${seed}/${coords.join("/")}`;
+}
+
+/**
+ * Stream key of batch b of grid point (it, ip, il) in a sweep: the same for every combination, so
+ * combinations are traced with common random numbers; light from the rear has streams of its own.
+ */
+export function lightStreamKey(seed: number, lightFrom: "front" | "rear" | undefined, it: number, ip: number, il: number, batch: number): string {
+  return lightFrom === "rear" ? streamKey(seed, "rear", it, ip, il, batch) : streamKey(seed, it, ip, il, batch);
 }

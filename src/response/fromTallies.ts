@@ -1,6 +1,6 @@
 import type { ComboPlan, SweepPlan } from "../sweep/plan.js";
 import { pointsPerCombo } from "../sweep/plan.js";
-import { channelMean, channelStdErr } from "../sweep/tally.js";
+import { channelMean, channelStdErr, groupOffset, PAIR_GROUPS, tallyLength } from "../sweep/tally.js";
 import { RESPONSE_FORMAT, RESPONSE_FORMAT_VERSION, type ResponseMatrix } from "./responseMatrix.js";
 
 /**
@@ -20,9 +20,20 @@ export function matrixFromTallies(
   const stderr = new Float64Array(nPts * nCh);
   const nRays = new Float64Array(nPts);
   const pathRatio = new Float64Array(nPts);
+  const G = PAIR_GROUPS;
+  const groupMean = new Float64Array(nPts * G * nCh);
+  const groupRays = new Float64Array(nPts * G);
   for (let q = 0; q < nPts; q++) {
     const t = tallyOf(comboIndex * nPts + q);
     if (t === undefined) continue;
+    if (t.length >= tallyLength(nCh)) {
+      for (let g = 0; g < G; g++) {
+        const o = groupOffset(nCh, g);
+        const ng = t[o + nCh];
+        groupRays[q * G + g] = ng;
+        if (ng > 0) for (let c = 0; c < nCh; c++) groupMean[(q * G + g) * nCh + c] = t[o + c] / ng;
+      }
+    }
     for (let c = 0; c < nCh; c++) {
       mean[q * nCh + c] = channelMean(t, nCh, c);
       stderr[q * nCh + c] = channelStdErr(t, nCh, c);
@@ -49,6 +60,9 @@ export function matrixFromTallies(
     stderr,
     nRays,
     pathRatio,
+    pairGroups: G,
+    groupMean,
+    groupRays,
   };
   if (partial) m.partial = true;
   if (combo.lightFrom === "rear") m.lightFrom = "rear";

@@ -9,6 +9,9 @@ const ARRAY_FIELDS = ["mean", "stderr", "nRays", "pathRatio"] as const;
 export function matrixToJson(m: ResponseMatrix): string {
   const plain: Record<string, unknown> = { ...m };
   for (const f of ARRAY_FIELDS) plain[f] = Array.from(m[f]);
+  // Optional pairing groups (paired errors of differences, src/response/pairedDifference.ts).
+  if (m.groupMean !== undefined) plain.groupMean = Array.from(m.groupMean);
+  if (m.groupRays !== undefined) plain.groupRays = Array.from(m.groupRays);
   return JSON.stringify(plain);
 }
 

@@ -48,6 +48,15 @@ export interface ResponseMatrix {
    * in the texture frame; R is still light leaving through the front and T through the rear.
    */
   lightFrom?: "rear";
+  /**
+   * Pairing groups (src/sweep/tally.ts): batch b of a point went into group b mod pairGroups. Mean
+   * per group [theta][phi][lambda][group][channel] and rays per group [theta][phi][lambda][group];
+   * a group without rays has mean 0. They give paired standard errors of differences between
+   * matrices traced with common random numbers (src/response/pairedDifference.ts).
+   */
+  pairGroups?: number;
+  groupMean?: Float64Array;
+  groupRays?: Float64Array;
 }
 
 /** Flat index of (theta, phi, lambda, channel). */

@@ -54,7 +54,7 @@ export function validateMatrix(raw: unknown, file: string): ResponseMatrix {
       refuse(at(root, `mean`), `the channels of each point to sum to 1 ± ${MATRIX_SUM_TOLERANCE}; at θ = ${thetaDeg[it]}°, φ = ${phiDeg[ip]}°, λ = ${wavelengthNm[il]} nm they sum to ${sum}`);
     }
   }
-  return {
+  const m: ResponseMatrix = {
     ...(o as unknown as ResponseMatrix),
     phiMode,
     mean: Float64Array.from(mean),
@@ -62,4 +62,22 @@ export function validateMatrix(raw: unknown, file: string): ResponseMatrix {
     nRays: Float64Array.from(nRays),
     pathRatio: Float64Array.from(pathRatio),
   };
+  delete m.pairGroups;
+  delete m.groupMean;
+  delete m.groupRays;
+  if (o.pairGroups !== undefined) {
+    // Pairing groups: group means are fractions like the point means, group rays add up to the point's.
+    const G = int(o.pairGroups, at(root, "pairGroups"), 1, 1024);
+    const groupMean = numbers(o.groupMean, at(root, "groupMean"), { length: nPts * G * nCh, min: 0, max: 1 + MATRIX_SUM_TOLERANCE });
+    const groupRays = numbers(o.groupRays, at(root, "groupRays"), { length: nPts * G, min: 0, max: Number.MAX_SAFE_INTEGER, integer: true });
+    for (let q = 0; q < nPts; q++) {
+      let n = 0;
+      for (let g = 0; g < G; g++) n += groupRays[q * G + g]!;
+      if (n !== nRays[q]) refuse(at(root, "groupRays"), `the groups of each point to hold its rays; point ${q} has ${nRays[q]} rays, its groups ${n}`);
+    }
+    m.pairGroups = G;
+    m.groupMean = Float64Array.from(groupMean);
+    m.groupRays = Float64Array.from(groupRays);
+  }
+  return m;
 }

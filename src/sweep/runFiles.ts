@@ -24,6 +24,21 @@ export interface JscFirstDirection {
   jscStderrMaCm2: number;
 }
 
+/**
+ * The sweep summary's best combination (highest Jsc at the first direction) and its difference to
+ * the runner-up, with the paired standard error (common random numbers, pairing groups) and the
+ * one an independence assumption would give.
+ */
+export interface BestCombo {
+  label: string;
+  runnerUp: string;
+  thetaDeg: number;
+  phiDeg: number | "averaged";
+  deltaJscMaCm2: number;
+  deltaStderrMaCm2: number;
+  independentStderrMaCm2: number;
+}
+
 /** One combination in run.json. */
 export interface RunCombo {
   label: string;
@@ -49,6 +64,7 @@ export interface RunRecord {
   grid: { nTheta: number; nPhi: number; nWavelength: number; phiMode: string };
   rays: SweepPlan["rays"];
   combos: RunCombo[];
+  bestCombo?: BestCombo;
   partial?: true;
   missingShards?: number[];
   shards?: number;

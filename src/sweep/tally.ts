@@ -1,11 +1,34 @@
 /**
- * Tally layout (docs/contracts.md, Tracer): per channel [sum, sumSq], then
- * [nRays, pathSum, pathSumSq, events].
+ * Tally layout of a sweep point (docs/contracts.md, Tracer and Run directory): the tracer's part,
+ * per channel [sum, sumSq] then [nRays, pathSum, pathSumSq, events]; then PAIR_GROUPS pairing
+ * groups of [sum per channel…, nRays]: batch b of a point adds its channel sums to group
+ * b mod PAIR_GROUPS. Groups are independent replicas of the point, and two combinations (or two
+ * studies of one seed) trace batch b with the same random stream, so the spread of per-group
+ * differences gives the standard error of a difference with its correlation (src/sweep/pairing.ts).
  */
 export const TALLY_EXTRA = 4;
+export const PAIR_GROUPS = 16;
 
-export function tallyLength(nChannels: number): number {
+/** Length of the tracer's part of a tally. */
+export function traceTallyLength(nChannels: number): number {
   return 2 * nChannels + TALLY_EXTRA;
+}
+
+/** Length of a sweep point's tally: the tracer's part and the pairing groups. */
+export function tallyLength(nChannels: number): number {
+  return traceTallyLength(nChannels) + PAIR_GROUPS * (nChannels + 1);
+}
+
+/** Offset of pairing group g in a sweep tally. */
+export function groupOffset(nChannels: number, g: number): number {
+  return traceTallyLength(nChannels) + g * (nChannels + 1);
+}
+
+/** Copies a freshly traced batch tally's channel sums and ray count into its pairing group (b mod PAIR_GROUPS). */
+export function fillPairGroup(t: Float64Array, nChannels: number, batch: number): void {
+  const o = groupOffset(nChannels, batch % PAIR_GROUPS);
+  for (let c = 0; c < nChannels; c++) t[o + c] = t[2 * c];
+  t[o + nChannels] = t[2 * nChannels];
 }
 
 export function tallyRays(t: Float64Array, nChannels: number): number {

@@ -1,5 +1,5 @@
 import { initialBatches, maxBatches } from "./plan.js";
-import { tallyProblem } from "./tally.js";
+import { groupOffset, PAIR_GROUPS, tallyLength, tallyProblem } from "./tally.js";
 import type { RaysPlan } from "../study/studyTypes.js";
 
 /** Relative slack for the inequalities below (sums of up to 10¹² doubles). */
@@ -22,6 +22,15 @@ export function storedTallyProblem(t: Float64Array, nChannels: number, nRays: nu
     if (n > 0 && q * n < s * s * (1 - SLACK) - SLACK) return `channel ${c}: sum of squares ${q} is below (sum)²/n = ${(s * s) / n}`;
   }
   for (let i = 2 * nChannels + 1; i < t.length; i++) if (t[i]! < 0) return `tally entry ${i} is negative (${t[i]})`;
+  if (t.length === tallyLength(nChannels)) {
+    // Pairing groups partition the point's batches: their ray counts and channel sums add up to the point's.
+    for (let c = 0; c <= nChannels; c++) {
+      const whole = c < nChannels ? t[2 * c]! : n;
+      let sum = 0;
+      for (let g = 0; g < PAIR_GROUPS; g++) sum += t[groupOffset(nChannels, g) + c]!;
+      if (Math.abs(sum - whole) > SLACK * Math.max(1, whole)) return `pairing groups ${c < nChannels ? `of channel ${c} sum to ${sum}, the channel to ${whole}` : `hold ${sum} rays, the point ${whole}`}`;
+    }
+  }
   return undefined;
 }
 

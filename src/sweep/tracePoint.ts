@@ -40,7 +40,7 @@ export interface TracePointResult {
 
 /**
  * Traces one grid point with nRays in batches spread over the pool. Batch b uses
- * streamKey(seed, combo, it, ip, il, b), exactly as a sweep does, so with firstBatch 0, the same
+ * streamKey(seed, it, ip, il, b), exactly as a sweep does, so with firstBatch 0, the same
  * batch size and nRays = the study's perPoint, the tally equals that point's tally in a sweep.
  */
 export async function tracePoint(o: TracePointOptions): Promise<TracePointResult> {

@@ -1,8 +1,10 @@
 import { dirname, relative } from "node:path";
 import type { ResponseMatrix } from "../response/responseMatrix.js";
-import { spectrumFromSpec, type Spectrum } from "../spectrum/index.js";
+import { photocurrentWeights, spectrumFromSpec, type Spectrum } from "../spectrum/index.js";
+import { pairedWeightedDifference } from "../response/pairedDifference.js";
+import { pointIndex } from "../response/responseMatrix.js";
 import type { SweepPlan } from "../sweep/plan.js";
-import { writeRunJson, type RunRecord } from "../sweep/runFiles.js";
+import { writeRunJson, type BestCombo, type RunCombo, type RunRecord } from "../sweep/runFiles.js";
 import { matrixPath } from "../sweep/sweepPaths.js";
 import { writePhotocurrentSummary } from "./writePhotocurrent.js";
 
@@ -47,6 +49,34 @@ export function writeRunPhotocurrent(
       onNotice(`${plan.combos[i].label}: no photocurrent summary: ${(err as Error).message}`);
     }
   });
-  files.push(writeRunJson(outDir, { ...record, combos }));
+  const best = spectrum === undefined ? undefined : bestComboOf(combos, matrices, spectrum);
+  files.push(writeRunJson(outDir, { ...record, combos, ...(best !== undefined ? { bestCombo: best } : {}) }));
   return files;
+}
+
+/**
+ * The combination with the highest Jsc at the first direction and its paired difference to the
+ * runner-up (undefined with fewer than two summarised combinations).
+ */
+export function bestComboOf(combos: RunCombo[], matrices: ResponseMatrix[], spectrum: Spectrum): BestCombo | undefined {
+  const ranked = combos
+    .map((c, i) => ({ c, i }))
+    .filter((x) => x.c.jscFirstDirection !== undefined)
+    .sort((x, y) => (y.c.jscFirstDirection?.jscMaCm2 ?? 0) - (x.c.jscFirstDirection?.jscMaCm2 ?? 0));
+  if (ranked.length < 2) return undefined;
+  const [first, second] = ranked;
+  const a = matrices[first.i];
+  const b = matrices[second.i];
+  const points = a.wavelengthNm.map((_, il) => pointIndex(a, 0, 0, il));
+  const d = pairedWeightedDifference(a, b, "A_absorber", points, photocurrentWeights(a.wavelengthNm, spectrum));
+  const dir = first.c.jscFirstDirection;
+  return {
+    label: first.c.label,
+    runnerUp: second.c.label,
+    thetaDeg: dir?.thetaDeg ?? a.thetaDeg[0],
+    phiDeg: dir?.phiDeg ?? a.phiDeg[0],
+    deltaJscMaCm2: d.delta,
+    deltaStderrMaCm2: d.pairedStderr,
+    independentStderrMaCm2: d.independentStderr,
+  };
 }

@@ -1,6 +1,6 @@
-import { RandomStream, streamKey } from "../random/stream.js";
+import { lightStreamKey, RandomStream } from "../random/stream.js";
 import { buildMaterialRegistry } from "../study/userMaterials.js";
-import { tallyLength, tallyProblem } from "../sweep/tally.js";
+import { fillPairGroup, tallyLength, tallyProblem } from "../sweep/tally.js";
 import { isIdealRear, type StackSpec, type TextureSpec } from "../study/stackTypes.js";
 import type { Study } from "../study/studyTypes.js";
 import type { TracerModule } from "./tracerModule.js";
@@ -67,10 +67,14 @@ export function createMessageRunner(setup: WorkerSetup, tracer: TracerModule): (
         const nRays = item.batchRays[j];
         const tally = out.subarray(offset, offset + len);
         withCoordinates(item, batch, () => {
-          const rng = new RandomStream(streamKey(seed, item.combo, item.it, item.ip, item.il, batch));
-          traceBatch(cs, item.thetaDeg, item.phiDeg, nRays, rng, tally, "unpolarized", studies[item.combo].lightFrom ?? "front");
+          // Common random numbers: every combination traces batch b of (θ, φ, λ) with the same stream
+          // (a rear-lit twin with its own: lightStreamKey).
+          const lightFrom = studies[item.combo].lightFrom;
+          const rng = new RandomStream(lightStreamKey(seed, lightFrom, item.it, item.ip, item.il, batch));
+          traceBatch(cs, item.thetaDeg, item.phiDeg, nRays, rng, tally, "unpolarized", lightFrom ?? "front");
           const problem = tallyProblem(tally, nChannels, nRays);
           if (problem !== undefined) throw new Error(problem);
+          fillPairGroup(tally, nChannels, batch);
         });
         offset += len;
       }

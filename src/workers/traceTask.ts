@@ -3,7 +3,8 @@ import type { Study } from "../study/studyTypes.js";
 /**
  * One point's share of a task message: consecutive batches firstBatch, firstBatch+1, ... of the
  * point (combo, θ index, φ index, λ index). Each batch has its own random stream,
- * streamKey(seed, combo, it, ip, il, batch), so how batches are grouped into messages never matters.
+ * streamKey(seed, it, ip, il, batch) (the same for every combination: common random numbers), so how
+ * batches are grouped into messages never matters.
  */
 export interface TraceItem {
   combo: number;

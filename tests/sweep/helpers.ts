@@ -33,7 +33,8 @@ export function tinyStudy(over: Record<string, unknown> = {}): LoadedStudy {
 
 /** Bytes of every statistic of a matrix, for bit-for-bit comparisons. */
 export function matrixBytes(m: ResponseMatrix): string {
-  return [m.mean, m.stderr, m.nRays, m.pathRatio].map((a) => Buffer.from(a.buffer, a.byteOffset, a.byteLength).toString("hex")).join("|");
+  const groups = [m.groupMean, m.groupRays].filter((a): a is Float64Array => a !== undefined);
+  return [m.mean, m.stderr, m.nRays, m.pathRatio, ...groups].map((a) => Buffer.from(a.buffer, a.byteOffset, a.byteLength).toString("hex")).join("|");
 }
 
 export function expectSameMatrices(a: ResponseMatrix[], b: ResponseMatrix[]): void {

@@ -11,6 +11,7 @@ import { existsSync, readFileSync } from "node:fs";
 import { writeRunPhotocurrent } from "../../weighting/runSummaries.js";
 import { releaseAllLocks } from "../../util/outputLock.js";
 import { countFlag, MAX_WORKERS } from "../countFlag.js";
+import type { BestCombo } from "../../sweep/runFiles.js";
 
 interface SweepFlags {
   report?: boolean;
@@ -174,7 +175,9 @@ with the same study; a changed study sets the old journal aside and starts afres
 export function comboTable(outDir: string): string[] {
   const run = JSON.parse(readFileSync(join(outDir, "run.json"), "utf8")) as {
     combos: { label: string; title?: string; values: Record<string, number>; studyHash: string; jscFirstDirection?: { thetaDeg: number; phiDeg: number | string; jscMaCm2: number; jscStderrMaCm2: number } }[];
+    bestCombo?: BestCombo;
   };
+  const best = run.bestCombo;
   const first = run.combos.find((c) => c.jscFirstDirection !== undefined)?.jscFirstDirection;
   const where = first === undefined ? "" : `θ=${first.thetaDeg}°, φ ${first.phiDeg === "averaged" ? "averaged" : `${first.phiDeg}°`}`;
   const swept = run.combos.length > 1 || Object.keys(run.combos[0]!.values).length > 0;
@@ -184,8 +187,16 @@ export function comboTable(outDir: string): string[] {
     ...(swept ? [c.title ?? Object.entries(c.values).map(([k, v]) => `${k}=${v}`).join(", ")] : []),
     c.jscFirstDirection === undefined ? "–" : `${c.jscFirstDirection.jscMaCm2.toFixed(3)} ± ${c.jscFirstDirection.jscStderrMaCm2.toFixed(3)}`,
     c.studyHash.slice(0, 16),
+    best !== undefined && c.label === best.label ? `← best: ${bestNote(best)}` : "",
   ]);
+  head.push("");
   const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i]!.length)));
   const fmt = (r: string[]): string => ("  " + r.map((v, i) => v.padEnd(widths[i]!)).join("  ")).trimEnd();
   return [fmt(head), ...rows.map(fmt)];
+}
+
+/** "+0.0610 ± 0.0061 paired over p1 (± 0.0318 if independent)" (mA/cm²). */
+function bestNote(b: BestCombo): string {
+  const paired = Number.isFinite(b.deltaStderrMaCm2) ? `± ${b.deltaStderrMaCm2.toFixed(4)} paired` : "paired error unavailable";
+  return `+${b.deltaJscMaCm2.toFixed(4)} ${paired} over ${b.runnerUp} (± ${b.independentStderrMaCm2.toFixed(4)} if independent)`;
 }

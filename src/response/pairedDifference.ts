@@ -1,0 +1,70 @@
+import type { ResponseMatrix } from "./responseMatrix.js";
+
+/** A difference A − B of a linear functional of two matrices, with its standard errors. */
+export interface PairedDifference {
+  delta: number;
+  /** From the pairing groups (common random numbers); NaN when a point lacks two shared groups. */
+  pairedStderr: number;
+  /** As if A and B were independent: √(SE_A² + SE_B²) of the functional. */
+  independentStderr: number;
+}
+
+/**
+ * Paired variance of the difference of the means of channel ca of A and cb of B at matrix point q
+ * (both traced with the same streams per batch; docs/contracts.md, Run directory). Pairing groups
+ * are independent replicas of the point, so with group means d_g of the difference and group weights
+ * f_g = n_g / N over the K groups with rays, Var(D̄) = K/(K − 1) · Σ f_g² (d_g − D̄)² (the
+ * variance estimate of a mean over clusters of unequal size, as in cluster sampling, Cochran,
+ * Sampling Techniques, ch. 9; from memory; with equal groups it is the textbook s²/K). NaN when
+ * fewer than two groups have rays or A and B differ in them.
+ */
+export function pairedPointVariance(a: ResponseMatrix, ca: number, b: ResponseMatrix, cb: number, q: number): number {
+  const G = a.pairGroups;
+  if (G === undefined || b.pairGroups !== G || a.groupMean === undefined || b.groupMean === undefined || a.groupRays === undefined || b.groupRays === undefined) return NaN;
+  const nA = a.channels.length;
+  const nB = b.channels.length;
+  let N = 0;
+  let K = 0;
+  let sum = 0;
+  for (let g = 0; g < G; g++) {
+    const n = a.groupRays[q * G + g];
+    if (n !== b.groupRays[q * G + g]) return NaN;
+    if (n <= 0) continue;
+    N += n;
+    K++;
+    sum += n * (a.groupMean[(q * G + g) * nA + ca] - b.groupMean[(q * G + g) * nB + cb]);
+  }
+  if (K < 2) return NaN;
+  const mean = sum / N;
+  let ss = 0;
+  for (let g = 0; g < G; g++) {
+    const n = a.groupRays[q * G + g];
+    if (n <= 0) continue;
+    const d = a.groupMean[(q * G + g) * nA + ca] - b.groupMean[(q * G + g) * nB + cb] - mean;
+    ss += (n / N) * (n / N) * d * d;
+  }
+  return (K / (K - 1)) * ss;
+}
+
+/**
+ * Σ_q w_q (A_q − B_q) over the listed points q (flat point indices) of channel `channel`, with
+ * the paired standard error (points are traced on independent streams, so their paired variances
+ * add) and the error an independence assumption would give.
+ */
+export function pairedWeightedDifference(a: ResponseMatrix, b: ResponseMatrix, channel: string, points: readonly number[], w: ArrayLike<number>): PairedDifference {
+  const ca = a.channels.indexOf(channel);
+  const cb = b.channels.indexOf(channel);
+  if (ca < 0 || cb < 0) throw new RangeError(`paired difference: channel "${channel}" missing in ${ca < 0 ? "A" : "B"}`);
+  const nA = a.channels.length;
+  const nB = b.channels.length;
+  let delta = 0;
+  let varPaired = 0;
+  let varIndep = 0;
+  points.forEach((q, k) => {
+    const wk = w[k];
+    delta += wk * (a.mean[q * nA + ca] - b.mean[q * nB + cb]);
+    varPaired += wk * wk * pairedPointVariance(a, ca, b, cb, q);
+    varIndep += wk * wk * (a.stderr[q * nA + ca] ** 2 + b.stderr[q * nB + cb] ** 2);
+  });
+  return { delta, pairedStderr: Math.sqrt(varPaired), independentStderr: Math.sqrt(varIndep) };
+}
