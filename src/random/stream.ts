@@ -18,20 +18,23 @@ export class RandomStream {
   }
 
   /**
-   * Restarts the stream as substream `index` of its key (index < 2^30): each seed word is hashed
+   * Restarts the stream as substream `index` (< 2^30) of its key, or as substream `branch` of that
+   * (branch ≥ 1, src/trace/branches.ts): each seed word is hashed
    * with the index (MurmurHash3's 32-bit finaliser, Appleby 2011). The tracer starts one substream
    * per ray, so what a ray draws never depends on how many numbers the rays before it used: two
    * stacks traced with the same key keep their rays paired (common random numbers) until a ray's
    * own history differs.
    */
-  startSubstream(index: number): void {
+  startSubstream(index: number, branch = 0): void {
     const s = this.s;
     const b = this.base;
     const i4 = (index << 2) >>> 0;
-    s[0] = fmix32((b[0] ^ fmix32(i4 + 1)) >>> 0);
-    s[1] = fmix32((b[1] ^ fmix32(i4 + 2)) >>> 0);
-    s[2] = fmix32((b[2] ^ fmix32(i4 + 3)) >>> 0);
-    s[3] = fmix32((b[3] ^ fmix32(i4 + 4)) >>> 0);
+    // A branch number (src/trace/branches.ts) gives a further substream of the same index.
+    const k = branch === 0 ? 0 : fmix32((Math.imul(branch, 0x9e3779b9) ^ 0x5bd1e995) >>> 0);
+    s[0] = fmix32((b[0] ^ fmix32(i4 + 1) ^ k) >>> 0);
+    s[1] = fmix32((b[1] ^ fmix32(i4 + 2) ^ k) >>> 0);
+    s[2] = fmix32((b[2] ^ fmix32(i4 + 3) ^ k) >>> 0);
+    s[3] = fmix32((b[3] ^ fmix32(i4 + 4) ^ k) >>> 0);
     if ((s[0] | s[1] | s[2] | s[3]) === 0) s[0] = 0x9e3779b9;
   }
 

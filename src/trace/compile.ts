@@ -8,6 +8,8 @@ import { planarTile, SURFACE_LAMBERTIAN, SURFACE_MESH, type SurfaceTile } from "
 import { isBacksheet, isIdealRear, type BacksheetSpec, type BoundaryKind, type FilmSpec, type StackSpec, type TextureSpec } from "../study/stackTypes.js";
 import { reflectanceAt } from "../study/reflectanceCsv.js";
 import { channelNamesOfStack } from "./channels.js";
+import { BRANCH_SLOTS, MAX_BRANCHES } from "./branches.js";
+import { STATE_LENGTH } from "./rayState.js";
 import {
   REAR_IDEAL_LAMBERTIAN,
   REAR_IDEAL_MIRROR,
@@ -29,12 +31,31 @@ export interface CompileOptions {
   maxEvents?: number;
   /** Expected-value mode: weight below which absorption turns analog (default 0.2). */
   rouletteWeight?: number;
+  /**
+   * Expected-value mode: an interface event on the way in splits the ray into its reflected and
+   * transmitted parts when both weigh at least this much (0 = never split, sample the branch).
+   * Default 0.01 where the absorber's single-pass optical depth αW ≥ 0.05, else 0.
+   */
+  splitMinWeight?: number;
   /** Rows of the interface tables over cosθ (default 1024). */
   nCos?: number;
 }
 
 export const DEFAULT_ESTIMATOR: Estimator = "expected";
 export const DEFAULT_MAX_EVENTS = 10000;
+export const DEFAULT_SPLIT_MIN_WEIGHT = 0.01;
+/** Single-pass optical depth αW of the absorber from which the first pass is split by default. */
+export const SPLIT_MIN_OPTICAL_DEPTH = 0.05;
+
+/**
+ * The per-wavelength estimator choice: first-pass splitting where one pass through the absorber
+ * takes a fair share of the light (αW ≥ 0.05), so the first reflection dominates the variance;
+ * not in the weakly absorbing tail, where each split branch would run the whole light trap
+ * (measured in `npm run bench`, DEVELOPERS.md "Tracer efficiency").
+ */
+function defaultSplitMinWeight(singlePassDepth: number): number {
+  return singlePassDepth >= SPLIT_MIN_OPTICAL_DEPTH ? DEFAULT_SPLIT_MIN_WEIGHT : 0;
+}
 export const DEFAULT_ROULETTE_WEIGHT = 0.2;
 
 /**
@@ -227,9 +248,11 @@ export function compileStack(
     estimator: options.estimator ?? DEFAULT_ESTIMATOR,
     rouletteWeight: options.rouletteWeight ?? DEFAULT_ROULETTE_WEIGHT,
     maxEvents: options.maxEvents ?? DEFAULT_MAX_EVENTS,
+    splitMinWeight: options.splitMinWeight ?? defaultSplitMinWeight(mediumAlphaPerUm[nLayers + 1] * thicknessUm),
+    branches: new Float64Array(MAX_BRANCHES * BRANCH_SLOTS),
     scratchRow: new Float64Array(4 + 2 * 64),
     contrib: new Float64Array(channels.length),
-    state: new Float64Array(32),
+    state: new Float64Array(STATE_LENGTH),
     query: new Float64Array(Q_LENGTH),
   };
 }

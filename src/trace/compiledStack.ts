@@ -76,6 +76,10 @@ export interface CompiledStack {
   /** Expected-value mode: below this weight a ray continues with analog absorption. */
   rouletteWeight: number;
   maxEvents: number;
+  /** Expected-value mode: least weight of both parts for an interface event to split the ray (0 = never). */
+  splitMinWeight: number;
+  /** Pending branches of the ray in flight (src/trace/branches.ts). */
+  branches: Float64Array;
   /** Scratch (not shared between threads): interface row, per-ray contributions, state, hit. */
   scratchRow: Float64Array;
   contrib: Float64Array;

@@ -2,7 +2,8 @@ import type { RandomStream } from "../random/stream.js";
 import { lookupInterface } from "../optics/interfaceTable.js";
 import type { CompiledInterface, CompiledStack } from "./compiledStack.js";
 import { rouletteCheck } from "./bulkTransport.js";
-import { ANALOG, DIED, DX, DY, DZ, EX, EY, EZ, NX, NY, NZ, PA, PB, REFLECT, SX, SY, SZ, TRANSMIT, W } from "./rayState.js";
+import { canBranch, pushBranch } from "./branches.js";
+import { ANALOG, DIED, ENTERED, SPLIT, DX, DY, DZ, EX, EY, EZ, NX, NY, NZ, PA, PB, REFLECT, SX, SY, SZ, TRANSMIT, W } from "./rayState.js";
 
 /**
  * Scattering at an interface with films, normal N (state NX..NZ) pointing into the upper medium.
@@ -96,25 +97,50 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
       if (wNew > 0) contrib[sink >= 0 ? sink : iface.filmChan0 >= 0 ? iface.filmChan0 : cs.chUnresolved] += wNew;
       return DIED;
     }
+    const pR = Rpow / (Rpow + pT);
+    // Split on the way in (events from above before the ray first reaches the absorber): the
+    // reflected part waits as a branch, the transmitted part goes on now. The light's first
+    // reflection, the largest loss at most wavelengths, is then an expected value instead of a
+    // coin toss; later events stay sampled, where splitting would grow trees of little weight.
+    if (!up && st[ENTERED] === 0 && wNew * (pR < 0.5 ? pR : 1 - pR) >= cs.splitMinWeight && cs.splitMinWeight > 0 && canBranch(st)) {
+      reflectInto(st, dx, dy, dz, dn, nx, ny, nz, sx, sy, sz, Es, Ep, Rs, Rp);
+      pushBranch(cs, st, wNew * pR);
+      st[W] = wNew * (1 - pR);
+      transmitInto(st, iface, up, cosI, dx, dy, dz, nx, ny, nz, sx, sy, sz, Es, Ep, Ts, Tp);
+      rouletteCheck(cs, st, rng);
+      return SPLIT;
+    }
     st[W] = wNew;
     reflect = u * (Rpow + pT) < Rpow;
     rouletteCheck(cs, st, rng);
   }
 
   if (reflect) {
-    const rdx = dx - 2 * dn * nx, rdy = dy - 2 * dn * ny, rdz = dz - 2 * dn * nz;
-    st[DX] = rdx;
-    st[DY] = rdy;
-    st[DZ] = rdz;
-    // E' = √Rs·Es·s − √Rp·Ep·p_r (keeps the line of polarisation at normal incidence).
-    st[SX] = sx;
-    st[SY] = sy;
-    st[SZ] = sz;
-    st[PA] = Es * Math.sqrt(Rs);
-    st[PB] = -Ep * Math.sqrt(Rp);
-    setPolarization(st);
+    reflectInto(st, dx, dy, dz, dn, nx, ny, nz, sx, sy, sz, Es, Ep, Rs, Rp);
     return REFLECT;
   }
+  transmitInto(st, iface, up, cosI, dx, dy, dz, nx, ny, nz, sx, sy, sz, Es, Ep, Ts, Tp);
+  return TRANSMIT;
+}
+
+/** Specular reflection of direction d at normal n, with the polarisation after it. */
+function reflectInto(st: Float64Array, dx: number, dy: number, dz: number, dn: number, nx: number, ny: number, nz: number,
+  sx: number, sy: number, sz: number, Es: number, Ep: number, Rs: number, Rp: number): void {
+  st[DX] = dx - 2 * dn * nx;
+  st[DY] = dy - 2 * dn * ny;
+  st[DZ] = dz - 2 * dn * nz;
+  // E' = √Rs·Es·s − √Rp·Ep·p_r (keeps the line of polarisation at normal incidence).
+  st[SX] = sx;
+  st[SY] = sy;
+  st[SZ] = sz;
+  st[PA] = Es * Math.sqrt(Rs);
+  st[PB] = -Ep * Math.sqrt(Rp);
+  setPolarization(st);
+}
+
+/** Refraction of direction d at normal n (Snell), with the polarisation after it. */
+function transmitInto(st: Float64Array, iface: CompiledInterface, up: boolean, cosI: number, dx: number, dy: number, dz: number,
+  nx: number, ny: number, nz: number, sx: number, sy: number, sz: number, Es: number, Ep: number, Ts: number, Tp: number): void {
   // Snell (real indices): t = η d + (η cosθi − cosθt) n_i, n_i the normal facing the incoming ray.
   const n1 = up ? iface.nLower : iface.nUpper;
   const n2 = up ? iface.nUpper : iface.nLower;
@@ -136,7 +162,6 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   st[PA] = Es * Math.sqrt(Ts);
   st[PB] = Ep * Math.sqrt(Tp);
   setPolarization(st);
-  return TRANSMIT;
 }
 
 /** E = a·s + b·(s × d) from the state slots (d = the new direction), normalised; s when both vanish. */

@@ -3,7 +3,8 @@ import type { RandomStream } from "../random/stream.js";
 import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
 import { SURFACE_LAMBERTIAN } from "../geometry/surfaceTile.js";
 import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
-import { DIED, DZ, EVENTS, HIT, PATH, REFLECT, T, TRANSMIT, TWO_PI, W, Z, advance, setNormal } from "./rayState.js";
+import { BRANCH_SERIAL, BRANCHES, DIED, DZ, ENTERED, EVENTS, HIT, PATH, RAY_INDEX, REFLECT, SPLIT, T, TRANSMIT, TWO_PI, W, Z, advance, setNormal } from "./rayState.js";
+import { popBranch, setBranchMedium } from "./branches.js";
 import { launchRay, polarizationMode, setLaunchAngles, setLaunchAzimuth, type Polarization } from "./launch.js";
 import { frontSearch, rearSearch, rearSearchFromBehind } from "./surfaceSearch.js";
 import { absorbAlong } from "./bulkTransport.js";
@@ -30,8 +31,7 @@ const NOT_AT_TEXTURE = -3;
  * Traces nRays rays arriving from the incidence medium at polar angle θ and azimuth φ (null = a
  * random azimuth per ray) and adds them to the tally (docs/contracts.md, Tracer): per channel
  * [Σc, Σc²] of each ray's contribution c, then [nRays, Σp, Σp², events] with p the ray's optical
- * path in the absorber divided by its thickness. Each ray's contributions sum to 1. Ray r draws
- * from substream r of rng (RandomStream.startSubstream).
+ * path in the absorber divided by its thickness. Each ray's contributions sum to 1.
  */
 export function traceBatch(
   cs: CompiledStack,
@@ -62,8 +62,6 @@ export function traceBatch(
   setLaunchAngles(st, Math.sin(thetaDeg * DEG), Math.cos(thetaDeg * DEG));
   if (phiDeg !== null) setLaunchAzimuth(st, phiDeg * DEG);
   for (let r = 0; r < nRays; r++) {
-    // One substream per ray: rays stay paired across stacks traced with the same stream (CRN).
-    rng.startSubstream(r);
     if (phiDeg === null) setLaunchAzimuth(st, TWO_PI * rng.next());
     launchRay(cs, polMode, rng, fromRear);
     traceRay(cs, rng, startMedium);
@@ -76,18 +74,25 @@ export function traceBatch(
   foldBatchTotals(tally, nC, nRays, pathSum, pathSumSq, events);
 }
 
-/** Follows the launched ray from medium to medium until it ends; its interface events → st[EVENTS]. */
+/**
+ * Follows the launched ray from medium to medium until it ends, then each of its pending branches
+ * (split interface events); its interface events → st[EVENTS].
+ */
 function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number): void {
   const st = cs.state;
   const nL = cs.nLayers;
   const ABS = nL + 1;
   const maxEvents = cs.maxEvents;
   st[EVENTS] = 0;
+  st[BRANCHES] = 0;
+  st[BRANCH_SERIAL] = 0;
+  st[ENTERED] = 0;
   let m = startMedium;
   for (;;) {
-    if (st[EVENTS] >= maxEvents) break;
     let next: number;
-    if (m === ABS) {
+    if (st[EVENTS] >= maxEvents) {
+      next = RAY_LOST;
+    } else if (m === ABS) {
       next = stepInAbsorber(cs, st, rng);
     } else if (m > ABS) {
       next = m === ABS + 1 ? stepOntoRear(cs, st, m, rng) : NOT_AT_TEXTURE;
@@ -96,11 +101,16 @@ function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number): vo
       next = m === nL ? stepOntoFront(cs, st, rng) : NOT_AT_TEXTURE;
       if (next === NOT_AT_TEXTURE) next = stepInPlanarLayer(cs, st, m, rng);
     }
-    if (next === RAY_ENDED) return;
-    if (next === RAY_LOST) break;
-    m = next;
+    if (next >= 0) {
+      if (next === ABS) st[ENTERED] = 1;
+      m = next;
+      continue;
+    }
+    // This branch ended: a lost one reports its weight; then the next pending branch, if any.
+    if (next === RAY_LOST) cs.contrib[cs.chUnresolved] += st[W];
+    m = popBranch(cs, st, rng);
+    if (m < 0) return;
   }
-  cs.contrib[cs.chUnresolved] += st[W];
 }
 
 /**
@@ -122,7 +132,7 @@ function stepInAbsorber(cs: CompiledStack, st: Float64Array, rng: RandomStream):
     advance(st);
     st[EVENTS]++;
     if (cs.frontTile.kind === SURFACE_LAMBERTIAN) return lambertianFrontFromBelow(cs, st, rng) ? cs.nLayers : ABS;
-    return afterInterface(interfaceEvent(cs, st, cs.front, rng), ABS, cs.nLayers);
+    return afterInterface(cs, st, interfaceEvent(cs, st, cs.front, rng), ABS, cs.nLayers);
   }
   found = rearSearch(cs, st);
   if (found === LOST) return RAY_LOST;
@@ -138,7 +148,7 @@ function atRear(cs: CompiledStack, st: Float64Array, rng: RandomStream): number 
   st[EVENTS]++;
   if (cs.rearKind === REAR_IDEAL_MIRROR || cs.rearKind === REAR_IDEAL_LAMBERTIAN) return idealRear(cs, st, rng) ? RAY_ENDED : ABS;
   // into the first rear layer, or (without rear layers) absorbed/escaped in the exit medium's sink
-  return afterInterface(interfaceEvent(cs, st, cs.rear as CompiledInterface, rng), ABS, ABS + 1);
+  return afterInterface(cs, st, interfaceEvent(cs, st, cs.rear as CompiledInterface, rng), ABS, ABS + 1);
 }
 
 /**
@@ -152,7 +162,7 @@ function stepOntoRear(cs: CompiledStack, st: Float64Array, m: number, rng: Rando
   if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
   advance(st);
   st[EVENTS]++;
-  return afterInterface(interfaceEvent(cs, st, cs.rear as CompiledInterface, rng), m, m - 1);
+  return afterInterface(cs, st, interfaceEvent(cs, st, cs.rear as CompiledInterface, rng), m, m - 1);
 }
 
 /**
@@ -175,7 +185,7 @@ function stepBehindAbsorber(cs: CompiledStack, st: Float64Array, m: number, rng:
     setNormal(st, 0, 0, 1);
     const iface = cs.rearBottomInterfaces[j];
     if (iface === null) return backsheetEvent(cs, st, rng) ? RAY_ENDED : m;
-    return afterInterface(interfaceEvent(cs, st, iface, rng), m, m + 1);
+    return afterInterface(cs, st, interfaceEvent(cs, st, iface, rng), m, m + 1);
   }
   if (vz > 0) {
     // j ≥ 1 here (the first rear layer meets the rear texture in stepOntoRear)
@@ -185,7 +195,7 @@ function stepBehindAbsorber(cs: CompiledStack, st: Float64Array, m: number, rng:
     st[Z] = cs.rearBottomZUm[j - 1];
     st[EVENTS]++;
     setNormal(st, 0, 0, 1);
-    return afterInterface(interfaceEvent(cs, st, cs.rearBottomInterfaces[j - 1] as CompiledInterface, rng), m, m - 1);
+    return afterInterface(cs, st, interfaceEvent(cs, st, cs.rearBottomInterfaces[j - 1] as CompiledInterface, rng), m, m - 1);
   }
   return RAY_LOST;
 }
@@ -206,7 +216,7 @@ function stepOntoFront(cs: CompiledStack, st: Float64Array, rng: RandomStream): 
     randomPolarization(st, rng);
     return ABS;
   }
-  return afterInterface(interfaceEvent(cs, st, cs.front, rng), m, ABS);
+  return afterInterface(cs, st, interfaceEvent(cs, st, cs.front, rng), m, ABS);
 }
 
 /** Planar thick layer m (or the incidence medium, m = 0): straight to its top or bottom plane. */
@@ -223,7 +233,7 @@ function stepInPlanarLayer(cs: CompiledStack, st: Float64Array, m: number, rng: 
     st[Z] = cs.layerTopZUm[m];
     st[EVENTS]++;
     setNormal(st, 0, 0, 1);
-    return afterInterface(interfaceEvent(cs, st, cs.topInterfaces[m - 1], rng), m, m - 1);
+    return afterInterface(cs, st, interfaceEvent(cs, st, cs.topInterfaces[m - 1], rng), m, m - 1);
   }
   if (vz < 0) {
     st[T] = (cs.layerTopZUm[m + 1] - st[Z]) / vz;
@@ -232,13 +242,17 @@ function stepInPlanarLayer(cs: CompiledStack, st: Float64Array, m: number, rng: 
     st[Z] = cs.layerTopZUm[m + 1];
     st[EVENTS]++;
     setNormal(st, 0, 0, 1);
-    return afterInterface(interfaceEvent(cs, st, cs.topInterfaces[m], rng), m, m + 1);
+    return afterInterface(cs, st, interfaceEvent(cs, st, cs.topInterfaces[m], rng), m, m + 1);
   }
   return RAY_LOST;
 }
 
-/** The medium after an interface event: stays on reflection, crosses on transmission. */
-function afterInterface(outcome: number, here: number, across: number): number {
+/** The medium after an interface event: stays on reflection, crosses on transmission (a split's reflected branch stays). */
+function afterInterface(cs: CompiledStack, st: Float64Array, outcome: number, here: number, across: number): number {
   if (outcome === DIED) return RAY_ENDED;
+  if (outcome === SPLIT) {
+    setBranchMedium(cs, st, here);
+    return across;
+  }
   return outcome === TRANSMIT ? across : here;
 }

@@ -14,8 +14,12 @@ export const SX = 17, SY = 18, SZ = 19, PA = 20, PB = 21;
 export const L_SIN_T = 22, L_COS_T = 23, L_COS_P = 24, L_SIN_P = 25;
 /** Interface events of the ray so far. */
 export const EVENTS = 26;
+/** Pending branches of the ray (split interface events, src/trace/branches.ts), the ray's index in its batch, branches started. */
+export const BRANCHES = 27, RAY_INDEX = 28, BRANCH_SERIAL = 29;
+/** 1 once the branch in flight has entered the absorber (splitting is for the first pass only). */
+export const ENTERED = 30;
 /** Number of state slots. */
-export const STATE_LENGTH = 27;
+export const STATE_LENGTH = 31;
 
 /** Search result: a hit, its distance in st[T] (NO_HIT and LOST come from the geometry). */
 export const HIT = 0;
@@ -24,6 +28,8 @@ export const HIT = 0;
 export const REFLECT = 0;
 export const TRANSMIT = 1;
 export const DIED = 2;
+/** Both: the state continues transmitted, the reflected part waits as a branch. */
+export const SPLIT = 3;
 
 export const TWO_PI = 2 * Math.PI;
 

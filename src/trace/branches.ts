@@ -1,0 +1,77 @@
+import type { RandomStream } from "../random/stream.js";
+import type { CompiledStack } from "./compiledStack.js";
+import { rouletteCheck } from "./bulkTransport.js";
+import { ANALOG, BRANCH_SERIAL, BRANCHES, DX, ENTERED, DY, DZ, EX, EY, EZ, RAY_INDEX, TAU, W, X, Y, Z } from "./rayState.js";
+
+/**
+ * Pending branches of the ray in flight. In expected-value mode an interface event may split the
+ * ray (interfaceEvent): the transmitted part goes on at once, the reflected part waits here with
+ * its share of the weight and is traced after the current branch ends (splitting, the expected
+ * value of the reflect/transmit choice). Every branch belongs to the same ray: its contributions
+ * add to the ray's, which still sum to 1. A fixed stack in cs.branches; nothing is allocated.
+ */
+export const MAX_BRANCHES = 64;
+/** Saved per branch: position, direction, polarisation, weight, τ budget, analog flag, medium. */
+export const BRANCH_SLOTS = 13;
+const B_MEDIUM = 12;
+
+/** Whether another branch fits. */
+export function canBranch(st: Float64Array): boolean {
+  return st[BRANCHES] < MAX_BRANCHES;
+}
+
+/** Saves the ray's current state, with weight w, as a pending branch (its medium is set by setBranchMedium). */
+export function pushBranch(cs: CompiledStack, st: Float64Array, w: number): void {
+  const b = cs.branches;
+  const o = st[BRANCHES] * BRANCH_SLOTS;
+  b[o] = st[X];
+  b[o + 1] = st[Y];
+  b[o + 2] = st[Z];
+  b[o + 3] = st[DX];
+  b[o + 4] = st[DY];
+  b[o + 5] = st[DZ];
+  b[o + 6] = st[EX];
+  b[o + 7] = st[EY];
+  b[o + 8] = st[EZ];
+  b[o + 9] = w;
+  b[o + 10] = st[TAU];
+  b[o + 11] = st[ANALOG];
+  b[o + B_MEDIUM] = -1;
+  st[BRANCHES]++;
+}
+
+/** The medium of the branch pushed last. */
+export function setBranchMedium(cs: CompiledStack, st: Float64Array, m: number): void {
+  cs.branches[(st[BRANCHES] - 1) * BRANCH_SLOTS + B_MEDIUM] = m;
+}
+
+/**
+ * Restores the branch pushed last into the state and returns its medium, or −1 when none is left.
+ * The branch draws from its own substream (ray index, branch serial number), so a branch's random numbers
+ * do not depend on how many the branches before it used (common random numbers stay paired).
+ */
+export function popBranch(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
+  const n = st[BRANCHES];
+  if (n <= 0) return -1;
+  const b = cs.branches;
+  const o = (n - 1) * BRANCH_SLOTS;
+  st[X] = b[o];
+  st[Y] = b[o + 1];
+  st[Z] = b[o + 2];
+  st[DX] = b[o + 3];
+  st[DY] = b[o + 4];
+  st[DZ] = b[o + 5];
+  st[EX] = b[o + 6];
+  st[EY] = b[o + 7];
+  st[EZ] = b[o + 8];
+  st[W] = b[o + 9];
+  st[TAU] = b[o + 10];
+  st[ANALOG] = b[o + 11];
+  st[BRANCHES] = n - 1;
+  // Branches are only made before the ray enters the absorber (interfaceEvent).
+  st[ENTERED] = 0;
+  st[BRANCH_SERIAL]++;
+  rng.startSubstream(st[RAY_INDEX], st[BRANCH_SERIAL]);
+  rouletteCheck(cs, st, rng);
+  return b[o + B_MEDIUM];
+}
