@@ -1,6 +1,5 @@
 import type { RandomStream } from "../random/stream.js";
 import type { CompiledStack } from "./compiledStack.js";
-import { rouletteCheck } from "./bulkTransport.js";
 import { ANALOG, BRANCH_SERIAL, BRANCHES, DX, ENTERED, DY, DZ, EX, EY, EZ, RAY_INDEX, TAU, W, X, Y, Z } from "./rayState.js";
 
 /**
@@ -72,6 +71,5 @@ export function popBranch(cs: CompiledStack, st: Float64Array, rng: RandomStream
   st[ENTERED] = 0;
   st[BRANCH_SERIAL]++;
   rng.startSubstream(st[RAY_INDEX], st[BRANCH_SERIAL]);
-  rouletteCheck(cs, st, rng);
   return b[o + B_MEDIUM];
 }

@@ -107,12 +107,13 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
       pushBranch(cs, st, wNew * pR);
       st[W] = wNew * (1 - pR);
       transmitInto(st, iface, up, cosI, dx, dy, dz, nx, ny, nz, sx, sy, sz, Es, Ep, Ts, Tp);
-      rouletteCheck(cs, st, rng);
       return SPLIT;
     }
     st[W] = wNew;
     reflect = u * (Rpow + pT) < Rpow;
-    rouletteCheck(cs, st, rng);
+    // Roulette is for the bulk: before the absorber, small branches stay expected-value (the split
+    // weight floor bounds their number) so that later events of the first pass are split too.
+    if (st[ENTERED] !== 0) rouletteCheck(cs, st, rng);
   }
 
   if (reflect) {

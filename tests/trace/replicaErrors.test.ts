@@ -1,0 +1,73 @@
+import { describe, expect, it } from "vitest";
+import { MaterialRegistry } from "../../src/materials/registry.js";
+import { RandomStream, streamKey } from "../../src/random/stream.js";
+import type { StackSpec } from "../../src/study/stackTypes.js";
+import { compileStack } from "../../src/trace/compile.js";
+import { traceBatch } from "../../src/trace/kernel.js";
+import { createTally, summarizeTally } from "../../src/trace/tally.js";
+
+// The tracer benchmark stack (bench/trace.ts): bare upright pyramids, 180 µm Si, ideal mirror 0.95.
+const BENCH: StackSpec = {
+  incidence: "air",
+  layers: [],
+  front: { texture: { type: "upright-pyramids", baseUm: 10, facetAngleDeg: 54.74 }, films: [] },
+  absorber: { material: "Si-Green2008", thicknessUm: 180 },
+  rear: { ideal: { kind: "mirror", reflectance: 0.95 } },
+  boundary: "periodic",
+};
+const PLANAR: StackSpec = { ...BENCH, front: { texture: { type: "planar" }, films: [{ material: "SiNx-Vogt2015-n1.91", thicknessNm: 75 }] } };
+// The demo random-pyramid texture (configs/demo-random-pyramids.study.json) on a silver rear.
+const RANDOM: StackSpec = {
+  ...BENCH,
+  front: { texture: { type: "random-pyramids", meanBaseUm: 5, sizeSpread: 0.3, count: 16, tileUm: 10, facetAngleDeg: 54.74, seed: 7 }, films: [{ material: "SiNx-Vogt2015-n1.91", thicknessNm: 75 }] },
+  rear: { texture: { type: "planar" }, films: [], exit: "Ag-JohnsonChristy1972" },
+};
+
+const REPLICAS = 200;
+const RAYS = 100;
+
+/**
+ * Spread of REPLICAS independent runs against the standard error each run reports (its RMS), for R
+ * and A_absorber. The default estimator's contributions are independent from ray to ray (one
+ * substream per ray), so the per-ray sample variance must describe the spread; the sampling error
+ * of a standard deviation from 200 replicas is about 1/√(2·199) = 5 %, so ±15 % is a 3σ check.
+ */
+function spreadOverReported(stack: StackSpec, wavelengthNm: number, thetaDeg: number): { R: number; A: number } {
+  const cs = compileStack(stack, MaterialRegistry.withBuiltins(), wavelengthNm);
+  const channels = [cs.channels.indexOf("R"), cs.channels.indexOf("A_absorber")];
+  const means = channels.map(() => [] as number[]);
+  const se2 = channels.map(() => 0);
+  for (let r = 0; r < REPLICAS; r++) {
+    const t = createTally(cs);
+    traceBatch(cs, thetaDeg, null, RAYS, new RandomStream(streamKey(5, "replica", wavelengthNm, r)), t);
+    const s = summarizeTally(cs.channels, t);
+    channels.forEach((ic, k) => {
+      means[k].push(s.mean[ic]);
+      se2[k] += s.stderr[ic] ** 2;
+    });
+  }
+  const ratio = (k: number): number => {
+    const m = means[k].reduce((a, b) => a + b, 0) / REPLICAS;
+    const spread = Math.sqrt(means[k].reduce((a, x) => a + (x - m) ** 2, 0) / (REPLICAS - 1));
+    return spread / Math.sqrt(se2[k] / REPLICAS);
+  };
+  return { R: ratio(0), A: ratio(1) };
+}
+
+describe("reported standard errors match the spread of 200 independent replicas (±15 %)", () => {
+  const cases: [string, StackSpec, number, number][] = [
+    ["bench pyramids 1000 nm", BENCH, 1000, 0],
+    ["bench pyramids 600 nm", BENCH, 600, 0],
+    ["bench pyramids 1150 nm", BENCH, 1150, 0],
+    ["planar SiNx 900 nm, 30°", PLANAR, 900, 30],
+    ["random pyramids 1000 nm, 30°", RANDOM, 1000, 30],
+  ];
+  for (const [label, stack, wl, theta] of cases) {
+    it(label, () => {
+      const q = spreadOverReported(stack, wl, theta);
+      process.stdout.write(`${label}: spread/reported R ${q.R.toFixed(3)}, A ${q.A.toFixed(3)}\n`);
+      expect(Math.abs(q.R - 1)).toBeLessThan(0.15);
+      expect(Math.abs(q.A - 1)).toBeLessThan(0.15);
+    });
+  }
+});
