@@ -1,16 +1,19 @@
 /**
  * `npm run bench`: the project's speed and memory figures (never asserted in unit tests).
- * Parts: interface optics (exact vs tabulated), the tracer reference case, the sweep runner's
- * parallel efficiency, and the yearly yield. `LIGHTFOLD_BENCH=optics,trace` picks parts.
+ * Parts: optics (exact vs tabulated interface optics), trace (the tracer reference case: speed and
+ * estimator efficiency against a native C reference), paired (common-random-number gain), sweep
+ * (pool efficiency), yield. `LIGHTFOLD_BENCH=optics,trace` picks parts.
  */
 import { runOpticsBench } from "./optics.js";
 import { runTraceBench } from "./trace.js";
 import { runSweepBench } from "./sweep.js";
 import { runYieldBench } from "./yield.js";
+import { runPairedBench } from "./paired.js";
 
 const parts: Record<string, () => Promise<void>> = {
   optics: runOpticsBench,
   trace: runTraceBench,
+  paired: runPairedBench,
   sweep: runSweepBench,
   yield: runYieldBench,
 };

@@ -4,6 +4,9 @@ import type { StackSpec } from "../src/study/stackTypes.js";
 import { compileStack } from "../src/trace/compile.js";
 import type { Estimator } from "../src/trace/compiledStack.js";
 import { traceBatch } from "../src/trace/kernel.js";
+import type { CompileOptions } from "../src/trace/compile.js";
+import { availableParallelism, loadavg } from "node:os";
+import { buildNativeTracer, type NativeTracer } from "./native.js";
 import { createTally, summarizeTally } from "../src/trace/tally.js";
 
 /**
@@ -100,68 +103,103 @@ export async function runTraceBench(): Promise<void> {
         ` ${fmt(r.R, 9, 4)} ${fmt(r.A, 8, 4)} ${fmt(r.A_rear, 9, 4)} ${fmt(r.T, 7, 4)} ${fmt(r.wallSeconds, 8, 2)}\n`,
     );
   }
-  if (process.env.LIGHTFOLD_BENCH_ESTIMATORS !== "0") printEstimatorComparison();
+  if (process.env.LIGHTFOLD_BENCH_ESTIMATORS !== "0") printEfficiency();
 }
 
 function fmt(x: number, width: number, digits: number): string {
   return x.toFixed(digits).padStart(width);
 }
 
-export interface EstimatorFigure {
-  wavelengthNm: number;
-  estimator: Estimator;
-  rouletteWeight: number;
-  /** Per-ray variance of the A_absorber and R contributions (SE² · N). */
-  varA: number;
-  varR: number;
-  eventsPerRay: number;
-  /** CPU seconds per ray. */
-  secondsPerRay: number;
+/** One timed run: CPU seconds, events, and mean ± SE of R and A_absorber. */
+interface TimedRun {
+  seconds: number;
+  rays: number;
+  events: number;
+  R: [number, number];
+  A: [number, number];
+  A_rear: [number, number];
+}
+
+/** The estimators the efficiency table compares (lightfold's own, in this thread). */
+const CONFIGS: { name: string; options: CompileOptions }[] = [
+  { name: "analog", options: { estimator: "analog" } },
+  { name: "expected, no split", options: { estimator: "expected", splitMinWeight: 0 } },
+  { name: "default", options: {} },
+];
+
+function lightfoldRun(wavelengthNm: number, options: CompileOptions, nRays: number, seed: number): TimedRun {
+  const cs = compileStack(BENCH_STACK, MaterialRegistry.withBuiltins(), wavelengthNm, options);
+  traceBatch(cs, 0, 0, 5000, new RandomStream(streamKey(seed, "warmup", wavelengthNm)), createTally(cs));
+  const tally = createTally(cs);
+  const c0 = process.cpuUsage();
+  traceBatch(cs, 0, 0, nRays, new RandomStream(streamKey(seed, "efficiency", wavelengthNm)), tally);
+  const c = process.cpuUsage(c0);
+  const s = summarizeTally(cs.channels, tally);
+  const at = (name: string): [number, number] => [s.mean[cs.channels.indexOf(name)], s.stderr[cs.channels.indexOf(name)]];
+  return { seconds: (c.user + c.system) * 1e-6, rays: nRays, events: s.eventsPerRay * nRays, R: at("R"), A: at("A_absorber"), A_rear: at("A_rear") };
+}
+
+function nativeRun(native: NativeTracer, wavelengthNm: number, nRays: number, seed: number): TimedRun {
+  const r = native.run(wavelengthNm, nRays, seed);
+  return { seconds: r.seconds, rays: r.rays, events: r.events, R: r.channels.R, A: r.channels.A_absorber, A_rear: r.channels.A_rear };
+}
+
+/** Best (least CPU time per ray) of interleaved repetitions, and the pooled mean ± SE of the channels. */
+function fastest(runs: TimedRun[]): TimedRun {
+  return runs.reduce((a, b) => (b.seconds / b.rays < a.seconds / a.rays ? b : a));
 }
 
 /**
- * Variance per unit cost of the estimators on the reference case. Cost is taken as (interface
- * events + 1) per ray, which tracks CPU time and, unlike a timer, does not depend on machine load.
+ * Speed and efficiency against the native C reference (bench/native/pyramids.c): native, lightfold
+ * analog and the estimators run in alternation (LIGHTFOLD_BENCH_TRACE_REPEATS rounds, default 3,
+ * LIGHTFOLD_BENCH_TRACE_RAYS rays each, default 200 000), the fastest of each counts, so a busy
+ * machine slows all alike. FOM = 1/(SE² × CPU seconds); ratios are to the native analog kernel.
  */
-export function compareEstimators(nRays = 40_000, rouletteWeights = [0.01, 0.2]): EstimatorFigure[] {
-  const registry = MaterialRegistry.withBuiltins();
-  const out: EstimatorFigure[] = [];
-  const configs: [Estimator, number][] = [["analog", 0], ...rouletteWeights.map((w): [Estimator, number] => ["expected", w])];
+function printEfficiency(): void {
+  const nRays = Number(process.env.LIGHTFOLD_BENCH_TRACE_RAYS ?? "200000");
+  const rounds = Number(process.env.LIGHTFOLD_BENCH_TRACE_REPEATS ?? "3");
+  const native = buildNativeTracer();
+  const load = loadavg()[0];
+  process.stdout.write(
+    `\nefficiency: ${nRays} rays per run, ${rounds} interleaved rounds, fastest counts; load average ${load.toFixed(1)} on ${availableParallelism()} cores\n`,
+  );
+  if (typeof native === "string") process.stdout.write(`  native reference skipped: ${native}; no ratios to native\n`);
+  else process.stdout.write(`  native reference: bench/native/pyramids.c built with ${native.compiler} -O2 (Si n, k passed from Si-Green2008)\n`);
   for (const wavelengthNm of BENCH_WAVELENGTHS_NM) {
-    for (const [estimator, rouletteWeight] of configs) {
-      const cs = compileStack(BENCH_STACK, registry, wavelengthNm, { estimator, rouletteWeight });
-      const tally = createTally(cs);
-      const c0 = process.cpuUsage();
-      traceBatch(cs, 0, 0, nRays, new RandomStream(streamKey(BENCH_SEED, "estimators", wavelengthNm)), tally);
-      const cpu = process.cpuUsage(c0);
-      const s = summarizeTally(cs.channels, tally);
-      const v = (name: string): number => s.stderr[cs.channels.indexOf(name)] ** 2 * nRays;
-      out.push({
-        wavelengthNm,
-        estimator,
-        rouletteWeight,
-        varA: v("A_absorber"),
-        varR: v("R"),
-        eventsPerRay: s.eventsPerRay,
-        secondsPerRay: ((cpu.user + cpu.system) * 1e-6) / nRays,
-      });
+    const byName = new Map<string, TimedRun[]>();
+    const add = (name: string, r: TimedRun): void => void byName.set(name, [...(byName.get(name) ?? []), r]);
+    for (let k = 0; k < rounds; k++) {
+      if (typeof native !== "string") add("native analog", nativeRun(native, wavelengthNm, nRays, BENCH_SEED + k));
+      for (const c of CONFIGS) add(c.name, lightfoldRun(wavelengthNm, c.options, nRays, BENCH_SEED + k));
     }
-  }
-  return out;
-}
-
-function printEstimatorComparison(): void {
-  const rows = compareEstimators();
-  process.stdout.write("\nestimators (same case, 40000 rays; merit = 1/(variance per ray × (events per ray + 1)), relative to analog)\n");
-  process.stdout.write("  λ (nm)  estimator        var A    var R   events/ray  merit A  merit R\n");
-  let base = rows[0];
-  for (const r of rows) {
-    if (r.estimator === "analog") base = r;
-    const merit = (v: number, x: EstimatorFigure): number => 1 / (v * (x.eventsPerRay + 1));
-    const name = r.estimator === "analog" ? "analog" : `expected ${r.rouletteWeight}`;
-    process.stdout.write(
-      `  ${String(r.wavelengthNm).padStart(6)}  ${name.padEnd(14)} ${fmt(r.varA, 8, 4)} ${fmt(r.varR, 8, 4)} ${fmt(r.eventsPerRay, 11, 2)}` +
-        ` ${fmt(merit(r.varA, r) / merit(base.varA, base), 8, 2)} ${fmt(merit(r.varR, r) / merit(base.varR, base), 8, 2)}\n`,
-    );
+    const nat = byName.has("native analog") ? fastest(byName.get("native analog") as TimedRun[]) : undefined;
+    const fom = (r: TimedRun, v: [number, number]): number => 1 / (v[1] * v[1] * r.seconds);
+    process.stdout.write(`  ${wavelengthNm} nm   estimator            rays/s     ×native  events/ray  ns/event    R ± SE              A_absorber ± SE     FOM R      ×native  FOM A      ×native\n`);
+    for (const [name, runs] of byName) {
+      const r = fastest(runs);
+      const rate = r.rays / r.seconds;
+      const xs = (x: number | undefined): string => (x === undefined ? "–" : x.toFixed(2)).padStart(8);
+      process.stdout.write(
+        `           ${name.padEnd(20)} ${fmt(rate, 9, 0)} ${xs(nat && rate / (nat.rays / nat.seconds))} ${fmt(r.events / r.rays, 11, 2)} ${fmt((r.seconds / r.events) * 1e9, 9, 0)}` +
+          `    ${r.R[0].toFixed(4)} ± ${r.R[1].toFixed(4)}    ${r.A[0].toFixed(4)} ± ${r.A[1].toFixed(4)}` +
+          `    ${fom(r, r.R).toExponential(2)} ${xs(nat && fom(r, r.R) / fom(nat, nat.R))} ${fom(r, r.A).toExponential(2)} ${xs(nat && fom(r, r.A) / fom(nat, nat.A))}\n`,
+      );
+    }
+    if (nat !== undefined) {
+      // Agreement of lightfold's analog kernel with the native one: z per channel over all rounds.
+      const lf = byName.get("analog") as TimedRun[];
+      const nv = byName.get("native analog") as TimedRun[];
+      const pooled = (runs: TimedRun[], key: "R" | "A" | "A_rear"): [number, number] => {
+        const m = runs.reduce((a, r) => a + r[key][0], 0) / runs.length;
+        const se = Math.sqrt(runs.reduce((a, r) => a + r[key][1] ** 2, 0)) / runs.length;
+        return [m, se];
+      };
+      const z = (key: "R" | "A" | "A_rear"): string => {
+        const [a, sa] = pooled(lf, key);
+        const [b, sb] = pooled(nv, key);
+        return (sa === 0 && sb === 0 ? 0 : (a - b) / Math.hypot(sa, sb)).toFixed(2);
+      };
+      process.stdout.write(`           analog vs native: z(R) ${z("R")}, z(A_absorber) ${z("A")}, z(A_rear) ${z("A_rear")}\n`);
+    }
   }
 }

@@ -19,6 +19,8 @@
 #include <stdlib.h>
 #include <time.h>
 
+#define PI_ 3.14159265358979323846
+
 static uint64_t rs[4];
 static inline uint64_t rotl64(uint64_t x, int k) { return (x << k) | (x >> (64 - k)); }
 static inline double urand(void) {
@@ -160,16 +162,16 @@ int main(int argc, char **argv) {
   seed_rng(strtoull(argv[5], 0, 10));
   A = argc > 6 ? atof(argv[6]) : 10; double facet = argc > 7 ? atof(argv[7]) : 54.74;
   WUM = argc > 8 ? atof(argv[8]) : 180; double mirror = argc > 9 ? atof(argv[9]) : 0.95;
-  HALF = A / 2; TA = tan(facet * M_PI / 180); H = HALF * TA;
+  HALF = A / 2; TA = tan(facet * PI_ / 180); H = HALF * TA;
   double nl = sqrt(1 + TA * TA);
   NRM[0] = v3(TA / nl, 0, 1 / nl); NRM[1] = v3(-TA / nl, 0, 1 / nl); NRM[2] = v3(0, TA / nl, 1 / nl); NRM[3] = v3(0, -TA / nl, 1 / nl);
   NSI = n + I * k; NREAL = n;
-  double alpha = 4 * M_PI * k / (wl * 1e-3); /* 1/µm */
+  double alpha = 4 * PI_ * k / (wl * 1e-3); /* 1/µm */
   double sum[NCH] = {0};
   long events = 0;
   clock_t c0 = clock();
   for (long r = 0; r < nRays; r++) {
-    double psi = 2 * M_PI * urand();
+    double psi = 2 * PI_ * urand();
     V3 d = v3(0, 0, -1), e = v3(cos(psi), sin(psi), 0);
     V3 o = v3(urand() * A, urand() * A, H + 1);
     double tau = -log(urand());
