@@ -31,7 +31,8 @@ const NOT_AT_TEXTURE = -3;
  * Traces nRays rays arriving from the incidence medium at polar angle θ and azimuth φ (null = a
  * random azimuth per ray) and adds them to the tally (docs/contracts.md, Tracer): per channel
  * [Σc, Σc²] of each ray's contribution c, then [nRays, Σp, Σp², events] with p the ray's optical
- * path in the absorber divided by its thickness. Each ray's contributions sum to 1.
+ * path in the absorber divided by its thickness. Each ray's contributions sum to 1. Ray r draws
+ * from substream r of rng (RandomStream.startSubstream).
  */
 export function traceBatch(
   cs: CompiledStack,
@@ -62,6 +63,9 @@ export function traceBatch(
   setLaunchAngles(st, Math.sin(thetaDeg * DEG), Math.cos(thetaDeg * DEG));
   if (phiDeg !== null) setLaunchAzimuth(st, phiDeg * DEG);
   for (let r = 0; r < nRays; r++) {
+    // One substream per ray: rays stay paired across stacks traced with the same stream (CRN).
+    rng.startSubstream(r);
+    st[RAY_INDEX] = r;
     if (phiDeg === null) setLaunchAzimuth(st, TWO_PI * rng.next());
     launchRay(cs, polMode, rng, fromRear);
     traceRay(cs, rng, startMedium);
