@@ -288,7 +288,8 @@ const SHARD_CASES: Case[] = [
   shard("a mean raised by 100 rays", (s) => (s.tallies[0][4] += 100), /tallies\[0\]: expected a sound tally of point 0; channels sum to/),
   shard("a ray count ×4", (s) => (s.tallies[1][12] *= 4), /tallies\[1\]: expected a sound tally of point 2; 520 rays, expected the plan's 130/),
   shard("a tally entry as text", (s) => (s.tallies[0][0] = "0"), /tallies\[0\]\[0\]: expected a finite number/),
-  shard("a tally too short", (s) => s.tallies[0].pop(), /tallies\[0\]: expected a list of 16 numbers, got 15/),
+  // 6 channels: 2·6 + 4 tracer entries and 16 pairing groups of 6 + 1 (src/sweep/tally.ts) = 128.
+  shard("a tally too short", (s) => s.tallies[0].pop(), /tallies\[0\]: expected a list of 128 numbers, got 127/),
   shard("sum of squares above the sum", (s) => (s.tallies[0][5] = s.tallies[0][4] * 2), /tallies\[0\]: expected a sound tally of point 0; channel 2: sum of squares/),
   shard("a negative path sum", (s) => (s.tallies[0][13] = -1), /tallies\[0\]: expected a sound tally of point 0; tally entry 13 is negative/),
   shard("a point outside the plan", (s) => (s.points[1] = 999), /points\[1\]: expected an integer in \[0, 5\], got 999/),
