@@ -53,6 +53,16 @@ describe("renderReport(input) with user text that looks like markup", () => {
     for (const f of rendered.figures) expect(rendered.html).toContain(`data-plot="${f.id}"`);
   });
 
+  it("draws each legend entry with its series' dash and marker (convergence: solid and dashed, markers)", () => {
+    const svg = rendered.figures.find((f) => f.id === "convergence")!.svg;
+    const legend = /<g class="legend">(.*?)<\/g>/s.exec(svg)![1]!;
+    const dashedSeries = /<path d="[^"]+" stroke="([^"]+)" stroke-width="1.6" fill="none" stroke-dasharray="6 4"/.exec(svg)!;
+    expect(legend).toContain(`stroke="${dashedSeries[1]}" stroke-width="1.6" stroke-dasharray="6 4"`);
+    // markers in the legend are the same symbols as on the lines
+    const marker = /<path d="(M[^"]+)" transform="translate\([^)]*\)" fill="([^"]+)"/.exec(/<g class="marks"[^>]*>(.*)<\/g><g class="axes"/s.exec(svg)![1]!)!;
+    expect(legend).toContain(`d="${marker[1]}"`);
+  });
+
   it("references nothing outside the page (no network, no CDN)", () => {
     expect(rendered.html).not.toMatch(/\b(src|href)="(https?:)?\/\//);
     expect(rendered.html).not.toMatch(/@import|url\(\s*['"]?https?:/);
