@@ -3,6 +3,7 @@ import { adaptBifacialFile } from "./adaptBifacial.js";
 import { existsSync, readdirSync, statSync } from "node:fs";
 import { basename, join } from "node:path";
 import { readResponseMatrix } from "../response/matrixFile.js";
+import { comboTitle } from "../study/comboLabel.js";
 import { InputError } from "../util/errors.js";
 import { readInputText } from "../util/inputFile.js";
 import { toolVersion } from "../util/version.js";
@@ -33,10 +34,9 @@ function comboDirs(runDir: string): string[] {
   return names.sort((a, b) => key(a) - key(b) || a.localeCompare(b));
 }
 
+/** Words for a combination of a run.json without titles (runs of older versions). */
 function comboText(combo: Record<string, number>): string {
-  return Object.entries(combo)
-    .map(([k, v]) => `${k} = ${v}`)
-    .join(" · ");
+  return comboTitle(combo);
 }
 
 export interface LoadOptions {

@@ -50,6 +50,8 @@ describe("CLI details", () => {
     expect(comboTitle({ "layers[0].topFilms[0].thicknessNm": 100 }, stack)).toBe("SiO2 on cover glass 100 nm");
     const bifacial = loadStudy(join(ROOT, "configs", "glass-glass-bifacial.study.json")).combos[0]!.study.stack;
     expect(comboTitle({ "rearLayers[1].thicknessUm": 3200 }, bifacial)).toBe("rear glass 3200 µm");
+    // without the stack (run.json of an older version): the path in words
+    expect(comboTitle({ "absorber.thicknessUm": 180, "front.films[0].thicknessNm": 65 })).toBe("absorber 180 µm · front film 1 65 nm");
   });
 
   it("the sweep summary shows Jsc and the matrix hash for a study without a sweep too", () => {
