@@ -68,3 +68,27 @@ export function pairedWeightedDifference(a: ResponseMatrix, b: ResponseMatrix, c
   });
   return { delta, pairedStderr: Math.sqrt(varPaired), independentStderr: Math.sqrt(varIndep) };
 }
+
+/**
+ * A copy of matrix A whose standard errors of `channel` are the paired errors of A − B per point
+ * (pairedPointVariance), for any functional that propagates errors linearly from a matrix (yearly
+ * yield): run on this matrix, its error is the error of the difference of the functional of A and
+ * B. Valid whatever the streams (groups are independent replicas either way); small when both were
+ * traced with the same seed and batches (common random numbers). Undefined when the grids differ or
+ * a point has no paired error (matrices without pairing groups, or with different batch sizes).
+ */
+export function pairedStderrMatrix(a: ResponseMatrix, b: ResponseMatrix, channel: string): ResponseMatrix | undefined {
+  const same = (x: number[], y: number[]): boolean => x.length === y.length && x.every((v, i) => v === y[i]);
+  if (!same(a.thetaDeg, b.thetaDeg) || !same(a.phiDeg, b.phiDeg) || !same(a.wavelengthNm, b.wavelengthNm) || a.phiMode !== b.phiMode) return undefined;
+  const ca = a.channels.indexOf(channel);
+  const cb = b.channels.indexOf(channel);
+  if (ca < 0 || cb < 0) return undefined;
+  const nA = a.channels.length;
+  const stderr = Float64Array.from(a.stderr);
+  for (let q = 0; q < a.nRays.length; q++) {
+    const v = pairedPointVariance(a, ca, b, cb, q);
+    if (!Number.isFinite(v)) return undefined;
+    stderr[q * nA + ca] = Math.sqrt(v);
+  }
+  return { ...a, stderr };
+}

@@ -123,6 +123,8 @@ export function compareJson(args: {
       chargeBStdErrAhM2: r(row.b.chargeStdErrAhM2, 3),
       benefitPct: r(row.benefit.benefitPct, 4),
       benefitStdErrPct: r(row.benefit.benefitStdErrPct, 4),
+      benefitErrorKind: row.benefit.errorKind,
+      benefitIndependentStdErrPct: r(row.benefit.independentStdErrPct, 4),
     })),
   };
 }
@@ -165,7 +167,13 @@ export function formatCompareTable(labelA: string, labelB: string, rows: Compare
       `${row.site.slice(0, 16).padEnd(16)} ${pad(row.a.plane.tiltDeg.toFixed(1), 6)} ${pad(row.a.poaKWhM2.toFixed(1), 11)} ${pad(row.a.chargeAhM2.toFixed(0), 10)} ${pad(row.b.chargeAhM2.toFixed(0), 10)} ${pad(row.benefit.benefitPct.toFixed(3), 10)} ${pad(row.benefit.benefitStdErrPct.toFixed(3), 7)}`,
     );
   }
-  lines.push("", "± = Monte Carlo standard error from both matrices' stderr (independent, linear propagation)");
+  const paired = rows.length > 0 && rows.every((row) => row.benefit.errorKind === "paired");
+  lines.push(
+    "",
+    paired
+      ? `± = paired Monte Carlo standard error (both matrices traced on the same streams, pairing groups); as if independent: ${rows.map((row) => row.benefit.independentStdErrPct.toFixed(3)).join(", ")}`
+      : "± = Monte Carlo standard error from both matrices' stderr (independent, linear propagation)",
+  );
   return lines.join("\n") + "\n";
 }
 

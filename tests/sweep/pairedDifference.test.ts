@@ -1,7 +1,12 @@
 import { tmpdir } from "node:os";
 import { describe, expect, it } from "vitest";
 import { matrixFromTallies } from "../../src/response/fromTallies.js";
-import { pairedPointVariance, pairedWeightedDifference } from "../../src/response/pairedDifference.js";
+import { pairedPointVariance, pairedStderrMatrix, pairedWeightedDifference } from "../../src/response/pairedDifference.js";
+import { siteFromObject } from "../../src/site/site.js";
+import { syntheticWeather } from "../../src/weather/synthetic.js";
+import { textureBenefit } from "../../src/yield/compare.js";
+import { yearContext } from "../../src/yield/yearContext.js";
+import { prepareMatrix, yieldSweep } from "../../src/yield/yieldRun.js";
 import type { ResponseMatrix } from "../../src/response/responseMatrix.js";
 import { photocurrentWeights, spectrumFromSpec } from "../../src/spectrum/index.js";
 import { loadStudyFromDocument } from "../../src/study/load.js";
@@ -22,6 +27,28 @@ function groupMatrix(rays: number[], means: number[]): ResponseMatrix {
   } as unknown as ResponseMatrix;
 }
 
+/**
+ * The demo textured stack (configs/demo-random-pyramids.study.json) with SiNx 75 and 80 nm as a
+ * two-combination sweep on a small grid (few wavelengths and small batches keep replicas cheap).
+ */
+function sinxStudy(thetaDeg: number[], wavelengthNm: number[], perPoint: number, batch: number) {
+  return loadStudyFromDocument(
+    {
+      name: "sinx-pair",
+      stack: {
+        front: { texture: { type: "random-pyramids", meanBaseUm: 5, sizeSpread: 0.3, count: 16, tileUm: 10, seed: 7 }, films: [{ material: "SiNx", thicknessNm: 75 }] },
+        absorber: { material: "Si", thicknessUm: 180 },
+        rear: { texture: { type: "planar" }, exit: "Ag" },
+      },
+      grid: { thetaDeg, phiDeg: "averaged", wavelengthNm },
+      rays: { perPoint, batch },
+      seed: 42,
+      sweep: { "front.films[0].thicknessNm": [75, 80] },
+    },
+    { baseDir: tmpdir() },
+  );
+}
+
 describe("paired standard error of a difference", () => {
   it("equal groups give the textbook variance of a mean of K replicas, s²/K", () => {
     // Differences 1, 2, 3, 6: mean 3, s² = (4 + 1 + 0 + 9)/3 = 14/3, variance of the mean 14/12
@@ -40,24 +67,43 @@ describe("paired standard error of a difference", () => {
     expect(pairedPointVariance(groupMatrix([10, 10], [1, 2]), 0, groupMatrix([10, 9], [0, 0]), 0, 0)).toBeNaN();
   });
 
+  it("compare's yearly benefit gets the paired error from the pairing groups, below the quadrature figure", async () => {
+    const study = sinxStudy([0, 30, 60, 80], [450, 750, 1000], 320, 20);
+    const tracer = await loadTracer();
+    const plan = sweepPlanOf(study, tracer);
+    const run = createMessageRunner(workerSetupOf(study), tracer);
+    const g = plan.grid;
+    const tallies = new Map<number, Float64Array>();
+    for (let combo = 0; combo < 2; combo++) {
+      const len = tallyLength(plan.combos[combo].channels.length);
+      g.thetaDeg.forEach((thetaDeg, it) => g.wavelengthNm.forEach((wavelengthNm, il) => {
+        const out = run({ items: [{ combo, it, ip: 0, il, thetaDeg, phiDeg: null, wavelengthNm, firstBatch: 0, batchRays: Array(16).fill(20) }] });
+        const acc = new Float64Array(len);
+        for (let b = 0; b < 16; b++) for (let i = 0; i < len; i++) acc[i] += out[b * len + i];
+        tallies.set((combo * g.thetaDeg.length + it) * g.wavelengthNm.length + il, acc);
+      }));
+    }
+    const [a, b] = [0, 1].map((c) => matrixFromTallies(plan, c, (p) => tallies.get(p), false));
+    const paired = pairedStderrMatrix(a, b, "A_absorber");
+    expect(paired).toBeDefined();
+    const site = siteFromObject({ name: "Pair Flats", latitudeDeg: 48.7, longitudeDeg: 9.6, elevationM: 400, utcOffsetHours: 1, albedo: 0.2, monthlyClearness: Array(12).fill(0.45) }, "pair.site.json");
+    const ctx = yearContext(site, syntheticWeather(site, 2027, 7));
+    const plane = [{ tiltDeg: 35, azimuthDeg: 180, textureRotationDeg: 0 }];
+    const [ya] = yieldSweep(ctx, prepareMatrix(a, "a"), plane, "perez");
+    const [yb] = yieldSweep(ctx, prepareMatrix(b, "b"), plane, "perez");
+    const [yd] = yieldSweep(ctx, prepareMatrix(paired as ResponseMatrix, "a−b"), plane, "perez");
+    const benefit = textureBenefit(ya!, yb!, yd!.chargeStdErrAhM2);
+    process.stdout.write(`paired yearly benefit: ${benefit.benefitPct.toFixed(3)} ± ${benefit.benefitStdErrPct.toFixed(3)} % (independent ± ${benefit.independentStdErrPct.toFixed(3)})\n`);
+    expect(benefit.errorKind).toBe("paired");
+    expect(benefit.benefitStdErrPct).toBeGreaterThan(0);
+    expect(benefit.benefitStdErrPct).toBeLessThan(benefit.independentStdErrPct / 1.5);
+    // Grids that differ give no paired matrix (compare falls back to the quadrature figure).
+    expect(pairedStderrMatrix(a, { ...b, wavelengthNm: [450, 750, 1001] }, "A_absorber")).toBeUndefined();
+  }, 60_000);
+
   it("SiNx 75 vs 80 nm on random pyramids: 100 replica differences of Jsc spread as the paired error says", async () => {
-    // Demo textured stack (configs/demo-random-pyramids.study.json) with the two film thicknesses as
-    // a sweep; few wavelengths and small batches keep 100 replicas cheap (16 batches = 16 groups).
-    const study = loadStudyFromDocument(
-      {
-        name: "sinx-pair",
-        stack: {
-          front: { texture: { type: "random-pyramids", meanBaseUm: 5, sizeSpread: 0.3, count: 16, tileUm: 10, seed: 7 }, films: [{ material: "SiNx", thicknessNm: 75 }] },
-          absorber: { material: "Si", thicknessUm: 180 },
-          rear: { texture: { type: "planar" }, exit: "Ag" },
-        },
-        grid: { thetaDeg: [0], phiDeg: "averaged", wavelengthNm: [450, 750, 1000] },
-        rays: { perPoint: 480, batch: 30 },
-        seed: 42,
-        sweep: { "front.films[0].thicknessNm": [75, 80] },
-      },
-      { baseDir: tmpdir() },
-    );
+    // 16 batches of 30 rays per point = 16 pairing groups.
+    const study = sinxStudy([0], [450, 750, 1000], 480, 30);
     const tracer = await loadTracer();
     const plan = sweepPlanOf(study, tracer);
     const run = createMessageRunner(workerSetupOf(study), tracer);

@@ -126,4 +126,19 @@ describe("textureBenefit(a, b)", () => {
     expect(same.benefitStdErrPct).toBeCloseTo(100 * Math.SQRT2 * (b!.chargeStdErrAhM2 / b!.chargeAhM2), 10);
     expect(textureBenefit(a!, b!).benefitPct).toBeCloseTo(10, 6); // 0.88/0.80 at every angle and wavelength
   });
+
+  it("with the error of Q_A − Q_B (paired) follows the delta method for a ratio of correlated totals", () => {
+    // Var(r) ≈ (V_A − 2r·Cov + r²·V_B)/Q_B², Cov = (V_A + V_B − V_Δ)/2 (first-order propagation,
+    // any statistics text): with V_Δ = V_A + V_B (no correlation) it is the quadrature figure; with
+    // identical totals and V_Δ = 0 (perfectly paired) it is zero.
+    const m = makeMatrix({ thetaDeg: range(0, 85, 5), absorber: () => 0.8, stderr: 0.002 });
+    const better = makeMatrix({ thetaDeg: range(0, 85, 5), absorber: () => 0.88, stderr: 0.003 });
+    const [a] = yieldSweep(ctx, prepareMatrix(better, "a"), [plane(35)], "perez");
+    const [b] = yieldSweep(ctx, prepareMatrix(m, "b"), [plane(35)], "perez");
+    const uncorrelated = textureBenefit(a!, b!, Math.hypot(a!.chargeStdErrAhM2, b!.chargeStdErrAhM2));
+    expect(uncorrelated.errorKind).toBe("paired");
+    expect(uncorrelated.benefitStdErrPct).toBeCloseTo(textureBenefit(a!, b!).benefitStdErrPct, 10);
+    expect(textureBenefit(b!, b!, 0).benefitStdErrPct).toBe(0);
+    expect(textureBenefit(a!, b!).errorKind).toBe("independent");
+  });
 });

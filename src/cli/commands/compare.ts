@@ -5,6 +5,7 @@ import { readSiteFile } from "../../site/siteFile.js";
 import { InputError } from "../../util/errors.js";
 import { toolVersion } from "../../util/version.js";
 import { textureBenefit } from "../../yield/compare.js";
+import { pairedStderrMatrix } from "../../response/pairedDifference.js";
 import { yearContext } from "../../yield/yearContext.js";
 import { compareJson, formatCompareTable, matrixInfo, siteInfo, weatherInfo, type CompareRow } from "../../yield/yieldJson.js";
 import { prepareMatrix, yieldSweep } from "../../yield/yieldRun.js";
@@ -45,8 +46,10 @@ Examples:
   lightfold compare --matrix a.json --matrix b.json --rear-matrix a-rear.json --rear-matrix b-rear.json \
       --site configs/sites/saltmere-plain.site.json --tilt 20,30 --pitch 5,8 --height 1.2
 
-benefit % = 100 (Q_A/Q_B − 1); its ± is the Monte Carlo standard error propagated linearly from both
-matrices' stderr (independent runs). Both use the same weather, sky model and planes.
+benefit % = 100 (Q_A/Q_B − 1); its ± is the Monte Carlo standard error propagated linearly. Two
+matrices with pairing groups on one grid (lightfold sweeps with the same seed and batches: common
+random numbers) get the paired error of the difference, else (and with --rear-matrix) the quadrature
+of both matrices' errors. Both use the same weather, sky model and planes.
 With --rear-matrix twice (the rear-lit matrices of A and B): Q is the front + rear yearly charge of
 each bifacial stack (as yield --rear-matrix, per tilt and --pitch/--gcr), and each row also gives
 both stacks' rear charge and bifacial gain.`,
@@ -68,6 +71,9 @@ both stacks' rear charge and bifacial gain.`,
       const matrices = opts.matrix.map((f) => readResponseMatrix(f));
       const prepared = matrices.map((m, i) => prepareMatrix(m, opts.matrix[i]!, opts.channel));
       if (opts.rearMatrix !== undefined) return bifacialCompare(opts, matrices, prepared, weatherSpecs, sites, year, seed, planes, sky);
+      // Paired errors where both matrices carry pairing groups on one grid (common random numbers).
+      const pairedM = pairedStderrMatrix(matrices[0]!, matrices[1]!, opts.channel ?? "A_absorber");
+      const pairedPrepared = pairedM === undefined ? undefined : prepareMatrix(pairedM, opts.matrix[0]!, opts.channel);
       const rows: CompareRow[] = [];
       const weatherInfos: Record<string, unknown>[] = [];
       sites.forEach((site, i) => {
@@ -75,7 +81,9 @@ both stacks' rear charge and bifacial gain.`,
         weatherInfos.push(weatherInfo(ctx));
         const a = yieldSweep(ctx, prepared[0]!, planes, sky);
         const b = yieldSweep(ctx, prepared[1]!, planes, sky);
-        a.forEach((ya, k) => rows.push({ site: site.name, a: ya, b: b[k]!, benefit: textureBenefit(ya, b[k]!) }));
+        // The error of Q_A − Q_B: the yield's linear error propagation run on the paired errors.
+        const d = pairedPrepared === undefined ? undefined : yieldSweep(ctx, pairedPrepared, planes, sky);
+        a.forEach((ya, k) => rows.push({ site: site.name, a: ya, b: b[k]!, benefit: textureBenefit(ya, b[k]!, d?.[k]!.chargeStdErrAhM2) }));
       });
       const doc = compareJson({
         toolVersion: toolVersion(),
