@@ -91,6 +91,11 @@ export interface LayerSpec {
   thicknessUm: number;
   /** Coherent films on the layer's top face, outermost first. */
   topFilms: FilmSpec[];
+  /**
+   * Outermost layer only: a texture on its top face (textured or anti-glare glass), pointing out of
+   * the layer; its base plane is the layer's top plane (the thickness is counted below it).
+   */
+  topTexture?: TextureSpec;
 }
 
 /** The textured interface onto the absorber. Films outermost (light side) first. */

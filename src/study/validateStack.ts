@@ -120,7 +120,7 @@ function reflectanceTable(ctx: Ctx, csv: string, path: string): BacksheetSpec["r
 /** The stack as the schema admits it (optional fields still unset). */
 interface RawStack {
   incidence?: string;
-  layers?: { name?: string; material: string; thicknessUm: number; topFilms?: FilmSpec[] }[];
+  layers?: { name?: string; material: string; thicknessUm: number; topFilms?: FilmSpec[]; topTexture?: RawTexture }[];
   front: { texture?: RawTexture; films?: FilmSpec[] };
   absorber: { material?: string; thicknessUm: number };
   rear: { ideal: { kind: "mirror" | "lambertian"; reflectance?: number } } | { texture?: RawTexture; films?: FilmSpec[]; exit: string };
@@ -145,7 +145,13 @@ function layerList(ctx: Ctx, raw: NonNullable<RawStack["layers"]>, path: string)
       throw new InputError(`${p}.name: layer name ${JSON.stringify(name)} is used twice`, "give each layer its own name");
     }
     names.add(name);
-    return { name, material: mat, thicknessUm: o.thicknessUm, topFilms: filmList(ctx, o.topFilms, `${p}.topFilms`) };
+    const layer: LayerSpec = { name, material: mat, thicknessUm: o.thicknessUm, topFilms: filmList(ctx, o.topFilms, `${p}.topFilms`) };
+    if (o.topTexture !== undefined) {
+      if (i > 0) throw new InputError(`${p}.topTexture: only the outermost layer (layers[0]) can have a textured top face`);
+      if (o.topTexture.type === "lambertian") throw new InputError(`${p}.topTexture.type: "lambertian" (ideal randomiser) is a front texture only`);
+      layer.topTexture = texture(ctx, o.topTexture, `${p}.topTexture`);
+    }
+    return layer;
   });
 }
 

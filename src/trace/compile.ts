@@ -177,6 +177,13 @@ export function compileStack(
     layerTopZUm[j] = z;
   }
 
+  // Outer layer's top texture (textured glass): points out of the layer from its top plane.
+  const outerSpec = stack.layers[0]?.topTexture;
+  const outerTile = outerSpec ? surfaceOf(outerSpec, stack.boundary, "stack.layers[0].topTexture") : null;
+  if (outerTile !== null && -outerTile.zMinUm >= stack.layers[0]!.thicknessUm) {
+    throw new InputError(`stack.layers[0].topTexture: its pits reach ${-outerTile.zMinUm} µm into a ${stack.layers[0]!.thicknessUm} µm layer`);
+  }
+
   const thicknessUm = stack.absorber.thicknessUm;
   const frontDepth = -frontTile.zMinUm;
   const rearDepth = -rearTile.zMinUm;
@@ -235,6 +242,7 @@ export function compileStack(
     topInterfaces,
     front,
     frontTile,
+    outerTile,
     rearKind,
     rear,
     rearTile,

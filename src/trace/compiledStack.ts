@@ -49,6 +49,8 @@ export interface CompiledStack {
   topInterfaces: CompiledInterface[];
   front: CompiledInterface;
   frontTile: SurfaceTile;
+  /** Texture of the outermost layer's top face (null: planar); its base plane is layerTopZUm[1]. */
+  outerTile: SurfaceTile | null;
   rearKind: number;
   rear: CompiledInterface | null;
   rearTile: SurfaceTile;

@@ -6,7 +6,7 @@ import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type 
 import { BRANCH_SERIAL, BRANCHES, DIED, DZ, ENTERED, EVENTS, HIT, PATH, RAY_INDEX, REFLECT, SPLIT, T, TRANSMIT, TWO_PI, W, Z, advance, setNormal } from "./rayState.js";
 import { popBranch, setBranchMedium } from "./branches.js";
 import { launchRay, polarizationMode, setLaunchAngles, setLaunchAzimuth, type Polarization } from "./launch.js";
-import { frontSearch, rearSearch, rearSearchFromBehind } from "./surfaceSearch.js";
+import { frontSearch, outerSearch, rearSearch, rearSearchFromBehind } from "./surfaceSearch.js";
 import { absorbAlong } from "./bulkTransport.js";
 import { interfaceEvent } from "./interfaceEvent.js";
 import { backsheetEvent, idealRear, lambertianDirection, lambertianFrontFromBelow, randomPolarization } from "./idealSurfaces.js";
@@ -102,7 +102,12 @@ function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number): vo
       next = m === ABS + 1 ? stepOntoRear(cs, st, m, rng) : NOT_AT_TEXTURE;
       if (next === NOT_AT_TEXTURE) next = stepBehindAbsorber(cs, st, m, rng);
     } else {
-      next = m === nL ? stepOntoFront(cs, st, rng) : NOT_AT_TEXTURE;
+      next = NOT_AT_TEXTURE;
+      // the outer glass texture: from above, from the glass going up, or inside its slab
+      if (cs.outerTile !== null && m <= 1 && (m === 0 || st[DZ] > 0 || st[Z] > cs.layerTopZUm[1] + cs.outerTile.zMinUm)) {
+        next = stepAtOuterTexture(cs, st, m, rng);
+      }
+      if (next === NOT_AT_TEXTURE && m === nL) next = stepOntoFront(cs, st, rng);
       if (next === NOT_AT_TEXTURE) next = stepInPlanarLayer(cs, st, m, rng);
     }
     if (next >= 0) {
@@ -202,6 +207,17 @@ function stepBehindAbsorber(cs: CompiledStack, st: Float64Array, m: number, rng:
     return afterInterface(cs, st, interfaceEvent(cs, st, cs.rearBottomInterfaces[j - 1] as CompiledInterface, rng), m, m - 1);
   }
   return RAY_LOST;
+}
+
+/** At the outer layer's top texture: m = 0 (above it) or 1 (in the layer); the top films' interface there. */
+function stepAtOuterTexture(cs: CompiledStack, st: Float64Array, m: number, rng: RandomStream): number {
+  const found = outerSearch(cs, st, m === 1);
+  if (found === LOST) return RAY_LOST;
+  if (found !== HIT) return NOT_AT_TEXTURE;
+  if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
+  advance(st);
+  st[EVENTS]++;
+  return afterInterface(cs, st, interfaceEvent(cs, st, cs.topInterfaces[0], rng), m, 1 - m);
 }
 
 /** In the medium touching the front texture (the incidence medium or the lowest thick layer). */

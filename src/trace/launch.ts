@@ -46,11 +46,17 @@ export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream,
   st[EX] = a * sx + b * px;
   st[EY] = a * sy + b * py;
   st[EZ] = b * pz;
-  st[X] = rng.next() * cs.frontTile.lxUm;
-  st[Y] = rng.next() * cs.frontTile.lyUm;
+  // Uniform over the unit cell of the first texture met (an outer glass texture has its own, larger
+  // scale; millimetres of glass below it decorrelate it from the cell of the texture on the wafer).
+  const first = fromRear ? cs.rearTile : cs.outerTile !== null ? cs.outerTile : cs.frontTile;
+  st[X] = rng.next() * first.lxUm;
+  st[Y] = rng.next() * first.lyUm;
   // Without layers: start 1 µm above the texture (the incidence medium does not absorb); from the
   // rear: on the last rear layer's outer plane, or 1 µm below the rear texture.
-  st[Z] = fromRear ? cs.rearLaunchZUm : cs.nLayers > 0 ? cs.layerTopZUm[1] : cs.frontTile.zMaxUm + 1;
+  st[Z] = fromRear ? cs.rearLaunchZUm
+    : cs.nLayers === 0 ? cs.frontTile.zMaxUm + 1
+    : cs.outerTile !== null ? cs.layerTopZUm[1] + cs.outerTile.zMaxUm + 1
+    : cs.layerTopZUm[1];
   st[W] = 1;
   st[PATH] = 0;
   // The optical-depth budget is drawn for every ray (same random stream in both estimators) but

@@ -20,7 +20,15 @@ export function frontSearch(cs: CompiledStack, st: Float64Array, fromBelow: bool
     }
     return NO_HIT;
   }
-  return tileSearch(tile, st, cs.query, fromBelow, false, 0);
+  return tileSearch(tile, st, cs.query, fromBelow, 1, 0);
+}
+
+/**
+ * Search of the outer layer's top texture (textured glass; base plane at the layer's top plane,
+ * pointing up); `fromBelow` = the ray is in the layer. Sets the outward normal (into the medium above).
+ */
+export function outerSearch(cs: CompiledStack, st: Float64Array, fromBelow: boolean): number {
+  return tileSearch(cs.outerTile as SurfaceTile, st, cs.query, fromBelow, 1, cs.layerTopZUm[1]);
 }
 
 /**
@@ -41,7 +49,7 @@ export function rearSearch(cs: CompiledStack, st: Float64Array): number {
     }
     return NO_HIT;
   }
-  const found = tileSearch(tile, st, cs.query, true, true, W_);
+  const found = tileSearch(tile, st, cs.query, true, -1, -W_);
   if (found === HIT) {
     st[NX] = -st[NX];
     st[NY] = -st[NY];
@@ -66,7 +74,7 @@ export function rearSearchFromBehind(cs: CompiledStack, st: Float64Array): numbe
     }
     return NO_HIT;
   }
-  const found = tileSearch(tile, st, cs.query, false, true, W_);
+  const found = tileSearch(tile, st, cs.query, false, -1, -W_);
   if (found === HIT) {
     st[NX] = -st[NX];
     st[NY] = -st[NY];
@@ -80,14 +88,15 @@ export function rearSearchFromBehind(cs: CompiledStack, st: Float64Array): numbe
  * the outward normal (xy rotated back) to the state. Rays heading into the surface must hit it: a
  * miss there is LOST.
  */
-function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBelow: boolean, rear: boolean, thicknessUm: number): number {
+function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBelow: boolean, zSign: number, zOffsetUm: number): number {
   const x = st[X];
   const y = st[Y];
   const dx = st[DX];
   const dy = st[DY];
-  // The rear tile's frame has z flipped: local z = −(z + W).
-  const zl = rear ? -(st[Z] + thicknessUm) : st[Z];
-  const dzl = rear ? -st[DZ] : st[DZ];
+  // Local height: z − offset (front: offset 0; outer glass texture: the glass's top plane), or for
+  // the rear tile, flipped: −(z − (−W)) = −(z + W).
+  const zl = zSign * (st[Z] - zOffsetUm);
+  const dzl = zSign * st[DZ];
   const c = tile.cosRot;
   const s = tile.sinRot;
   const dxl = c * dx + s * dy;
