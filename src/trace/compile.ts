@@ -243,6 +243,7 @@ export function compileStack(
     front,
     frontTile,
     outerTile,
+    ...launchWindow([outerTile, frontTile, rearTile]),
     rearKind,
     rear,
     rearTile,
@@ -302,4 +303,25 @@ function backsheetTableValue(t: Exclude<BacksheetSpec["reflectance"], number>, w
     throw new InputError(`stack.rearOuter.backsheet.reflectance.csv: table ${t.csv} was not read (load the study with its folder)`);
   }
   return reflectanceAt({ wavelengthNm: t.wavelengthNm, values: t.values }, wavelengthNm, `stack.rearOuter.backsheet.reflectance (${t.csv})`);
+}
+
+/** Cells of this many of the largest period make the window when several textured tiles are met. */
+export const LAUNCH_WINDOW_CELLS = 4096;
+
+/**
+ * Where rays start. Every textured tile must see the rays' lateral positions uniformly over its own
+ * cell, or (at normal incidence through planar layers) part of a texture is never met. With one
+ * textured tile its cell is exact (the older behaviour); with several, a window of 4096 of the
+ * largest cells makes each tile's phase uniform to within 1/4096 of its period.
+ */
+function launchWindow(tiles: (SurfaceTile | null)[]): { launchLxUm: number; launchLyUm: number } {
+  const textured = tiles.filter((t): t is SurfaceTile => t !== null && t.kind === SURFACE_MESH);
+  if (textured.length === 0) {
+    const front = tiles[1]!;
+    return { launchLxUm: front.lxUm, launchLyUm: front.lyUm };
+  }
+  const same = textured.every((t) => t === textured[0] || (t.lxUm === textured[0]!.lxUm && t.lyUm === textured[0]!.lyUm));
+  if (same) return { launchLxUm: textured[0]!.lxUm, launchLyUm: textured[0]!.lyUm };
+  const lx = Math.max(...textured.map((t) => t.lxUm)), ly = Math.max(...textured.map((t) => t.lyUm));
+  return { launchLxUm: LAUNCH_WINDOW_CELLS * lx, launchLyUm: LAUNCH_WINDOW_CELLS * ly };
 }

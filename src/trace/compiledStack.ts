@@ -51,6 +51,9 @@ export interface CompiledStack {
   frontTile: SurfaceTile;
   /** Texture of the outermost layer's top face (null: planar); its base plane is layerTopZUm[1]. */
   outerTile: SurfaceTile | null;
+  /** Rays start uniformly over [0, launchLxUm) × [0, launchLyUm) (see launchWindow in compile.ts). */
+  launchLxUm: number;
+  launchLyUm: number;
   rearKind: number;
   rear: CompiledInterface | null;
   rearTile: SurfaceTile;

@@ -46,11 +46,10 @@ export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream,
   st[EX] = a * sx + b * px;
   st[EY] = a * sy + b * py;
   st[EZ] = b * pz;
-  // Uniform over the unit cell of the first texture met (an outer glass texture has its own, larger
-  // scale; millimetres of glass below it decorrelate it from the cell of the texture on the wafer).
-  const first = fromRear ? cs.rearTile : cs.outerTile !== null ? cs.outerTile : cs.frontTile;
-  st[X] = rng.next() * first.lxUm;
-  st[Y] = rng.next() * first.lyUm;
+  // Uniform over the launch window (compile: the one textured tile's cell, or a large multiple of
+  // the largest cell when several textures with their own periods are met).
+  st[X] = rng.next() * cs.launchLxUm;
+  st[Y] = rng.next() * cs.launchLyUm;
   // Without layers: start 1 µm above the texture (the incidence medium does not absorb); from the
   // rear: on the last rear layer's outer plane, or 1 µm below the rear texture.
   st[Z] = fromRear ? cs.rearLaunchZUm
