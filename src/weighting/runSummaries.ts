@@ -56,12 +56,15 @@ export function writeRunPhotocurrent(
 
 /**
  * The combination with the highest Jsc at the first direction and its paired difference to the
- * runner-up (undefined with fewer than two summarised combinations).
+ * runner-up (undefined with fewer than two summarised combinations lit from the same side).
  */
 export function bestComboOf(combos: RunCombo[], matrices: ResponseMatrix[], spectrum: Spectrum): BestCombo | undefined {
-  const ranked = combos
-    .map((c, i) => ({ c, i }))
-    .filter((x) => x.c.jscFirstDirection !== undefined)
+  // light from the front and from the rear are different questions: rank within one side (front
+  // first), never a combination against its own rear-lit twin
+  const side = (i: number): "front" | "rear" => (matrices[i]?.lightFrom === "rear" ? "rear" : "front");
+  const summarised = combos.map((c, i) => ({ c, i })).filter((x) => x.c.jscFirstDirection !== undefined);
+  const front = summarised.filter((x) => side(x.i) === "front");
+  const ranked = (front.length >= 2 ? front : summarised.filter((x) => side(x.i) === "rear"))
     .sort((x, y) => (y.c.jscFirstDirection?.jscMaCm2 ?? 0) - (x.c.jscFirstDirection?.jscMaCm2 ?? 0));
   if (ranked.length < 2) return undefined;
   const [first, second] = ranked;

@@ -1,4 +1,6 @@
+import { readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
+import { runMain } from "../helpers/cli.js";
 import { describe, expect, it } from "vitest";
 import { readResponseMatrix } from "../../src/response/matrixFile.js";
 import { mergeShards } from "../../src/sweep/mergeShards.js";
@@ -34,6 +36,21 @@ describe("runSweep with light from the rear", () => {
     // through the front (R) — facts of this geometry, not of the front-lit matrix
     const ic = rear.channels.indexOf("A_layer:rear glass");
     expect(rear.mean[ic]!).toBeGreaterThan(0);
+  });
+
+  it("the sweep summary ranks combinations lit from the same side only (never one against its rear-lit twin)", async () => {
+    const dir = tempDir("rear-best");
+    const studyPath = join(dir, "s.study.json");
+    writeFileSync(studyPath, JSON.stringify(tinyDoc({ stack: bifacial, illumination: "both", sweep: { "absorber.thicknessUm": [20, 150] } })));
+    const res = await runMain("sweep", studyPath, "--out", join(dir, "run"), "--workers", "1", "--quiet");
+    expect(res.code).toBe(0);
+    const run = JSON.parse(readFileSync(join(dir, "run", "run.json"), "utf8"));
+    // a 20 µm wafer lit from the front collects less than the 150 µm one lit from the rear, so the
+    // rear twin p1-rear would be the runner-up if the sides were ranked together
+    const jsc = (l: string) => run.combos.find((c: { label: string }) => c.label === l).jscFirstDirection.jscMaCm2;
+    expect(jsc("p1-rear")).toBeGreaterThan(jsc("p0"));
+    expect(run.bestCombo.label).toBe("p1");
+    expect(run.bestCombo.runnerUp).toBe("p0");
   });
 
   it("refuses light from the rear on an opaque rear, naming the field", () => {
