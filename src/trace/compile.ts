@@ -29,12 +29,12 @@ export interface CompileOptions {
   estimator?: Estimator;
   /** Interface events per ray before the rest of its weight goes to `unresolved` (default 10000). */
   maxEvents?: number;
-  /** Expected-value mode: weight below which absorption turns analog (default 0.2). */
+  /** Expected-value mode: weight below which absorption turns analog (default 0.02 where the absorber's αW ≥ 0.5, else 0.2). */
   rouletteWeight?: number;
   /**
    * Expected-value mode: an interface event on the way in splits the ray into its reflected and
    * transmitted parts when both weigh at least this much (0 = never split, sample the branch).
-   * Default 0.01 where the absorber's single-pass optical depth αW ≥ 0.05, else 0.
+   * Default 0.01 where the absorber's single-pass optical depth αW ≥ 0.1, else 0.
    */
   splitMinWeight?: number;
   /** Rows of the interface tables over cosθ (default 1024). */
@@ -45,11 +45,24 @@ export const DEFAULT_ESTIMATOR: Estimator = "expected";
 export const DEFAULT_MAX_EVENTS = 10000;
 export const DEFAULT_SPLIT_MIN_WEIGHT = 0.01;
 /** Single-pass optical depth αW of the absorber from which the first pass is split by default. */
-export const SPLIT_MIN_OPTICAL_DEPTH = 0.05;
+export const SPLIT_MIN_OPTICAL_DEPTH = 0.1;
+/** Roulette weight where one pass through the absorber is optically thick (αW ≥ ROULETTE_OPAQUE_DEPTH). */
+export const OPAQUE_ROULETTE_WEIGHT = 0.02;
+export const ROULETTE_OPAQUE_DEPTH = 0.5;
+
+/**
+ * Roulette weight per wavelength: where a pass through the absorber takes most of the light, the few
+ * passes a ray makes are cheap to follow with expected weights down to 0.02 (at 1000 nm on the bench
+ * case the merit grows about 5× against 0.2); in the light-trapping tail long weighted paths cost
+ * more than they save, and 0.2 is best (measured in `npm run bench`, DEVELOPERS.md "Tracer efficiency").
+ */
+function defaultRouletteWeight(singlePassDepth: number): number {
+  return singlePassDepth >= ROULETTE_OPAQUE_DEPTH ? OPAQUE_ROULETTE_WEIGHT : DEFAULT_ROULETTE_WEIGHT;
+}
 
 /**
  * The per-wavelength estimator choice: first-pass splitting where one pass through the absorber
- * takes a fair share of the light (αW ≥ 0.05), so the first reflection dominates the variance;
+ * takes a fair share of the light (αW ≥ 0.1), so the first reflection dominates the variance;
  * not in the weakly absorbing tail, where each split branch would run the whole light trap
  * (measured in `npm run bench`, DEVELOPERS.md "Tracer efficiency").
  */
@@ -255,7 +268,7 @@ export function compileStack(
     chRear: ch("A_rear"),
     chUnresolved: ch("unresolved"),
     estimator: options.estimator ?? DEFAULT_ESTIMATOR,
-    rouletteWeight: options.rouletteWeight ?? DEFAULT_ROULETTE_WEIGHT,
+    rouletteWeight: options.rouletteWeight ?? defaultRouletteWeight(mediumAlphaPerUm[nLayers + 1] * thicknessUm),
     maxEvents: options.maxEvents ?? DEFAULT_MAX_EVENTS,
     splitMinWeight: options.splitMinWeight ?? defaultSplitMinWeight(mediumAlphaPerUm[nLayers + 1] * thicknessUm),
     branches: new Float64Array(MAX_BRANCHES * BRANCH_SLOTS),

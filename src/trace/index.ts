@@ -1,4 +1,4 @@
-export { compileStack, DEFAULT_ESTIMATOR, DEFAULT_MAX_EVENTS, DEFAULT_ROULETTE_WEIGHT, DEFAULT_SPLIT_MIN_WEIGHT, SPLIT_MIN_OPTICAL_DEPTH, type CompileOptions, type MaterialSource } from "./compile.js";
+export { compileStack, DEFAULT_ESTIMATOR, DEFAULT_MAX_EVENTS, DEFAULT_ROULETTE_WEIGHT, DEFAULT_SPLIT_MIN_WEIGHT, OPAQUE_ROULETTE_WEIGHT, ROULETTE_OPAQUE_DEPTH, SPLIT_MIN_OPTICAL_DEPTH, type CompileOptions, type MaterialSource } from "./compile.js";
 export type { CompiledStack, CompiledInterface, Estimator } from "./compiledStack.js";
 export { channelNames, channelNamesOfStack } from "./channels.js";
 export { traceBatch, type Polarization } from "./kernel.js";
