@@ -67,6 +67,8 @@ export async function runSweepBench(): Promise<void> {
     out(`${label}  ${row(nAll, tN.wallS, rays / tN.wallS, speedup, speedup / nAll)}  ${(tN.cpuS / tN.wallS).toFixed(2).padStart(12)}  ${Math.round(rays / tN.cpuS).toString().padStart(10)}`);
   }
   out(`1-worker and ${nAll}-worker matrices bit-identical: ${allSame}`);
+  const unmeasured = [4, 8, 16].filter((n) => n > nAll);
+  if (unmeasured.length > 0) out(`${unmeasured.join(", ")} workers: not measured (${availableParallelism()} cores here; set LIGHTFOLD_BENCH_WORKERS on a larger machine)`);
 
   // Memory: peak RSS (process-wide, monotone) after runs of growing size.
   out("");

@@ -28,13 +28,14 @@ export class RandomStream {
   startSubstream(index: number, branch = 0): void {
     const s = this.s;
     const b = this.base;
-    const i4 = (index << 2) >>> 0;
+    // Int32 arithmetic throughout (no boxed numbers in the hot path); the state words take the bits.
+    const i4 = index << 2;
     // A branch number (src/trace/branches.ts) gives a further substream of the same index.
-    const k = branch === 0 ? 0 : fmix32((Math.imul(branch, 0x9e3779b9) ^ 0x5bd1e995) >>> 0);
-    s[0] = fmix32((b[0] ^ fmix32(i4 + 1) ^ k) >>> 0);
-    s[1] = fmix32((b[1] ^ fmix32(i4 + 2) ^ k) >>> 0);
-    s[2] = fmix32((b[2] ^ fmix32(i4 + 3) ^ k) >>> 0);
-    s[3] = fmix32((b[3] ^ fmix32(i4 + 4) ^ k) >>> 0);
+    const k = branch === 0 ? 0 : fmix32(Math.imul(branch, 0x9e3779b9) ^ 0x5bd1e995);
+    s[0] = fmix32(b[0] ^ fmix32((i4 + 1) | 0) ^ k);
+    s[1] = fmix32(b[1] ^ fmix32((i4 + 2) | 0) ^ k);
+    s[2] = fmix32(b[2] ^ fmix32((i4 + 3) | 0) ^ k);
+    s[3] = fmix32(b[3] ^ fmix32((i4 + 4) | 0) ^ k);
     if ((s[0] | s[1] | s[2] | s[3]) === 0) s[0] = 0x9e3779b9;
   }
 
@@ -58,14 +59,14 @@ export class RandomStream {
   }
 }
 
-/** MurmurHash3 32-bit finaliser (Appleby 2011, public domain): a bijective avalanche mix. */
+/** MurmurHash3 32-bit finaliser (Appleby 2011, public domain): a bijective avalanche mix (as int32 bits). */
 function fmix32(h: number): number {
   h ^= h >>> 16;
   h = Math.imul(h, 0x85ebca6b);
   h ^= h >>> 13;
   h = Math.imul(h, 0xc2b2ae35);
   h ^= h >>> 16;
-  return h >>> 0;
+  return h | 0;
 }
 
 function rotl(x: number, k: number): number {

@@ -19,8 +19,8 @@ export function canBranch(st: Float64Array): boolean {
   return st[BRANCHES] < MAX_BRANCHES;
 }
 
-/** Saves the ray's current state, with weight w, as a pending branch (its medium is set by setBranchMedium). */
-export function pushBranch(cs: CompiledStack, st: Float64Array, w: number): void {
+/** Saves the ray's current state as a pending branch (its medium is set by setBranchMedium). */
+export function pushBranch(cs: CompiledStack, st: Float64Array): void {
   const b = cs.branches;
   const o = st[BRANCHES] * BRANCH_SLOTS;
   b[o] = st[X];
@@ -32,7 +32,7 @@ export function pushBranch(cs: CompiledStack, st: Float64Array, w: number): void
   b[o + 6] = st[EX];
   b[o + 7] = st[EY];
   b[o + 8] = st[EZ];
-  b[o + 9] = w;
+  b[o + 9] = st[W];
   b[o + 10] = st[TAU];
   b[o + 11] = st[ANALOG];
   b[o + B_MEDIUM] = -1;
@@ -50,7 +50,7 @@ export function setBranchMedium(cs: CompiledStack, st: Float64Array, m: number):
  * do not depend on how many the branches before it used (common random numbers stay paired).
  */
 export function popBranch(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
-  const n = st[BRANCHES];
+  const n = st[BRANCHES] | 0;
   if (n <= 0) return -1;
   const b = cs.branches;
   const o = (n - 1) * BRANCH_SLOTS;
@@ -70,6 +70,6 @@ export function popBranch(cs: CompiledStack, st: Float64Array, rng: RandomStream
   // Branches are only made before the ray enters the absorber (interfaceEvent).
   st[ENTERED] = 0;
   st[BRANCH_SERIAL]++;
-  rng.startSubstream(st[RAY_INDEX], st[BRANCH_SERIAL]);
-  return b[o + B_MEDIUM];
+  rng.startSubstream(st[RAY_INDEX] | 0, st[BRANCH_SERIAL] | 0);
+  return b[o + B_MEDIUM] | 0;
 }

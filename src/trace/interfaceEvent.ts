@@ -3,7 +3,7 @@ import { lookupInterface } from "../optics/interfaceTable.js";
 import type { CompiledInterface, CompiledStack } from "./compiledStack.js";
 import { rouletteCheck } from "./bulkTransport.js";
 import { canBranch, pushBranch } from "./branches.js";
-import { ANALOG, DIED, ENTERED, SPLIT, DX, DY, DZ, EX, EY, EZ, NX, NY, NZ, PA, PB, REFLECT, SX, SY, SZ, TRANSMIT, W } from "./rayState.js";
+import { ANALOG, DIED, ENTERED, EP, ES, SPLIT, DX, DY, DZ, EX, EY, EZ, NX, NY, NZ, PA, PB, REFLECT, SX, SY, SZ, TRANSMIT, W } from "./rayState.js";
 
 /**
  * Scattering at an interface with films, normal N (state NX..NZ) pointing into the upper medium.
@@ -39,6 +39,12 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   }
   const Es = ex * sx + ey * sy + ez * sz;
   const Ep = ex * (sy * dz - sz * dy) + ey * (sz * dx - sx * dz) + ez * (sx * dy - sy * dx);
+  // The outcome helpers read s and the amplitudes from the state (no doubles as call arguments).
+  st[SX] = sx;
+  st[SY] = sy;
+  st[SZ] = sz;
+  st[ES] = Es;
+  st[EP] = Ep;
   const e2 = Es * Es + Ep * Ep;
   const fs = e2 > 0 ? (Es * Es) / e2 : 1;
   const fp = 1 - fs;
@@ -103,10 +109,15 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
     // reflection, the largest loss at most wavelengths, is then an expected value instead of a
     // coin toss; later events stay sampled, where splitting would grow trees of little weight.
     if (!up && st[ENTERED] === 0 && wNew * (pR < 0.5 ? pR : 1 - pR) >= cs.splitMinWeight && cs.splitMinWeight > 0 && canBranch(st)) {
-      reflectInto(st, dx, dy, dz, dn, nx, ny, nz, sx, sy, sz, Es, Ep, Rs, Rp);
-      pushBranch(cs, st, wNew * pR);
+      reflectInto(st, row);
+      st[W] = wNew * pR;
+      pushBranch(cs, st);
+      // Back to the incoming direction for the transmitted part.
+      st[DX] = dx;
+      st[DY] = dy;
+      st[DZ] = dz;
       st[W] = wNew * (1 - pR);
-      transmitInto(st, iface, up, cosI, dx, dy, dz, nx, ny, nz, sx, sy, sz, Es, Ep, Ts, Tp);
+      transmitInto(st, row, iface, up);
       return SPLIT;
     }
     st[W] = wNew;
@@ -117,31 +128,34 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   }
 
   if (reflect) {
-    reflectInto(st, dx, dy, dz, dn, nx, ny, nz, sx, sy, sz, Es, Ep, Rs, Rp);
+    reflectInto(st, row);
     return REFLECT;
   }
-  transmitInto(st, iface, up, cosI, dx, dy, dz, nx, ny, nz, sx, sy, sz, Es, Ep, Ts, Tp);
+  transmitInto(st, row, iface, up);
   return TRANSMIT;
 }
 
-/** Specular reflection of direction d at normal n, with the polarisation after it. */
-function reflectInto(st: Float64Array, dx: number, dy: number, dz: number, dn: number, nx: number, ny: number, nz: number,
-  sx: number, sy: number, sz: number, Es: number, Ep: number, Rs: number, Rp: number): void {
+/**
+ * Specular reflection of the direction d (state) at the normal n (state), with the polarisation after
+ * it from s and the amplitudes in the state and Rs, Rp from the interface row.
+ */
+function reflectInto(st: Float64Array, row: Float64Array): void {
+  const dx = st[DX], dy = st[DY], dz = st[DZ], nx = st[NX], ny = st[NY], nz = st[NZ];
+  const dn = dx * nx + dy * ny + dz * nz;
   st[DX] = dx - 2 * dn * nx;
   st[DY] = dy - 2 * dn * ny;
   st[DZ] = dz - 2 * dn * nz;
   // E' = √Rs·Es·s − √Rp·Ep·p_r (keeps the line of polarisation at normal incidence).
-  st[SX] = sx;
-  st[SY] = sy;
-  st[SZ] = sz;
-  st[PA] = Es * Math.sqrt(Rs);
-  st[PB] = -Ep * Math.sqrt(Rp);
+  st[PA] = st[ES] * Math.sqrt(row[0]);
+  st[PB] = -st[EP] * Math.sqrt(row[1]);
   setPolarization(st);
 }
 
-/** Refraction of direction d at normal n (Snell), with the polarisation after it. */
-function transmitInto(st: Float64Array, iface: CompiledInterface, up: boolean, cosI: number, dx: number, dy: number, dz: number,
-  nx: number, ny: number, nz: number, sx: number, sy: number, sz: number, Es: number, Ep: number, Ts: number, Tp: number): void {
+/** Refraction of the direction d (state) at the normal n (state), Snell, with the polarisation after it (Ts, Tp from the row). */
+function transmitInto(st: Float64Array, row: Float64Array, iface: CompiledInterface, up: boolean): void {
+  const dx = st[DX], dy = st[DY], dz = st[DZ], nx = st[NX], ny = st[NY], nz = st[NZ];
+  const dn = dx * nx + dy * ny + dz * nz;
+  const cosI = dn > 0 ? dn : -dn;
   // Snell (real indices): t = η d + (η cosθi − cosθt) n_i, n_i the normal facing the incoming ray.
   const n1 = up ? iface.nLower : iface.nUpper;
   const n2 = up ? iface.nUpper : iface.nLower;
@@ -157,11 +171,8 @@ function transmitInto(st: Float64Array, iface: CompiledInterface, up: boolean, c
   st[DX] = tx;
   st[DY] = ty;
   st[DZ] = tz;
-  st[SX] = sx;
-  st[SY] = sy;
-  st[SZ] = sz;
-  st[PA] = Es * Math.sqrt(Ts);
-  st[PB] = Ep * Math.sqrt(Tp);
+  st[PA] = st[ES] * Math.sqrt(row[2]);
+  st[PB] = st[EP] * Math.sqrt(row[3]);
   setPolarization(st);
 }
 

@@ -18,8 +18,10 @@ export const EVENTS = 26;
 export const BRANCHES = 27, RAY_INDEX = 28, BRANCH_SERIAL = 29;
 /** 1 once the branch in flight has entered the absorber (splitting is for the first pass only). */
 export const ENTERED = 30;
+/** The s and p amplitudes of the polarisation at the current interface event (interfaceEvent). */
+export const ES = 31, EP = 32;
 /** Number of state slots. */
-export const STATE_LENGTH = 31;
+export const STATE_LENGTH = 33;
 
 /** Search result: a hit, its distance in st[T] (NO_HIT and LOST come from the geometry). */
 export const HIT = 0;
