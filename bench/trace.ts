@@ -8,6 +8,7 @@ import type { CompileOptions } from "../src/trace/compile.js";
 import { availableParallelism, loadavg } from "node:os";
 import { buildNativeTracer, type NativeTracer } from "./native.js";
 import { createTally, summarizeTally } from "../src/trace/tally.js";
+import { summarizeTrapping } from "../src/trace/trappingSummary.js";
 
 /**
  * Reference case: bare regular upright 54.74° pyramids of 10 µm base on the front of 180 µm Si
@@ -80,9 +81,9 @@ export function traceBenchRows(estimator: Estimator = "expected", nRays = BENCH_
       raysPerSecond: nRays / seconds,
       eventsPerRay: s.eventsPerRay,
       eventsPerSecond: (s.eventsPerRay * nRays) / seconds,
-      R: at("R"),
+      R: at("R_first") + at("R_escape"),
       A: at("A_absorber"),
-      T: at("T"),
+      T: at("T_first") + at("T_escape"),
       A_rear: at("A_rear"),
     });
   }
@@ -136,7 +137,9 @@ function lightfoldRun(wavelengthNm: number, options: CompileOptions, nRays: numb
   const c = process.cpuUsage(c0);
   const s = summarizeTally(cs.channels, tally);
   const at = (name: string): [number, number] => [s.mean[cs.channels.indexOf(name)], s.stderr[cs.channels.indexOf(name)]];
-  return { seconds: (c.user + c.system) * 1e-6, rays: nRays, events: s.eventsPerRay * nRays, R: at("R"), A: at("A_absorber"), A_rear: at("A_rear") };
+  // R as a whole (R_first + R_escape), its error from the per-ray totals.
+  const r = summarizeTrapping(tally, cs.channels.length).reflectionTotal;
+  return { seconds: (c.user + c.system) * 1e-6, rays: nRays, events: s.eventsPerRay * nRays, R: [r.mean, r.stderr], A: at("A_absorber"), A_rear: at("A_rear") };
 }
 
 function nativeRun(native: NativeTracer, wavelengthNm: number, nRays: number, seed: number): TimedRun {

@@ -28,7 +28,7 @@ function benchMatrix(): ResponseMatrix {
   }
   return {
     format: RESPONSE_FORMAT, formatVersion: RESPONSE_FORMAT_VERSION, toolVersion: "bench", studyName: "bench", studyHash: "0", seed: 1, combo: {},
-    thetaDeg, phiDeg, phiMode: "square", wavelengthNm, channels: ["R", "A_absorber"], mean, stderr,
+    thetaDeg, phiDeg, phiMode: "square", wavelengthNm, channels: ["R_first", "A_absorber"], mean, stderr,
     nRays: new Float64Array(n).fill(1e4), pathRatio: new Float64Array(n).fill(1),
   };
 }

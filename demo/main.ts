@@ -7,7 +7,8 @@
  *      texture-benefit table;
  *   5. an invented glass–glass bifacial stack traced from both sides, and its front + rear year over
  *      tilts and row pitches at an invented bright-ground site;
- *   6. the HTML report. Output under runs/demo/ (re-running starts afresh).
+ *   6. generation profiles G(z) of the two stacks at normal incidence (<stack>/generation/);
+ *   7. the HTML report. Output under runs/demo/ (re-running starts afresh).
  */
 import { existsSync, mkdirSync, rmSync } from "node:fs";
 import { availableParallelism } from "node:os";
@@ -27,6 +28,8 @@ import { writeRunPhotocurrent } from "../src/weighting/runSummaries.js";
 import type { PhotocurrentSummary } from "../src/weighting/index.js";
 import { runDemoYield } from "./yieldStage.js";
 import { runDemoBifacial } from "./bifacialStage.js";
+import { runGeneration } from "../src/generation/runGeneration.js";
+import { DEFAULT_DEPTH_GRID } from "../src/generation/traceProfile.js";
 
 const ROOT = packageRoot();
 const OUT = join(ROOT, "runs", "demo");
@@ -126,7 +129,27 @@ async function main(): Promise<void> {
   });
   say(`  bifacial: ${bi.loaded.name} traced from both sides (${bi.rays.toExponential(2)} rays), optical bifaciality ${bif.bifaciality.toFixed(3)}; year at 4 tilts × 5 mountings (${elapsed(tb).toFixed(1)} s)`);
 
-  // 6. report
+  // 6. generation profiles G(z) at normal incidence (beside each run, read by the report)
+  const tg = performance.now();
+  const gen = stacks.map((s) => {
+    const study = s.loaded.combos[0]!.study;
+    return runGeneration(s.loaded, {
+      comboIndex: 0,
+      thetaDeg: 0,
+      phiDeg: null,
+      raysPerWavelength: 4000,
+      batch: 2000,
+      grid: DEFAULT_DEPTH_GRID,
+      seed: study.seed,
+      spectrum: spectrumFromSpec(study.spectrum, s.loaded.baseDir),
+      collection: null,
+      collectionLabel: null,
+      outDir: join(s.dir, "generation"),
+    });
+  });
+  say(`  generation profiles G(z) at 0°: ${gen.map((g, i) => `${stacks[i]!.loaded.name} q·∫G dz = ${g.profile.integratedMaCm2.toFixed(2)} mA/cm²`).join(", ")} (${elapsed(tg).toFixed(1)} s)`);
+
+  // 7. report
   const report = makeReport(
     [...stacks.map((s) => s.dir), bi.dir],
     { angleDeg: 0, outDir: join(OUT, "report") },
@@ -137,13 +160,13 @@ async function main(): Promise<void> {
   const rows = stacks.map((s) => {
     const d0 = s.photocurrent.directions.find((d) => d.thetaDeg === 0)!;
     const d60 = s.photocurrent.directions.find((d) => d.thetaDeg === 60);
-    const r = d0.losses.find((l) => l.channel === "R");
-    const row = [s.loaded.name, `${d0.jscMaCm2.toFixed(2)} ± ${d0.jscStderrMaCm2.toFixed(2)}`, r ? r.currentMaCm2.toFixed(2) : "-", d60?.iam != null ? d60.iam.toFixed(3) : "-"];
+    const loss = (channel: string): string => d0.losses.find((l) => l.channel === channel)?.currentMaCm2.toFixed(2) ?? "-";
+    const row = [s.loaded.name, `${d0.jscMaCm2.toFixed(2)} ± ${d0.jscStderrMaCm2.toFixed(2)}`, loss("R_first"), loss("R_escape"), d60?.iam != null ? d60.iam.toFixed(3) : "-"];
     for (const t of TILTS_DEG) row.push(yieldSummary.annualAhM2.get(`${s.loaded.name}@${t}`)?.toFixed(0) ?? "-");
     row.push(`${yieldSummary.bestTiltDeg.get(s.loaded.name) ?? "-"}°`);
     return row;
   });
-  const header = ["stack", "Jsc 0° (mA/cm²)", "front refl. (mA/cm²)", "IAM 60°"];
+  const header = ["stack", "Jsc 0° (mA/cm²)", "reflected before entering", "escaped after entering", "IAM 60°"];
   for (const t of TILTS_DEG) header.push(`year @${t}° (A·h/m²)`);
   header.push("best tilt");
   say(table(header, rows));

@@ -155,6 +155,18 @@ export interface BifacialRow {
   gainStdErrPct: number;
 }
 
+/** A generation profile G(z) (from <run>/generation/generation.json, written by `lightfold generation`). */
+export interface GenerationEntry {
+  label: string;
+  thetaDeg: number;
+  spectrum: string;
+  /** Bin centres, µm from the top of the front texture. */
+  depthUm: number[];
+  generationCm3S: number[];
+  /** q·∫G dz, mA/cm². */
+  integratedMaCm2: number;
+}
+
 export interface ReportInput {
   /** Page title (study names joined); escaped. */
   title: string;
@@ -171,6 +183,8 @@ export interface ReportInput {
   optima: OptimumEntry[];
   /** Front + rear yields (bifacial files); absent or empty when none. */
   bifacial?: BifacialRow[];
+  /** Generation profiles (generation/generation.json); absent or empty when none. */
+  generations?: GenerationEntry[];
   /** Remarks about what was read or skipped (e.g. a malformed optional file); shown at the top. */
   notes: string[];
 }

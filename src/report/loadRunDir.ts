@@ -8,6 +8,7 @@ import { InputError } from "../util/errors.js";
 import { readInputText } from "../util/inputFile.js";
 import { toolVersion } from "../util/version.js";
 import { adaptConvergence } from "./adaptConvergence.js";
+import { adaptGeneration } from "./adaptGeneration.js";
 import { adaptOptimum } from "./adaptOptimum.js";
 import { adaptPhotocurrent } from "./adaptPhotocurrent.js";
 import { adaptYieldFile } from "./adaptYield.js";
@@ -71,6 +72,7 @@ function loadAll(runDirs: string[], opts: LoadOptions): ReportInput {
     tiltSweeps: [],
     benefit: [],
     optima: [],
+    generations: [],
     notes: [],
   };
   const studyNames: string[] = [];
@@ -109,6 +111,11 @@ function loadAll(runDirs: string[], opts: LoadOptions): ReportInput {
       };
       input.stacks.push(entry);
       if (!studyNames.includes(matrix.studyName)) studyNames.push(matrix.studyName);
+      found++;
+    }
+    const genPath = join(dir, "generation", "generation.json");
+    if (existsSync(genPath)) {
+      (input.generations ??= []).push(adaptGeneration(readJsonFile(genPath), genPath));
       found++;
     }
     const convPath = join(dir, "convergence.json");

@@ -23,12 +23,13 @@ interface Words {
 
 const FIXED: Record<string, Words> = {
   A_absorber: { long: "absorber", short: "absorber" },
-  R: { long: "reflected to the front", short: "R" },
+  // Matrices of format version 1: reflection and escape through the front together.
+  R: { long: "front reflection + escape (not split: older matrix)", short: "R" },
   R_first: { long: "reflected before entering the absorber", short: "R first" },
   R_escape: { long: "escaped through the front from the absorber", short: "R escape" },
-  T: { long: "transmitted through the rear", short: "T" },
+  T: { long: "transmitted through the rear (not split: older matrix)", short: "T" },
   T_first: { long: "transmitted at the rear on the first pass", short: "T first" },
-  T_escape: { long: "escaped through the rear after more passes", short: "T escape" },
+  T_escape: { long: "escaped through the rear after being turned back", short: "T escape" },
   A_rear: { long: "rear reflector", short: "rear refl." },
   unresolved: { long: "unresolved (event limit)", short: "unresolved" },
 };

@@ -1,7 +1,30 @@
 import type { ComboPlan, SweepPlan } from "../sweep/plan.js";
 import { pointsPerCombo } from "../sweep/plan.js";
 import { channelMean, channelStdErr, groupOffset, PAIR_GROUPS, tallyLength } from "../sweep/tally.js";
-import { RESPONSE_FORMAT, RESPONSE_FORMAT_VERSION, type ResponseMatrix } from "./responseMatrix.js";
+import { RESPONSE_FORMAT, RESPONSE_FORMAT_VERSION, type ResponseMatrix, type TrappingArrays } from "./responseMatrix.js";
+import { ESCAPE_ANGLE_BINS, ESCAPE_ANGLE_BIN_DEG, MAX_PASSES } from "../trace/tallyLayout.js";
+import { summarizeTrapping, type TrappingSummary } from "../trace/trappingSummary.js";
+
+export function emptyTrapping(nPoints: number): TrappingArrays {
+  return {
+    maxPasses: MAX_PASSES,
+    escapeAngleBinDeg: ESCAPE_ANGLE_BIN_DEG,
+    entered: new Float64Array(nPoints),
+    freePathRatio: new Float64Array(nPoints),
+    freePathRatioStderr: new Float64Array(nPoints),
+    passRemaining: new Float64Array(nPoints * (MAX_PASSES + 1)),
+    escapeAngle: new Float64Array(nPoints * ESCAPE_ANGLE_BINS),
+  };
+}
+
+function fillTrapping(a: TrappingArrays, q: number, s: TrappingSummary): void {
+  a.entered[q] = s.entered.mean;
+  a.freePathRatio[q] = s.freePathRatio.mean;
+  a.freePathRatioStderr[q] = s.freePathRatio.stderr;
+  s.passRemaining.forEach((e, k) => (a.passRemaining[q * (MAX_PASSES + 1) + k] = e.mean));
+  a.passRemaining[q * (MAX_PASSES + 1) + MAX_PASSES] = s.passTail.mean;
+  s.escapeAngle.forEach((e, b) => (a.escapeAngle[q * ESCAPE_ANGLE_BINS + b] = e.mean));
+}
 
 /**
  * The response matrix of one combination from its merged point tallies (global point order, see
@@ -23,6 +46,7 @@ export function matrixFromTallies(
   const G = PAIR_GROUPS;
   const groupMean = new Float64Array(nPts * G * nCh);
   const groupRays = new Float64Array(nPts * G);
+  const trapping = emptyTrapping(nPts);
   for (let q = 0; q < nPts; q++) {
     const t = tallyOf(comboIndex * nPts + q);
     if (t === undefined) continue;
@@ -42,6 +66,7 @@ export function matrixFromTallies(
     nRays[q] = n;
     // The tracer tallies each ray's path in the absorber already divided by its thickness.
     pathRatio[q] = n > 0 ? t[2 * nCh + 1] / n : 0;
+    if (n > 0) fillTrapping(trapping, q, summarizeTrapping(t, nCh));
   }
   const m: ResponseMatrix = {
     format: RESPONSE_FORMAT,
@@ -63,6 +88,7 @@ export function matrixFromTallies(
     pairGroups: G,
     groupMean,
     groupRays,
+    trapping,
   };
   if (partial) m.partial = true;
   if (combo.lightFrom === "rear") m.lightFrom = "rear";

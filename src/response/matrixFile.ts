@@ -1,7 +1,7 @@
 import { parseJsonInput, readInputText } from "../util/inputFile.js";
 import { writeFileAtomic } from "../util/atomicWrite.js";
 import type { ResponseMatrix } from "./responseMatrix.js";
-import { validateMatrix } from "./validateMatrix.js";
+import { TRAPPING_ARRAYS, validateMatrix } from "./validateMatrix.js";
 
 const ARRAY_FIELDS = ["mean", "stderr", "nRays", "pathRatio"] as const;
 
@@ -12,6 +12,11 @@ export function matrixToJson(m: ResponseMatrix): string {
   // Optional pairing groups (paired errors of differences, src/response/pairedDifference.ts).
   if (m.groupMean !== undefined) plain.groupMean = Array.from(m.groupMean);
   if (m.groupRays !== undefined) plain.groupRays = Array.from(m.groupRays);
+  if (m.trapping !== undefined) {
+    const t: Record<string, unknown> = { ...m.trapping };
+    for (const f of TRAPPING_ARRAYS) t[f] = Array.from(m.trapping[f]);
+    plain.trapping = t;
+  }
   return JSON.stringify(plain);
 }
 

@@ -3,11 +3,17 @@
  * One flat row-major array per statistic, index order [theta][phi][lambda][channel].
  */
 export const RESPONSE_FORMAT = "lightfold.response";
-export const RESPONSE_FORMAT_VERSION = 1;
+/**
+ * Version 2: reflection and transmission split by history (R_first/R_escape, T_first/T_escape) and
+ * the light-trapping diagnostics. Version 1 files still load: their "R" and "T" are totals.
+ */
+export const RESPONSE_FORMAT_VERSION = 2;
 
 /** Fixed channel names every stack has; others are per layer/film (see DEVELOPERS.md). */
-export const CH_REFLECTANCE = "R";
-export const CH_TRANSMITTANCE = "T";
+export { CH_R_FIRST, CH_R_ESCAPE, CH_T_FIRST, CH_T_ESCAPE } from "../trace/channels.js";
+/** Format version 1 channels (reflection + escape, all rear transmission). */
+export const CH_R_TOTAL_V1 = "R";
+export const CH_T_TOTAL_V1 = "T";
 export const CH_ABSORBER = "A_absorber";
 export const CH_UNRESOLVED = "unresolved";
 
@@ -39,8 +45,13 @@ export interface ResponseMatrix {
   stderr: Float64Array;
   /** Rays traced per point, [theta][phi][lambda]. */
   nRays: Float64Array;
-  /** Mean optical path in the absorber divided by its thickness, per point ([theta][phi][lambda]). */
+  /**
+   * Photon path in the absorber / thickness per incident photon, until absorbed or out (the mean
+   * path of the light actually there, shortened by absorption), per point ([theta][phi][lambda]).
+   */
   pathRatio: Float64Array;
+  /** Light-trapping diagnostics (format version 2; absent in older files). */
+  trapping?: TrappingArrays;
   /** True when written from an incomplete set of shards (explicitly requested). */
   partial?: boolean;
   /**
@@ -57,6 +68,24 @@ export interface ResponseMatrix {
   pairGroups?: number;
   groupMean?: Float64Array;
   groupRays?: Float64Array;
+}
+
+/**
+ * Light-trapping diagnostics per point ([theta][phi][lambda], then the inner axis), from the tallies
+ * (src/trace/tallyLayout.ts). Fractions of entered power are ratios of the point's sums.
+ */
+export interface TrappingArrays {
+  maxPasses: number;
+  escapeAngleBinDeg: number;
+  /** Power that entered the absorber per unit incident power. */
+  entered: Float64Array;
+  /** Path in the absorber / thickness with the absorber's absorption removed (α → 0), per unit entered power, and its error. */
+  freePathRatio: Float64Array;
+  freePathRatioStderr: Float64Array;
+  /** Fraction of the entered power still inside after pass k = 1..maxPasses, then the Σ over later passes: [point][maxPasses + 1]. */
+  passRemaining: Float64Array;
+  /** R_escape power per incident power per polar-angle bin of escapeAngleBinDeg: [point][90 / escapeAngleBinDeg]. */
+  escapeAngle: Float64Array;
 }
 
 /** Flat index of (theta, phi, lambda, channel). */

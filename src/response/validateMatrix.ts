@@ -1,6 +1,9 @@
 import { InputError } from "../util/errors.js";
 import { at, int, names, num, numbers, obj, oneOf, refuse, str, type Where } from "../util/untrustedJson.js";
-import { RESPONSE_FORMAT, RESPONSE_FORMAT_VERSION, type PhiMode, type ResponseMatrix } from "./responseMatrix.js";
+import { RESPONSE_FORMAT, RESPONSE_FORMAT_VERSION, type PhiMode, type ResponseMatrix, type TrappingArrays } from "./responseMatrix.js";
+
+/** The per-point arrays of a version-2 matrix's "trapping" object. */
+export const TRAPPING_ARRAYS = ["entered", "freePathRatio", "freePathRatioStderr", "passRemaining", "escapeAngle"] as const;
 
 /** A point's channels must sum to 1 within this (a matrix written by lightfold: within 1e-12). */
 export const MATRIX_SUM_TOLERANCE = 1e-6;
@@ -79,5 +82,26 @@ export function validateMatrix(raw: unknown, file: string): ResponseMatrix {
     m.groupMean = Float64Array.from(groupMean);
     m.groupRays = Float64Array.from(groupRays);
   }
+  // Version 1 has no diagnostics and keeps its "R" / "T" totals (labelled as such everywhere).
+  if (o.trapping === undefined || o.formatVersion < 2) delete m.trapping;
+  else m.trapping = validateTrapping(o.trapping, at(root, "trapping"), nPts);
   return m;
+}
+
+/** The "trapping" object: whole maxPasses ≥ 1, a bin width dividing 90°, arrays sized to the grid. */
+function validateTrapping(raw: unknown, where: Where, nPts: number): TrappingArrays {
+  const t = obj(raw, where);
+  const maxPasses = int(t.maxPasses, at(where, "maxPasses"), 1, 10000);
+  const binDeg = num(t.escapeAngleBinDeg, at(where, "escapeAngleBinDeg"));
+  if (!(binDeg > 0) || !Number.isInteger(90 / binDeg)) refuse(at(where, "escapeAngleBinDeg"), "a bin width in degrees that divides 90", binDeg);
+  const sizes: Record<(typeof TRAPPING_ARRAYS)[number], number> = {
+    entered: nPts,
+    freePathRatio: nPts,
+    freePathRatioStderr: nPts,
+    passRemaining: nPts * (maxPasses + 1),
+    escapeAngle: nPts * (90 / binDeg),
+  };
+  const out = { maxPasses, escapeAngleBinDeg: binDeg } as TrappingArrays;
+  for (const f of TRAPPING_ARRAYS) out[f] = Float64Array.from(numbers(t[f], at(where, f), { length: sizes[f], min: 0, max: 1e9 }));
+  return out;
 }

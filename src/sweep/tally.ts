@@ -1,17 +1,20 @@
 /**
  * Tally layout of a sweep point (docs/contracts.md, Tracer and Run directory): the tracer's part,
- * per channel [sum, sumSq] then [nRays, pathSum, pathSumSq, events]; then PAIR_GROUPS pairing
+ * per channel [sum, sumSq] then [nRays, pathSum, pathSumSq, events] and the fixed light-trapping
+ * block (src/trace/tallyLayout.ts); then PAIR_GROUPS pairing
  * groups of [sum per channel…, nRays]: batch b of a point adds its channel sums to group
  * b mod PAIR_GROUPS. Groups are independent replicas of the point, and two combinations (or two
  * studies of one seed) trace batch b with the same random stream, so the spread of per-group
  * differences gives the standard error of a difference with its correlation (src/sweep/pairing.ts).
  */
+import { baseTallyLength } from "../trace/tallyLayout.js";
+
 export const TALLY_EXTRA = 4;
 export const PAIR_GROUPS = 16;
 
 /** Length of the tracer's part of a tally. */
 export function traceTallyLength(nChannels: number): number {
-  return 2 * nChannels + TALLY_EXTRA;
+  return baseTallyLength(nChannels);
 }
 
 /** Length of a sweep point's tally: the tracer's part and the pairing groups. */

@@ -7,7 +7,8 @@ import { Q_LENGTH } from "../geometry/surfaceHit.js";
 import { planarTile, SURFACE_LAMBERTIAN, SURFACE_MESH, type SurfaceTile } from "../geometry/surfaceTile.js";
 import { isBacksheet, isIdealRear, type BacksheetSpec, type BoundaryKind, type FilmSpec, type StackSpec, type TextureSpec } from "../study/stackTypes.js";
 import { reflectanceAt } from "../study/reflectanceCsv.js";
-import { channelNamesOfStack } from "./channels.js";
+import { DIAG_LENGTH, ESCAPE_ANGLE_BINS, MAX_PASSES } from "./tallyLayout.js";
+import { CH_R_ESCAPE, CH_R_FIRST, CH_T_ESCAPE, CH_T_FIRST, channelNamesOfStack } from "./channels.js";
 import { BRANCH_SLOTS, MAX_BRANCHES } from "./branches.js";
 import { STATE_LENGTH } from "./rayState.js";
 import {
@@ -39,6 +40,11 @@ export interface CompileOptions {
   splitMinWeight?: number;
   /** Rows of the interface tables over cosθ (default 1024). */
   nCos?: number;
+  /**
+   * Generation profile: tally absorber absorption per depth bin (edges in µm from the top of the
+   * front texture, ascending from 0; the last bin also takes anything deeper). Off by default.
+   */
+  depthEdgesUm?: Float64Array | number[];
 }
 
 export const DEFAULT_ESTIMATOR: Estimator = "expected";
@@ -176,7 +182,7 @@ export function compileStack(
       filmChan0: rearFilms.length > 0 ? ch(`A_film:rear:0:${rearSpec.films[0].material}`) : -1,
       // A metal takes what enters it. Light entering a transparent exit ends as T at once only
       // behind a planar rear; behind a texture it may meet a neighbouring facet again, so it goes on.
-      lowerSinkChan: metal ? ch("A_rear") : nRear === 0 && rearTile.kind !== SURFACE_MESH ? ch("T") : -1,
+      lowerSinkChan: metal ? ch("A_rear") : nRear === 0 && rearTile.kind !== SURFACE_MESH ? ch(CH_T_FIRST) : -1,
     };
     if (nRear > 0 && metal) throw new InputError(`stack.rear.exit: "${rearSpec.exit}" is a metal at ${wavelengthNm} nm; rear layers need a transparent medium behind the rear interface`);
     rearOpaque = metal && nRear === 0;
@@ -225,7 +231,7 @@ export function compileStack(
       nLower: mediumN[below],
       nFilms: f.length,
       filmChan0: f.length > 0 ? ch(`A_film:bottom:${l.name}:0:${l.bottomFilms[0].material}`) : -1,
-      lowerSinkChan: below === outerMedium ? ch("T") : -1,
+      lowerSinkChan: below === outerMedium ? ch(CH_T_FIRST) : -1,
     };
   });
   if (backsheet) rearOpaque = true;
@@ -233,6 +239,7 @@ export function compileStack(
     : typeof backsheet.reflectance === "number" ? backsheet.reflectance
     : backsheetTableValue(backsheet.reflectance, wavelengthNm);
 
+  const depthEdges = options.depthEdgesUm === undefined ? null : checkDepthEdges(options.depthEdgesUm);
   return {
     stack,
     wavelengthNm,
@@ -262,8 +269,10 @@ export function compileStack(
     rearTile,
     rearReflectance,
     thicknessUm,
-    chR: ch("R"),
-    chT: ch("T"),
+    chRFirst: ch(CH_R_FIRST),
+    chREscape: ch(CH_R_ESCAPE),
+    chTFirst: ch(CH_T_FIRST),
+    chTEscape: ch(CH_T_ESCAPE),
     chAbsorber: ch("A_absorber"),
     chRear: ch("A_rear"),
     chUnresolved: ch("unresolved"),
@@ -276,7 +285,22 @@ export function compileStack(
     contrib: new Float64Array(channels.length),
     state: new Float64Array(STATE_LENGTH),
     query: new Float64Array(Q_LENGTH),
+    diag: new Float64Array(DIAG_LENGTH),
+    depthEdgesUm: depthEdges,
+    depthTopZUm: frontTile.zMaxUm,
+    absorberDepthUm: frontTile.zMaxUm + thicknessUm + rearTile.zMaxUm,
+    rayDepth: new Float64Array(depthEdges === null ? 0 : depthEdges.length - 1),
+    rayPasses: new Float64Array(MAX_PASSES),
+    rayEscape: new Float64Array(ESCAPE_ANGLE_BINS),
   };
+}
+
+function checkDepthEdges(edges: Float64Array | number[]): Float64Array {
+  const e = Float64Array.from(edges);
+  let ok = e.length >= 2 && e[0] === 0;
+  for (let i = 1; i < e.length && ok; i++) ok = e[i] > e[i - 1] && Number.isFinite(e[i]);
+  if (!ok) throw new InputError(`depth bins: expected edges in µm ascending from 0 (at least one bin), got [${Array.from(e).join(", ")}]`);
+  return e;
 }
 
 /** Surface tiles depend only on the texture and boundary: built once per spec object. */

@@ -18,7 +18,7 @@ export interface CompiledInterface {
   nFilms: number;
   /** Channel of film 0 (films i → filmChan0 + i); −1 without films. */
   filmChan0: number;
-  /** Channel that takes light transmitted into the lower medium when it ends there (metal → A_rear, transparent exit → T); −1 when it propagates on. */
+  /** Channel that takes light transmitted into the lower medium when it ends there (metal → A_rear, transparent exit → T_first, chosen by history as T_first or T_escape in interfaceEvent); −1 when it propagates on. */
   lowerSinkChan: number;
 }
 
@@ -72,8 +72,11 @@ export interface CompiledStack {
   rearOpaque: boolean;
   /** z (µm) where rays from the rear start, in the outer medium. */
   rearLaunchZUm: number;
-  chR: number;
-  chT: number;
+  /** R_first / R_escape and T_first / T_escape (see channels.ts). */
+  chRFirst: number;
+  chREscape: number;
+  chTFirst: number;
+  chTEscape: number;
   chAbsorber: number;
   chRear: number;
   chUnresolved: number;
@@ -91,4 +94,17 @@ export interface CompiledStack {
   state: Float64Array;
   /** Hit query of meshHit (Q_* slots). */
   query: Float64Array;
+  /** The diagnostics block of the batch tally being filled (src/trace/tallyLayout.ts); set by traceBatch. */
+  diag: Float64Array;
+  /** Generation profile: depth bin edges (µm, ascending from 0) or null when not tallied. */
+  depthEdgesUm: Float64Array | null;
+  /** World z of depth 0: the highest points of the front texture. */
+  depthTopZUm: number;
+  /** Depth from depthTopZUm to the deepest point of the absorber (rear texture included), µm. */
+  absorberDepthUm: number;
+  /** Per-ray depth deposits (one per bin; empty without a depth grid). */
+  rayDepth: Float64Array;
+  /** Per-ray power still inside after passes 1..MAX_PASSES and R_escape power per polar bin (history.ts). */
+  rayPasses: Float64Array;
+  rayEscape: Float64Array;
 }

@@ -3,3 +3,6 @@ export type { CompiledStack, CompiledInterface, Estimator } from "./compiledStac
 export { channelNames, channelNamesOfStack } from "./channels.js";
 export { traceBatch, type Polarization } from "./kernel.js";
 export { createTally, summarizeTally, TALLY_EXTRA_ENTRIES, type TallySummary } from "./tally.js";
+export { summarizeTrapping, summarizeDepthBins, lambertianLimit, type TrappingSummary, type Estimate } from "./trappingSummary.js";
+export { MAX_PASSES, ESCAPE_ANGLE_BINS, ESCAPE_ANGLE_BIN_DEG, baseTallyLength } from "./tallyLayout.js";
+export { geometricDepthEdges } from "./depthTally.js";

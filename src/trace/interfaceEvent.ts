@@ -4,6 +4,7 @@ import type { CompiledInterface, CompiledStack } from "./compiledStack.js";
 import { rouletteCheck } from "./bulkTransport.js";
 import { canBranch, pushBranch } from "./branches.js";
 import { ANALOG, DIED, ENTERED, EP, ES, SPLIT, DX, DY, DZ, EX, EY, EZ, NX, NY, NZ, PA, PB, REFLECT, SX, SY, SZ, TRANSMIT, W } from "./rayState.js";
+import { rearExitChannel } from "./history.js";
 
 /**
  * Scattering at an interface with films, normal N (state NX..NZ) pointing into the upper medium.
@@ -52,7 +53,9 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   const Rpow = fs * Rs + fp * Rp;
   const Tpow = fs * Ts + fp * Tp;
   const nF = iface.nFilms;
-  const sink = up ? -1 : iface.lowerSinkChan;
+  // Light that ends below in a transparent exit leaves through the rear: T_first or T_escape by its history.
+  let sink = up ? -1 : iface.lowerSinkChan;
+  if (sink === cs.chTFirst) sink = rearExitChannel(cs, st);
   const contrib = cs.contrib;
   // Total reflection (Rpow = 1) needs no random number: u = 0 reflects in both estimators.
   const u = Rpow < 1 ? rng.next() : 0;

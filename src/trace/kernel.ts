@@ -3,14 +3,28 @@ import type { RandomStream } from "../random/stream.js";
 import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
 import { SURFACE_LAMBERTIAN } from "../geometry/surfaceTile.js";
 import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
-import { BRANCH_SERIAL, BRANCHES, DIED, DZ, ENTERED, EVENTS, HIT, PATH, RAY_INDEX, REFLECT, SPLIT, T, TRANSMIT, TWO_PI, W, Z, advance, setNormal } from "./rayState.js";
+import { BRANCH_SERIAL, BRANCHES, DIED, DZ, ENTERED, EVENTS, FACE, HIT, PATH, RAY_INDEX, REFLECT, SPLIT, T, TRANSMIT, TWO_PI, W, Z, advance, setNormal } from "./rayState.js";
 import { popBranch, setBranchMedium } from "./branches.js";
 import { launchRay, polarizationMode, setLaunchAngles, setLaunchAzimuth, type Polarization } from "./launch.js";
 import { frontSearch, outerSearch, rearSearch, rearSearchFromBehind } from "./surfaceSearch.js";
 import { absorbAlong } from "./bulkTransport.js";
 import { interfaceEvent } from "./interfaceEvent.js";
 import { backsheetEvent, idealRear, lambertianDirection, lambertianFrontFromBelow, randomPolarization } from "./idealSurfaces.js";
-import { foldBatchTotals, foldRayContributions } from "./tally.js";
+import { foldBatchTotals, foldRayContributions, tallyLengthOf } from "./tally.js";
+import { DIAG_LENGTH, diagOffset } from "./tallyLayout.js";
+import {
+  FACE_FRONT,
+  FACE_REAR,
+  arriveAtFace,
+  departFace,
+  enterAbsorber,
+  foldHistory,
+  leaveFront,
+  rearExitChannel,
+  resetBranchHistory,
+  resetHistory,
+} from "./history.js";
+import { foldDepth } from "./depthTally.js";
 
 export type { Polarization } from "./launch.js";
 
@@ -48,7 +62,12 @@ export function traceBatch(
   if (!(thetaDeg >= 0 && thetaDeg < 90)) throw new InputError(`angle: expected a polar angle in [0, 90) degrees, got ${thetaDeg}`);
   if (phiDeg !== null && !Number.isFinite(phiDeg)) throw new InputError(`azimuth: expected a number of degrees, got ${phiDeg}`);
   const nC = cs.nChannels;
-  if (tally.length < 2 * nC + 4) throw new RangeError(`tally has ${tally.length} entries, needs ${2 * nC + 4}`);
+  const need = tallyLengthOf(cs);
+  if (tally.length < need) throw new RangeError(`tally has ${tally.length} entries, needs ${need}`);
+  const diagAt = diagOffset(nC);
+  cs.diag = tally.subarray(diagAt, diagAt + DIAG_LENGTH);
+  const depthAt = diagAt + DIAG_LENGTH;
+  const withDepth = cs.depthEdgesUm !== null;
   const fromRear = side === "rear";
   if (fromRear && cs.rearOpaque) {
     throw new InputError(`illumination: light from the rear needs a transparent rear; this stack ends in a reflector, a metal or a back-sheet`, 'trace from the front, or give the stack a transparent rear ("rearOuter": "air")');
@@ -68,9 +87,12 @@ export function traceBatch(
     st[RAY_INDEX] = r;
     if (phiDeg === null) setLaunchAzimuth(st, TWO_PI * rng.next());
     launchRay(cs, polMode, rng, fromRear);
+    resetHistory(st, fromRear ? FACE_REAR : FACE_FRONT);
     traceRay(cs, rng, startMedium);
     events += st[EVENTS];
+    foldHistory(cs, st, invW);
     foldRayContributions(cs.contrib, nC, tally);
+    if (withDepth) foldDepth(cs, tally, depthAt);
     const p = st[PATH] * invW;
     pathSum += p;
     pathSumSq += p * p;
@@ -118,6 +140,7 @@ function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number): vo
     // This branch ended: a lost one reports its weight; then the next pending branch, if any.
     if (next === RAY_LOST) cs.contrib[cs.chUnresolved] += st[W];
     m = popBranch(cs, st, rng);
+    resetBranchHistory(st);
     if (m < 0) return;
   }
 }
@@ -129,6 +152,8 @@ function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number): vo
  */
 function stepInAbsorber(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
   const ABS = cs.nLayers + 1;
+  // Going up after the rear: the next pass has begun (history.ts).
+  if (st[DZ] > 0 && st[FACE] === FACE_REAR) departFace(cs, st);
   if (st[DZ] > 0 && st[Z] < -cs.thicknessUm - cs.rearTile.zMinUm) {
     const inRear = rearSearch(cs, st);
     if (inRear === LOST) return RAY_LOST;
@@ -140,9 +165,12 @@ function stepInAbsorber(cs: CompiledStack, st: Float64Array, rng: RandomStream):
     if (absorbAlong(cs, st, ABS, rng)) return RAY_ENDED;
     advance(st);
     st[EVENTS]++;
+    arriveAtFace(st, FACE_FRONT);
     if (cs.frontTile.kind === SURFACE_LAMBERTIAN) return lambertianFrontFromBelow(cs, st, rng) ? cs.nLayers : ABS;
     return afterInterface(cs, st, interfaceEvent(cs, st, cs.front, rng), ABS, cs.nLayers);
   }
+  // Heading for the rear, clear of the front texture: the next pass has begun.
+  if (st[FACE] === FACE_FRONT) departFace(cs, st);
   found = rearSearch(cs, st);
   if (found === LOST) return RAY_LOST;
   if (found === NO_HIT) return ABS; // left the rear texture's slab upward
@@ -155,6 +183,7 @@ function atRear(cs: CompiledStack, st: Float64Array, rng: RandomStream): number 
   if (absorbAlong(cs, st, ABS, rng)) return RAY_ENDED;
   advance(st);
   st[EVENTS]++;
+  arriveAtFace(st, FACE_REAR);
   if (cs.rearKind === REAR_IDEAL_MIRROR || cs.rearKind === REAR_IDEAL_LAMBERTIAN) return idealRear(cs, st, rng) ? RAY_ENDED : ABS;
   // into the first rear layer, or (without rear layers) absorbed/escaped in the exit medium's sink
   return afterInterface(cs, st, interfaceEvent(cs, st, cs.rear as CompiledInterface, rng), ABS, ABS + 1);
@@ -171,7 +200,9 @@ function stepOntoRear(cs: CompiledStack, st: Float64Array, m: number, rng: Rando
   if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
   advance(st);
   st[EVENTS]++;
-  return afterInterface(cs, st, interfaceEvent(cs, st, cs.rear as CompiledInterface, rng), m, m - 1);
+  const next = afterInterface(cs, st, interfaceEvent(cs, st, cs.rear as CompiledInterface, rng), m, m - 1);
+  if (next === m - 1) enterAbsorber(st, FACE_REAR);
+  return next;
 }
 
 /**
@@ -183,7 +214,7 @@ function stepBehindAbsorber(cs: CompiledStack, st: Float64Array, m: number, rng:
   const j = m - cs.nLayers - 2; // rear layer index; cs.nRear for the outer medium
   if (vz < 0) {
     if (m === cs.outerMedium) {
-      cs.contrib[cs.chT] += st[W];
+      cs.contrib[rearExitChannel(cs, st)] += st[W];
       return RAY_ENDED;
     }
     st[T] = (cs.rearBottomZUm[j] - st[Z]) / vz;
@@ -234,9 +265,12 @@ function stepOntoFront(cs: CompiledStack, st: Float64Array, rng: RandomStream): 
     // Ideal randomiser: everything enters the absorber, in a Lambertian direction.
     lambertianDirection(st, -1, rng);
     randomPolarization(st, rng);
+    enterAbsorber(st, FACE_FRONT);
     return ABS;
   }
-  return afterInterface(cs, st, interfaceEvent(cs, st, cs.front, rng), m, ABS);
+  const next = afterInterface(cs, st, interfaceEvent(cs, st, cs.front, rng), m, ABS);
+  if (next === ABS) enterAbsorber(st, FACE_FRONT);
+  return next;
 }
 
 /** Planar thick layer m (or the incidence medium, m = 0): straight to its top or bottom plane. */
@@ -244,7 +278,7 @@ function stepInPlanarLayer(cs: CompiledStack, st: Float64Array, m: number, rng: 
   const vz = st[DZ];
   if (vz > 0) {
     if (m === 0) {
-      cs.contrib[cs.chR] += st[W];
+      leaveFront(cs, st);
       return RAY_ENDED;
     }
     st[T] = (cs.layerTopZUm[m] - st[Z]) / vz;

@@ -20,8 +20,14 @@ export const BRANCHES = 27, RAY_INDEX = 28, BRANCH_SERIAL = 29;
 export const ENTERED = 30;
 /** The s and p amplitudes of the polarisation at the current interface event (interfaceEvent). */
 export const ES = 31, EP = 32;
+/**
+ * History in the absorber (see history.ts): passes, last face, entered power, α → 0 path, its
+ * survival divisor, pass tail, pass end not yet recorded, face the light came in through, highest
+ * pass bin touched by the ray, whether it escaped through the front after entering.
+ */
+export const PASSES = 33, FACE = 34, ENTERED_W = 35, FREE_PATH = 36, BULK = 37, TAIL = 38, PENDING = 39, INCIDENT = 40, MAX_PASS = 41, ESCAPED = 42;
 /** Number of state slots. */
-export const STATE_LENGTH = 33;
+export const STATE_LENGTH = 43;
 
 /** Search result: a hit, its distance in st[T] (NO_HIT and LOST come from the geometry). */
 export const HIT = 0;

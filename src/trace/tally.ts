@@ -1,11 +1,17 @@
 import type { CompiledStack } from "./compiledStack.js";
+import { DIAG_LENGTH, TALLY_TOTALS, baseTallyLength } from "./tallyLayout.js";
 
-/** Extra tally entries after the channels: [nRays, pathSum, pathSumSq, events]. */
-export const TALLY_EXTRA_ENTRIES = 4;
+/** Extra tally entries after the channels: [nRays, pathSum, pathSumSq, events] and the diagnostics (tallyLayout.ts). */
+export const TALLY_EXTRA_ENTRIES = TALLY_TOTALS + DIAG_LENGTH;
+
+/** Length of a compiled stack's tally: the point tally, plus [Σg, Σg²] per depth bin when it has a depth grid. */
+export function tallyLengthOf(cs: CompiledStack): number {
+  return baseTallyLength(cs.nChannels) + 2 * cs.rayDepth.length;
+}
 
 /** A zeroed tally for a compiled stack (docs/contracts.md, Tracer). */
 export function createTally(cs: CompiledStack): Float64Array {
-  return new Float64Array(2 * cs.nChannels + TALLY_EXTRA_ENTRIES);
+  return new Float64Array(tallyLengthOf(cs));
 }
 
 export interface TallySummary {

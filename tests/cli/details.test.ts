@@ -81,7 +81,7 @@ describe("CLI details", () => {
     const text = formatPhotocurrentTable(s);
     expect(text).toMatch(/^theta_deg\s+phi_deg\s+Jsc\s+±SE\s+IAM\s+±SE\s+R\s+cover glass\s+rear refl\.$/m);
     expect(text).toMatch(/^0\s+averaged\s/m);
-    expect(text).toContain("no current in: SiO2 film on cover glass (#1) [A_film:top:cover glass:0:SiO2], transmitted through the rear [T], unresolved (event limit) [unresolved]");
+    expect(text).toContain("no current in: SiO2 film on cover glass (#1) [A_film:top:cover glass:0:SiO2], transmitted through the rear (not split: older matrix) [T], unresolved (event limit) [unresolved]");
     expect(matrixToCsv(m).split("\n")[1]).toMatch(/^0,averaged,400,R,/);
   });
 

@@ -27,7 +27,7 @@ writeFileSync(
 
 describe("lightfold converge", () => {
   it("prints the step table with slopes and the predicted rays", async () => {
-    const r = await run("converge", studyPath, "--wavelength", "500", "--channel", "R", "--start", "100", "--steps", "3", "--target-error", "0.01", "--quiet");
+    const r = await run("converge", studyPath, "--wavelength", "500", "--channel", "R_first", "--start", "100", "--steps", "3", "--target-error", "0.01", "--quiet");
     expect(r.code).toBe(0);
     expect(r.out).toMatch(/rays\/point\s+value\s+stderr\s+deviation\s+rms err \(4\)/);
     expect(r.out).toMatch(/log-log slope vs rays: rms error -?\d/);

@@ -35,7 +35,7 @@ describe("convergence with the tracer (planar bare Si, R at 400 nm, θ = 0)", ()
   // The analog estimator: the default one (expected value with first-pass splitting) returns this
   // opaque wafer's R and A exactly, with zero spread (see the last test), so it has no N^-1/2 law.
   const analog = { estimator: "analog" as const };
-  const target = { thetaDeg: 0, phiDeg: 0, wavelengthNm: 400, channel: "R", startRays: 1, steps: 2, replicas: 1, ...analog };
+  const target = { thetaDeg: 0, phiDeg: 0, wavelengthNm: 400, channel: "R_first", startRays: 1, steps: 2, replicas: 1, ...analog };
 
   it("RMS error falls as N^-1/2 over more than a decade, pooled over several seeds (slope -0.5 ± 0.1)", () => {
     // Standard Monte Carlo result (validation-sources.md, Convergence). Exact reference: Fresnel R.
@@ -64,7 +64,7 @@ describe("convergence with the tracer (planar bare Si, R at 400 nm, θ = 0)", ()
   });
 
   it("the independent reference run agrees with the Fresnel value (|z| < 4)", () => {
-    const r = buildConvergenceReport(loaded, { thetaDeg: 0, wavelengthNm: 400, channel: "R", startRays: 100, steps: 3, replicas: 2, ...analog });
+    const r = buildConvergenceReport(loaded, { thetaDeg: 0, wavelengthNm: 400, channel: "R_first", startRays: 100, steps: 3, replicas: 2, ...analog });
     expect(r.reference.kind).toBe("run");
     expect(r.reference.nRays).toBe(16 * 400);
     expect(Math.abs(r.reference.value - rExact) / r.reference.stderr).toBeLessThan(4);

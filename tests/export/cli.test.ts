@@ -19,7 +19,7 @@ describe("lightfold export", () => {
     expect(r.code).toBe(0);
     expect(r.out).toContain("matrix.csv");
     const rows = parseCsv(readFileSync(join(dir, "matrix.csv"), "utf8"));
-    expect(rows.length).toBe(1 + 3 * 2 * 4 * 4);
+    expect(rows.length).toBe(1 + 3 * 2 * 4 * 6); // header + θ·φ·λ·channel rows
   });
 
   it("--format npy --json lists the arrays and the sidecar", async () => {

@@ -74,7 +74,7 @@ describe("writeExport(m, 'npy', sidecarPath)", () => {
   it("arrays read back with the tiny reader to the same numbers bit for bit, shapes as the sidecar says", () => {
     const side = JSON.parse(readFileSync(sidecarPath, "utf8")) as NpySidecar;
     expect(side.axes.channels).toEqual(m.channels);
-    expect(side.arrays.mean.shape).toEqual([3, 2, 4, 4]);
+    expect(side.arrays.mean.shape).toEqual([3, 2, 4, 6]);
     expect(side.arrays.nRays.shape).toEqual([3, 2, 4]);
     const expected = { mean: m.mean, stderr: m.stderr, nRays: m.nRays, pathRatio: m.pathRatio };
     for (const key of ["mean", "stderr", "nRays", "pathRatio"] as const) {
@@ -107,7 +107,7 @@ describe("writeExport(m, 'npy', sidecarPath)", () => {
       hex: string[];
     };
     expect(out.dtype).toBe("<f8");
-    expect(out.shape).toEqual([3, 2, 4, 4]);
+    expect(out.shape).toEqual([3, 2, 4, 6]);
     expect(out.c).toBe(true);
     const fromNumpy = out.hex.map(hexToDouble);
     expect(bits(fromNumpy)).toEqual(bits(m.mean));

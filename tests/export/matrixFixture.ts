@@ -9,7 +9,7 @@ export function smallMatrix(): ResponseMatrix {
   const thetaDeg = [0, 30, 60];
   const phiDeg = [0, 45];
   const wavelengthNm = [400, 600, 800, 1000];
-  const channels = ["R", "A_film:front:0:SiNx", "A_absorber", "T"];
+  const channels = ["R_first", "R_escape", "A_film:front:0:SiNx", "A_absorber", "T_first", "T_escape"];
   const nPoints = thetaDeg.length * phiDeg.length * wavelengthNm.length;
   const rng = new RandomStream("fixture/small-matrix");
   const mean = new Float64Array(nPoints * channels.length);
@@ -28,12 +28,13 @@ export function smallMatrix(): ResponseMatrix {
     nRays[p] = 2000 + p;
     pathRatio[p] = 1 + 3 * rng.next();
   }
-  // Point 1 keeps its channels summing to 1: what channels 1 and 2 give up goes to R.
-  mean[4] += mean[5] + mean[6] - 1e-300;
-  mean[5] = 0; // exact zero
-  stderr[5] = 0;
-  mean[6] = 1e-300; // tiny normal double
-  stderr[7] = 0.1 + 0.2; // 0.30000000000000004
+  // Point 1 keeps its channels summing to 1: what channels 1 and 2 give up goes to channel 0.
+  const p1 = channels.length;
+  mean[p1] += mean[p1 + 1] + mean[p1 + 2] - 1e-300;
+  mean[p1 + 1] = 0; // exact zero
+  stderr[p1 + 1] = 0;
+  mean[p1 + 2] = 1e-300; // tiny normal double
+  stderr[p1 + 3] = 0.1 + 0.2; // 0.30000000000000004
   return {
     format: RESPONSE_FORMAT,
     formatVersion: RESPONSE_FORMAT_VERSION,

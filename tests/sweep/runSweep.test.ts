@@ -170,13 +170,13 @@ describe("mergeShards(options)", () => {
 describe("runSweep(options): target-error mode", () => {
   it("adds batches per point until each requested channel's standard error is below the target, the same for any worker count", async () => {
     const target = 0.03;
-    const study = tinyStudy({ rays: { targetStdErr: target, channels: ["R", "A_absorber"], maxPerPoint: 2000, batch: 25 } });
+    const study = tinyStudy({ rays: { targetStdErr: target, channels: ["R_first", "A_absorber"], maxPerPoint: 2000, batch: 25 } });
     const a = await runSweep({ study, workers: 1, tracerModule: TRACER });
     const b = await runSweep({ study, workers: 2, tracerModule: TRACER, shuffleSeed: 7, raysPerMessage: 25 });
     expectSameMatrices(a.matrices, b.matrices);
     const m = a.matrices[0];
     const nCh = m.channels.length;
-    const iR = m.channels.indexOf("R");
+    const iR = m.channels.indexOf("R_first");
     const iA = m.channels.indexOf("A_absorber");
     for (let q = 0; q < 6; q++) {
       const done = m.stderr[q * nCh + iR] < target && m.stderr[q * nCh + iA] < target;

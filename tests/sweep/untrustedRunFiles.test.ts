@@ -39,8 +39,9 @@ function mergeError(out: string, label = ""): string {
   throw new Error(`merge accepted a crafted shard ${label}`);
 }
 
-// Channels of the tiny study: R, A_film:front:0:SiNx, A_absorber, A_rear, T, unresolved (6): the
-// tally is [sum, sumSq] × 6, then nRays at index 12, pathSum, pathSumSq, events.
+// Channels of the tiny study: R_first, R_escape, A_film:front:0:SiNx, A_absorber, A_rear, T_first,
+// T_escape, unresolved (8): the tally is [sum, sumSq] × 8 (A_absorber's sum at index 6), then nRays
+// at index 16, pathSum, pathSumSq, events, then the light-trapping block.
 describe("merge refuses crafted shard outputs, naming the file and the reason, writing nothing", () => {
   it("a combination label that climbs out of --out (../../X)", async () => {
     const out = await twoShards();
@@ -52,10 +53,10 @@ describe("merge refuses crafted shard outputs, naming the file and the reason, w
 
   it("a channel sum raised by 100 rays' worth, a ray count changed, a negative or non-finite entry", async () => {
     const cases: [(d: { tallies: number[][] }) => void, RegExp][] = [
-      [(d) => (d.tallies[0][4] += 100), /tallies\[0\]: expected a sound tally of point 0; channels sum to 1\.7/],
-      [(d) => (d.tallies[1][12] *= 4), /tallies\[1\]: expected a sound tally of point 2; 520 rays, expected the plan's 130/],
+      [(d) => (d.tallies[0][6] += 100), /tallies\[0\]: expected a sound tally of point 0; channels sum to 1\.7/],
+      [(d) => (d.tallies[1][16] *= 4), /tallies\[1\]: expected a sound tally of point 2; 520 rays, expected the plan's 130/],
       // A_absorber's sum negated, R raised by twice as much: the total still matches the ray count.
-      [(d) => { d.tallies[0][0] += 2 * d.tallies[0][4]; d.tallies[0][4] = -d.tallies[0][4]; }, /tallies\[0\]: expected a sound tally of point 0; channel \d/],
+      [(d) => { d.tallies[0][0] += 2 * d.tallies[0][6]; d.tallies[0][6] = -d.tallies[0][6]; }, /tallies\[0\]: expected a sound tally of point 0; channel \d/],
       [(d) => ((d.tallies[2] as unknown[])[3] = "1e308"), /tallies\[2\]\[3\]: expected a finite number/],
     ];
     for (const [k, [edit, why]] of cases.entries()) {

@@ -7,6 +7,7 @@ import type { StackSpec, TextureSpec } from "../../src/study/stackTypes.js";
 import { compileStack, type CompileOptions, type MaterialSource } from "../../src/trace/compile.js";
 import { traceBatch, type Polarization } from "../../src/trace/kernel.js";
 import { createTally, summarizeTally, type TallySummary } from "../../src/trace/tally.js";
+import { summarizeTrapping } from "../../src/trace/trappingSummary.js";
 
 /** A dispersionless test material (n, k constant over 1–100000 nm). */
 export function constantMaterial(name: string, n: number, k: number): Material {
@@ -34,6 +35,8 @@ export function stackOf(parts: Partial<StackSpec> & { absorber: StackSpec["absor
 export interface TraceRun extends TallySummary {
   tally: Float64Array;
   get(channel: string): { mean: number; se: number };
+  /** R = R_first + R_escape or T = T_first + T_escape, the error from the per-ray totals (tallyLayout.ts). */
+  total(kind: "R" | "T"): { mean: number; se: number };
 }
 
 export function runTrace(
@@ -61,6 +64,11 @@ export function runTrace(
       const i = cs.channels.indexOf(channel);
       if (i < 0) throw new Error(`no channel ${channel} in ${cs.channels.join(", ")}`);
       return { mean: s.mean[i], se: s.stderr[i] };
+    },
+    total(kind: "R" | "T") {
+      const t = summarizeTrapping(tally, cs.channels.length);
+      const e = kind === "R" ? t.reflectionTotal : t.transmissionTotal;
+      return { mean: e.mean, se: e.stderr };
     },
   };
 }
@@ -94,4 +102,17 @@ export function expectWithin4Sigma(label: string, est: { mean: number; se: numbe
     appendFileSync(file, `${label}: ${est.mean.toFixed(6)} ± ${est.se.toFixed(6)} vs ${reference.toFixed(6)} (z = ${z.toFixed(2)})\n`);
   }
   expect(Math.abs(z), `${label}: ${est.mean} ± ${est.se} vs ${reference}`).toBeLessThan(4);
+}
+
+/**
+ * Exponential integral E3(x) = ∫₀¹ μ e^(−x/μ) dμ (Abramowitz & Stegun 5.1.4 with t = 1/μ), by
+ * composite Simpson's rule; the integrand is smooth on [0, 1] for x ≥ 0.
+ */
+export function expIntegral3(x: number): number {
+  const n = 20000;
+  const h = 1 / n;
+  const f = (mu: number): number => (mu === 0 ? 0 : mu * Math.exp(-x / mu));
+  let s = f(0) + f(1);
+  for (let i = 1; i < n; i++) s += (i % 2 === 1 ? 4 : 2) * f(i * h);
+  return (s * h) / 3;
 }

@@ -14,13 +14,15 @@ const stack = stackOf({ absorber: { material: "slab", thicknessUm: W_UM }, rear:
  * Incoherent multiple reflections in a slab between identical media (any radiometry text, e.g.
  * Born & Wolf §1.6 summed incoherently): τ = exp(−αW/cosθt), R = R1 + (1−R1)²R1τ²/(1−R1²τ²),
  * T = (1−R1)²τ/(1−R1²τ²), A = 1 − R − T. One polarisation at a time (s stays s in a planar slab).
+ * Split by history (the first terms of the same series): R_first = R1 (never entered),
+ * T_first = (1−R1)²τ (out at the first arrival at the rear); the rest is escape.
  */
-function slabClosedForm(R1: number, cosT: number): { R: number; T: number; A: number } {
+function slabClosedForm(R1: number, cosT: number): { R: number; T: number; A: number; Rfirst: number; Tfirst: number } {
   const tau = Math.exp((-ALPHA_PER_UM * W_UM) / cosT);
   const den = 1 - R1 * R1 * tau * tau;
   const R = R1 + ((1 - R1) ** 2 * R1 * tau * tau) / den;
   const T = ((1 - R1) ** 2 * tau) / den;
-  return { R, T, A: 1 - R - T };
+  return { R, T, A: 1 - R - T, Rfirst: R1, Tfirst: (1 - R1) ** 2 * tau };
 }
 
 describe("traceBatch on a planar thick slab (incoherent Fresnel + Beer–Lambert closed form)", () => {
@@ -32,15 +34,22 @@ describe("traceBatch on a planar thick slab (incoherent Fresnel + Beer–Lambert
       { pol: "s" as const, ref: s },
       { pol: "p" as const, ref: p },
       // Unpolarised: the mean of the s and p results (not of the Fresnel coefficients per bounce).
-      { pol: "unpolarized" as const, ref: { R: (s.R + p.R) / 2, T: (s.T + p.T) / 2, A: (s.A + p.A) / 2 } },
+      {
+        pol: "unpolarized" as const,
+        ref: { R: (s.R + p.R) / 2, T: (s.T + p.T) / 2, A: (s.A + p.A) / 2, Rfirst: (s.Rfirst + p.Rfirst) / 2, Tfirst: (s.Tfirst + p.Tfirst) / 2 },
+      },
     ];
     for (const { pol, ref } of cases) {
-      it(`θ = ${thetaDeg}°, ${pol}: R, A, T within 4σ`, () => {
+      it(`θ = ${thetaDeg}°, ${pol}: R, A, T and their first/escape split within 4σ`, () => {
         const run = runTrace(stack, registry, { thetaDeg, polarization: pol, nRays: 20000, seed: 7 + thetaDeg });
         const tag = `planar slab θ=${thetaDeg}° ${pol}`;
-        expectWithin4Sigma(`${tag} R`, run.get("R"), ref.R);
-        expectWithin4Sigma(`${tag} T`, run.get("T"), ref.T);
+        expectWithin4Sigma(`${tag} R`, run.total("R"), ref.R);
+        expectWithin4Sigma(`${tag} T`, run.total("T"), ref.T);
         expectWithin4Sigma(`${tag} A`, run.get("A_absorber"), ref.A);
+        expectWithin4Sigma(`${tag} R_first`, run.get("R_first"), ref.Rfirst);
+        expectWithin4Sigma(`${tag} R_escape`, run.get("R_escape"), ref.R - ref.Rfirst);
+        expectWithin4Sigma(`${tag} T_first`, run.get("T_first"), ref.Tfirst);
+        expectWithin4Sigma(`${tag} T_escape`, run.get("T_escape"), ref.T - ref.Tfirst);
       });
     }
   }
@@ -69,7 +78,8 @@ describe("traceBatch on a coated planar absorber vs the transfer-matrix result",
       const f = filmStack(1, [{ n: 2.2, k: 0.05, thicknessNm: 90 }], { n: 3.6, k: (0.6 * 1.0) / (4 * Math.PI) }, 1000, cos0);
       const run = runTrace(coated, reg, { thetaDeg, nRays: 20000, seed: 11, compile: { estimator: "analog" } });
       const tag = `coated planar θ=${thetaDeg}°`;
-      expectWithin4Sigma(`${tag} R`, run.get("R"), (f.Rs + f.Rp) / 2);
+      expectWithin4Sigma(`${tag} R_first`, run.get("R_first"), (f.Rs + f.Rp) / 2);
+      expect(run.get("R_escape").mean).toBe(0);
       expectWithin4Sigma(`${tag} A_film`, run.get("A_film:front:0:lossyFilm"), (f.As[0] + f.Ap[0]) / 2);
       expectWithin4Sigma(`${tag} A_absorber`, run.get("A_absorber"), (f.Ts + f.Tp) / 2);
     });
@@ -87,7 +97,7 @@ describe("traceBatch on a coated planar absorber vs the transfer-matrix result",
     });
     const run = runTrace(qw, reg, { nRays: 5000, seed: 2 });
     // k = 1e-3 in the substrate changes R by ~(k/2n)² ≈ 2e-8.
-    expect(run.get("R").mean).toBeLessThan(1e-6);
+    expect(run.total("R").mean).toBeLessThan(1e-6);
     expect(run.get("A_absorber").mean + run.get("A_rear").mean).toBeCloseTo(1, 6);
   });
 });

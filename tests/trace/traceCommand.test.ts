@@ -23,7 +23,7 @@ describe("lightfold trace", () => {
     expect(await main(["node", "lightfold", ...args, "--json"])).toBe(0);
     const json = JSON.parse(io.out());
     const names = Object.keys(json.channels);
-    expect(names).toEqual(["R", "A_absorber", "A_rear", "T", "unresolved"]);
+    expect(names).toEqual(["R_first", "R_escape", "A_absorber", "A_rear", "T_first", "T_escape", "unresolved"]);
     expect(json.channelSum).toBeCloseTo(1, 12);
     expect(json.nRays).toBe(400);
     vi.restoreAllMocks();

@@ -12,7 +12,7 @@ export function makeMatrix(opts: {
 }): ResponseMatrix {
   const phiDeg = opts.phiDeg ?? [0];
   const wavelengthNm = opts.wavelengthNm ?? Array.from({ length: 91 }, (_, i) => 300 + 10 * i);
-  const channels = ["R", "A_absorber"];
+  const channels = ["R_first", "A_absorber"];
   const nPts = opts.thetaDeg.length * phiDeg.length * wavelengthNm.length;
   const mean = new Float64Array(nPts * 2), stderr = new Float64Array(nPts * 2);
   let k = 0;

@@ -2,6 +2,7 @@ import type { Command } from "commander";
 import * as checkCmd from "./check.js";
 import * as sweepCmd from "./sweep.js";
 import * as traceCmd from "./trace.js";
+import * as generationCmd from "./generation.js";
 import * as mergeCmd from "./merge.js";
 import * as exportCmd from "./export.js";
 import * as spectralCmd from "./spectral.js";
@@ -21,4 +22,4 @@ export interface CommandModule {
 }
 
 // Each verb's module is listed here once; order = order in `lightfold --help`.
-export const commandModules: CommandModule[] = [checkCmd, traceCmd, sweepCmd, mergeCmd, materialsCmd, filmCmd, exportCmd, spectralCmd, convergeCmd, clusterCmd, reportCmd, weatherCmd, yieldCmd, compareCmd, optimizeCmd];
+export const commandModules: CommandModule[] = [checkCmd, traceCmd, generationCmd, sweepCmd, mergeCmd, materialsCmd, filmCmd, exportCmd, spectralCmd, convergeCmd, clusterCmd, reportCmd, weatherCmd, yieldCmd, compareCmd, optimizeCmd];

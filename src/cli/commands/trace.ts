@@ -6,6 +6,7 @@ import { compileStack } from "../../trace/compile.js";
 import type { Estimator } from "../../trace/compiledStack.js";
 import { traceBatch, type Polarization } from "../../trace/kernel.js";
 import { createTally, summarizeTally } from "../../trace/tally.js";
+import { lambertianLimit, summarizeTrapping } from "../../trace/trappingSummary.js";
 
 interface TraceOptions {
   angle: string;
@@ -46,9 +47,14 @@ Examples:
   lightfold trace configs/bench-pyramids.study.json --angle 30 --wavelength 1000
   lightfold trace my.study.json --angle 60 --azimuth averaged --rays 20000 --seed 7 --json
 
-Channels: R (escape to the incidence side), T (into a transparent rear exit), A_absorber,
+Channels: R_first (reflected before ever entering the absorber: cover layers, films, front
+interface), R_escape (entered the absorber, later left through the front), T_first / T_escape
+(left through a transparent rear on the first pass / after being turned back), A_absorber,
 A_layer:<name>, A_film:<where>:<i>:<material>, A_rear (rear metal or ideal reflector),
-unresolved (bounce limit). Each mean comes with its standard error from per-ray contributions.`,
+unresolved (bounce limit). Each mean comes with its standard error from per-ray contributions.
+Below the channels: the power that entered the absorber, the fraction of it still inside after
+1, 2, 3 … passes, the path enhancement with the absorber's absorption removed (α → 0) against
+4n² (Yablonovitch 1982), and the photon path per incident photon (shortened by absorption).`,
     )
     .action((studyPath: string, opts: TraceOptions) => {
       const thetaDeg = numberOption("angle", opts.angle, (v) => v >= 0 && v < 90, "a polar angle in [0, 90) degrees");
@@ -82,6 +88,11 @@ unresolved (bounce limit). Each mean comes with its standard error from per-ray 
       traceBatch(cs, thetaDeg, phiDeg, nRays, rng, tally, opts.polarization as Polarization);
       const seconds = Number(process.hrtime.bigint() - t0) * 1e-9;
       const s = summarizeTally(cs.channels, tally);
+      const trap = summarizeTrapping(tally, cs.channels.length);
+      const nAbs = cs.mediumN[cs.nLayers + 1];
+      // The α → 0 tally divides by bulk survival; it is well behaved while 4n²αW stays small.
+      const alphaW = cs.mediumAlphaPerUm[cs.nLayers + 1] * cs.thicknessUm;
+      const weak = lambertianLimit(nAbs) * alphaW < 1;
       let sum = 0;
       for (let c = 0; c < s.mean.length; c++) sum += s.mean[c];
 
@@ -100,7 +111,18 @@ unresolved (bounce limit). Each mean comes with its standard error from per-ray 
           estimator: cs.estimator,
           channels,
           channelSum: sum,
-          pathRatio: { mean: s.pathRatio, stderr: s.pathRatioStderr },
+          photonPathRatio: { mean: s.pathRatio, stderr: s.pathRatioStderr },
+          trapping: {
+            entered: trap.entered,
+            freePathRatio: trap.freePathRatio,
+            lambertianLimit: lambertianLimit(nAbs),
+            alphaW,
+            weakAbsorption: weak,
+            passRemaining: trap.passRemaining,
+            passTail: trap.passTail,
+            escapeAngleBinDeg: trap.escapeAngleBinDeg,
+            escapeAngle: trap.escapeAngle,
+          },
           eventsPerRay: s.eventsPerRay,
           seconds,
         };
@@ -117,7 +139,10 @@ unresolved (bounce limit). Each mean comes with its standard error from per-ray 
         ...cs.channels.map((name, c) => `  ${name.padEnd(w)}  ${s.mean[c].toFixed(6).padStart(9)}  ${s.stderr[c].toFixed(6).padStart(9)}`),
         `  ${"sum".padEnd(w)}  ${sum.toFixed(6).padStart(9)}`,
         "",
-        `  path in absorber / thickness: ${s.pathRatio.toFixed(3)} ± ${s.pathRatioStderr.toFixed(3)}`,
+        `  entered the absorber: ${trap.entered.mean.toFixed(6)} ± ${trap.entered.stderr.toFixed(6)} of the incident power`,
+        `  still inside after pass 1…5: ${trap.passRemaining.slice(0, 5).map((e) => e.mean.toFixed(4)).join(", ")} (of the entered power)`,
+        `  path enhancement with absorption removed (α → 0): ${trap.freePathRatio.mean.toFixed(2)} ± ${trap.freePathRatio.stderr.toFixed(2)} × thickness (4n² = ${lambertianLimit(nAbs).toFixed(1)}, n = ${nAbs.toFixed(3)}; αW = ${alphaW.toPrecision(3)}${weak ? "" : ": not weak, the importance weights are heavy-tailed here, read it at a weakly absorbing wavelength"})`,
+        `  photon path in absorber per incident photon (until absorbed or out): ${s.pathRatio.toFixed(3)} ± ${s.pathRatioStderr.toFixed(3)} × thickness`,
         `  events per ray: ${s.eventsPerRay.toFixed(2)}; ${(nRays / seconds).toFixed(0)} rays/s on one thread`,
       ];
       process.stdout.write(lines.join("\n") + "\n");

@@ -1,0 +1,59 @@
+import type { LoadedStudy } from "../study/load.js";
+import { photocurrentWeights, type Spectrum } from "../spectrum/index.js";
+import { toolVersion } from "../util/version.js";
+import { collectionAt, type CollectionCurve } from "./collection.js";
+import { eqeFromProfile, generationUnderSpectrum, spectralGenerationPerCm, type GenerationProfile } from "./profile.js";
+import { traceGenerationProfile, type DepthGridSpec, type SpectralProfile } from "./traceProfile.js";
+import { writeGenerationFiles } from "./writeProfile.js";
+
+export interface GenerationRunOptions {
+  comboIndex: number;
+  thetaDeg: number;
+  phiDeg: number | null;
+  raysPerWavelength: number;
+  batch: number;
+  grid: DepthGridSpec;
+  seed: number;
+  spectrum: Spectrum;
+  /** Uniform collection probability, a curve η(z), or none. */
+  collection: number | CollectionCurve | null;
+  /** Text recorded in the sidecar for the collection (flag value or file). */
+  collectionLabel: string | null;
+  outDir: string;
+  onWavelength?(done: number, total: number): void;
+}
+
+export interface GenerationRun {
+  spectral: SpectralProfile;
+  profile: GenerationProfile;
+  files: string[];
+}
+
+/** Traces, weights and writes a generation profile of one combination (the `generation` verb and the demo). */
+export function runGeneration(loaded: LoadedStudy, o: GenerationRunOptions): GenerationRun {
+  const combo = loaded.combos[o.comboIndex];
+  const spectral = traceGenerationProfile({
+    study: combo.study,
+    registry: loaded.registry,
+    comboIndex: o.comboIndex,
+    thetaDeg: o.thetaDeg,
+    phiDeg: o.phiDeg,
+    raysPerWavelength: o.raysPerWavelength,
+    batch: o.batch,
+    grid: o.grid,
+    seed: o.seed,
+    onWavelength: o.onWavelength,
+  });
+  const profile = generationUnderSpectrum(spectral, photocurrentWeights(combo.study.grid.wavelengthNm, o.spectrum));
+  const c = o.collection;
+  const eta = c === null ? null : typeof c === "number" ? new Float64Array(profile.depthUm.length).fill(c) : collectionAt(c, profile.depthUm);
+  const files = writeGenerationFiles(
+    o.outDir,
+    { studyName: loaded.name, studyHash: combo.hash, combo: combo.label, seed: o.seed, toolVersion: toolVersion(), spectrum: o.spectrum.name, collection: o.collectionLabel },
+    spectral,
+    profile,
+    spectralGenerationPerCm(spectral),
+    eqeFromProfile(spectral, eta),
+  );
+  return { spectral, profile, files };
+}

@@ -1,0 +1,169 @@
+import type { CompiledStack } from "./compiledStack.js";
+import { BULK, DZ, ENTERED_W, ESCAPED, FACE, FREE_PATH, INCIDENT, MAX_PASS, PASSES, PENDING, TAIL, W } from "./rayState.js";
+import { DIAG_ENTERED, DIAG_ESCAPE_ANGLE, DIAG_FREE_PATH, DIAG_R_TOTAL, DIAG_T_TOTAL, ESCAPE_ANGLE_BINS, MAX_PASSES, diagPassOffset } from "./tallyLayout.js";
+
+/**
+ * A ray's history in the absorber, kept in its state slots (rayState.ts): how many passes it has
+ * made, which face it touched last, the power it entered with, its path with the absorber's
+ * absorption removed and the survival factor that removal divides by.
+ *
+ * A pass is one traversal of the absorber between its faces: it starts when the ray enters through
+ * the front (pass 1) and ends at the first arrival at the other face; further hits on the same face
+ * (a second facet of a texture) belong to the same arrival. The power still inside after pass k is
+ * taken when the ray sets off on pass k + 1 (departFace). st[PASSES] is the number of the pass
+ * under way (0 before entering), so it reads k + 1 once pass k has ended. "First" channels follow
+ * (leavesFirst): light leaving through the face it came in by, never having entered, and light
+ * leaving through the other face at the end of pass 1; everything else that leaves is escape.
+ *
+ * A ray may be split into branches before it enters (branches.ts): each branch starts its own
+ * history (resetBranchHistory), and the ray's sums — entered power, α → 0 path, power per pass and
+ * per escape angle (cs.rayPasses, cs.rayEscape) — add over its branches, so the tally keeps one
+ * sample per ray (its squares are those of the ray's totals).
+ */
+
+export const FACE_NONE = 0;
+export const FACE_FRONT = 1;
+export const FACE_REAR = 2;
+
+const RAD_TO_BIN = (180 / Math.PI) * (ESCAPE_ANGLE_BINS / 90);
+
+/** A new ray arriving at `incidentFace` (FACE_FRONT or FACE_REAR): no pass, no face, nothing entered. */
+export function resetHistory(st: Float64Array, incidentFace: number): void {
+  st[INCIDENT] = incidentFace;
+  st[ENTERED_W] = 0;
+  st[FREE_PATH] = 0;
+  st[TAIL] = 0;
+  st[MAX_PASS] = 0;
+  st[ESCAPED] = 0;
+  resetBranchHistory(st);
+}
+
+/** A branch of the ray starts (it has not entered the absorber): its own pass count, face and survival. */
+export function resetBranchHistory(st: Float64Array): void {
+  st[PASSES] = 0;
+  st[FACE] = FACE_NONE;
+  st[BULK] = 1;
+  st[PENDING] = 0;
+}
+
+/** The ray crossed `face` (FACE_FRONT / FACE_REAR) into the absorber (with its weight st[W]). */
+export function enterAbsorber(st: Float64Array, face: number): void {
+  if (st[PASSES] === 0) {
+    st[PASSES] = 1;
+    st[ENTERED_W] += st[W];
+  }
+  st[FACE] = face;
+}
+
+/**
+ * True when light leaving the stack through `face` now is "first": at its first arrival at that
+ * face — the incidence face before it ever entered the absorber, the other face at the end of the
+ * first pass (the pass counter reads 2 there).
+ */
+export function leavesFirst(st: Float64Array, face: number): boolean {
+  return face === st[INCIDENT] ? st[PASSES] === 0 : st[PASSES] <= 2;
+}
+
+/** Channel of light leaving through the rear now: T_first or T_escape. */
+export function rearExitChannel(cs: CompiledStack, st: Float64Array): number {
+  return leavesFirst(st, FACE_REAR) ? cs.chTFirst : cs.chTEscape;
+}
+
+/**
+ * The ray in the absorber arrives at a face (FACE_FRONT / FACE_REAR). Returns 1 when this ends a
+ * pass (the other face was touched last), else 0.
+ */
+export function arriveAtFace(st: Float64Array, face: number): number {
+  if (st[FACE] === face) return 0;
+  st[FACE] = face;
+  st[PASSES] += 1;
+  st[PENDING] = 1;
+  return 1;
+}
+
+/**
+ * The ray sets off from the face it touched last into the bulk (clear of that face's texture):
+ * when that face ended a pass, its weight st[W] is the power still inside after that pass. Taken
+ * at departure rather than right after the face event, so light that left through one facet and
+ * came back in through the next (textures) or was returned by a cover layer counts as still inside,
+ * and light that hits a second facet and leaves does not.
+ */
+export function departFace(cs: CompiledStack, st: Float64Array): void {
+  if (st[PENDING] === 0) return;
+  st[PENDING] = 0;
+  const w = st[W];
+  const k = st[PASSES] - 1; // passes completed
+  if (k > MAX_PASSES) {
+    st[TAIL] += w;
+    return;
+  }
+  cs.rayPasses[k - 1] += w;
+  if (k > st[MAX_PASS]) st[MAX_PASS] = k;
+}
+
+/**
+ * The ray leaves through the front (weight st[W], going up): R_first or R_escape (leavesFirst);
+ * R_escape power is also binned by the polar angle of its direction (cosθ = st[DZ]).
+ */
+export function leaveFront(cs: CompiledStack, st: Float64Array): void {
+  const w = st[W];
+  const cosTheta = st[DZ];
+  if (leavesFirst(st, FACE_FRONT)) {
+    cs.contrib[cs.chRFirst] += w;
+    return;
+  }
+  cs.contrib[cs.chREscape] += w;
+  let bin = Math.floor(Math.acos(cosTheta < 1 ? cosTheta : 1) * RAD_TO_BIN);
+  if (bin >= ESCAPE_ANGLE_BINS) bin = ESCAPE_ANGLE_BINS - 1;
+  cs.rayEscape[bin] += w;
+  st[ESCAPED] = 1;
+}
+
+/**
+ * Adds the finished ray's sums (and their squares) to the diagnostics and clears its scratch. Called
+ * before its channel contributions are folded (it reads the R and T totals from them).
+ */
+export function foldHistory(cs: CompiledStack, st: Float64Array, invThicknessUm: number): void {
+  const d = cs.diag;
+  const c = cs.contrib;
+  const r = c[cs.chRFirst] + c[cs.chREscape];
+  d[DIAG_R_TOTAL] += r;
+  d[DIAG_R_TOTAL + 1] += r * r;
+  const tr = c[cs.chTFirst] + c[cs.chTEscape];
+  d[DIAG_T_TOTAL] += tr;
+  d[DIAG_T_TOTAL + 1] += tr * tr;
+  const e = st[ENTERED_W];
+  if (e !== 0) {
+    d[DIAG_ENTERED] += e;
+    d[DIAG_ENTERED + 1] += e * e;
+  }
+  const f = st[FREE_PATH] * invThicknessUm;
+  if (f !== 0) {
+    d[DIAG_FREE_PATH] += f;
+    d[DIAG_FREE_PATH + 1] += f * f;
+  }
+  const p = cs.rayPasses;
+  for (let k = 1; k <= st[MAX_PASS]; k++) {
+    const v = p[k - 1];
+    const o = diagPassOffset(k);
+    d[o] += v;
+    d[o + 1] += v * v;
+    p[k - 1] = 0;
+  }
+  const t = st[TAIL];
+  if (t !== 0) {
+    const o = diagPassOffset(MAX_PASSES + 1);
+    d[o] += t;
+    d[o + 1] += t * t;
+  }
+  if (st[ESCAPED] !== 0) {
+    const a = cs.rayEscape;
+    for (let b = 0; b < ESCAPE_ANGLE_BINS; b++) {
+      const v = a[b];
+      const o = DIAG_ESCAPE_ANGLE + 2 * b;
+      d[o] += v;
+      d[o + 1] += v * v;
+      a[b] = 0;
+    }
+  }
+}
