@@ -26,10 +26,10 @@ const FIXED: Record<string, Words> = {
   // Matrices of format version 1: reflection and escape through the front together.
   R: { long: "front reflection + escape (not split: older matrix)", short: "R" },
   R_first: { long: "reflected before entering the absorber", short: "R first" },
-  R_escape: { long: "escaped through the front from the absorber", short: "R escape" },
+  R_escape: { long: "entered, then left through the front", short: "R escape" },
   T: { long: "transmitted through the rear (not split: older matrix)", short: "T" },
-  T_first: { long: "transmitted at the rear on the first pass", short: "T first" },
-  T_escape: { long: "escaped through the rear after being turned back", short: "T escape" },
+  T_first: { long: "left through the rear on the first pass", short: "T first" },
+  T_escape: { long: "left through the rear on a later pass", short: "T escape" },
   A_rear: { long: "rear reflector", short: "rear refl." },
   unresolved: { long: "unresolved (event limit)", short: "unresolved" },
 };

@@ -286,12 +286,14 @@ const SHARD_CASES: Case[] = [
   shard("absolute label", (s) => (s.plan.combos[0].label = "/tmp/X"), /plan\.combos\[0\]\.label: expected a plain folder name/),
   shard("label of a hidden folder", (s) => (s.plan.combos[0].label = ".x"), /plan\.combos\[0\]\.label: expected a plain folder name/),
   shard("a mean raised by 100 rays", (s) => (s.tallies[0][4] += 100), /tallies\[0\]: expected a sound tally of point 0; channels sum to/),
-  shard("a ray count ×4", (s) => (s.tallies[1][12] *= 4), /tallies\[1\]: expected a sound tally of point 2; 520 rays, expected the plan's 130/),
+  // Tiny study tally: [sum, sumSq] × 8 channels (R_first, R_escape, A_film, A_absorber, A_rear, T_first,
+  // T_escape, unresolved), nRays at 16, path sums at 17–18, events at 19, then the 86-entry trapping block.
+  shard("a ray count ×4", (s) => (s.tallies[1][16] *= 4), /tallies\[1\]: expected a sound tally of point 2; 520 rays, expected the plan's 130/),
   shard("a tally entry as text", (s) => (s.tallies[0][0] = "0"), /tallies\[0\]\[0\]: expected a finite number/),
-  // 6 channels: 2·6 + 4 tracer entries and 16 pairing groups of 6 + 1 (src/sweep/tally.ts) = 128.
-  shard("a tally too short", (s) => s.tallies[0].pop(), /tallies\[0\]: expected a list of 128 numbers, got 127/),
-  shard("sum of squares above the sum", (s) => (s.tallies[0][5] = s.tallies[0][4] * 2), /tallies\[0\]: expected a sound tally of point 0; channel 2: sum of squares/),
-  shard("a negative path sum", (s) => (s.tallies[0][13] = -1), /tallies\[0\]: expected a sound tally of point 0; tally entry 13 is negative/),
+  // 8 channels: 2·8 + 4 tracer entries, the 86-entry light-trapping block, 16 pairing groups of 8 + 1 (src/sweep/tally.ts) = 250.
+  shard("a tally too short", (s) => s.tallies[0].pop(), /tallies\[0\]: expected a list of 250 numbers, got 249/),
+  shard("sum of squares above the sum", (s) => (s.tallies[0][7] = s.tallies[0][6] * 2), /tallies\[0\]: expected a sound tally of point 0; channel 3: sum of squares/),
+  shard("a negative path sum", (s) => (s.tallies[0][17] = -1), /tallies\[0\]: expected a sound tally of point 0; tally entry 17 is negative/),
   shard("a point outside the plan", (s) => (s.points[1] = 999), /points\[1\]: expected an integer in \[0, 5\], got 999/),
   shard("points out of order", (s) => s.points.reverse(), /points\[1\]: expected values in increasing order/),
   shard("tallies and points of different lengths", (s) => s.tallies.pop(), /tallies: expected a list of 3 tallies/),

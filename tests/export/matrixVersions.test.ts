@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { matrixFromJson, matrixToJson } from "../../src/response/matrixFile.js";
 import { emptyTrapping } from "../../src/response/fromTallies.js";
-import { channelLabel } from "../../src/report/channels.js";
+import { channelLabel } from "../../src/response/channelLabels.js";
 import { photocurrentForMatrix } from "../../src/weighting/writePhotocurrent.js";
 import { astmG173 } from "../../src/spectrum/index.js";
 import { smallMatrix } from "./matrixFixture.js";

@@ -138,11 +138,11 @@ describe("report page in headless Chromium", () => {
     await page.close();
   });
 
-  it("a 12-channel module stack: every ledger step and spectral strip has its own colour and a label that fits", async () => {
+  it("a 14-channel module stack: every ledger step and spectral strip has its own colour and a label that fits", async () => {
     const page = await context.newPage();
     await page.goto(pathToFileURL(resolve(moduleReport.indexPath)).href, { waitUntil: "load" });
     const ledger = await page.$$eval('svg[data-plot^="ledger"] rect.step', (r) => r.map((e) => e.getAttribute("fill")));
-    expect(ledger.length).toBe(MODULE_CHANNELS.length); // 11 losses + the absorber, none hidden
+    expect(ledger.length).toBe(MODULE_CHANNELS.length); // 13 losses + the absorber, none hidden
     expect(new Set(ledger).size).toBe(ledger.length);
     const strips = await page.$$eval('svg[data-plot^="spectral"] g.strip', (g) => g.map((e) => e.getAttribute("data-colour")));
     expect(strips.length).toBe(MODULE_CHANNELS.length);

@@ -84,7 +84,7 @@ describe("renderReport(input) with user text that looks like markup", () => {
     const values = [...svg.matchAll(/<text [^>]*>(−?)(&lt;)?([0-9.]+)(?: ± [0-9.]+)?(?: mA\/cm²)?(?: · [0-9.]+ %| \((?:&lt;)?[0-9.]+ %\))<\/text>/g)].map((m) => (m[2] ? 0 : Number(m[3]) * (m[1] ? -1 : 1)));
     const [incident, ...rest] = values;
     const absorber = rest.pop()!;
-    expect(rest.length).toBe(6); // R, T, SiNx film, layer, rear reflector, unresolved (all carry current here)
+    expect(rest.length).toBe(7); // R_first, R_escape, T_first, SiNx film, layer, rear reflector, unresolved (all carry current here)
     expect(incident! + rest.reduce((s, v) => s + v, 0)).toBeCloseTo(absorber, 1);
     expect(svg).toContain("incident photon current");
     expect(svg).toContain("= absorber photocurrent");
@@ -95,7 +95,8 @@ describe("renderReport(input) with user text that looks like markup", () => {
     const svg = rendered.figures.find((f) => f.id.startsWith("spectral-1"))!.svg;
     const labels = [...svg.matchAll(/class="strip-label">([^<]+)</g)].map((m) => m[1]);
     expect(labels[0]).toBe("absorber");
-    expect(labels).toContain("reflected to the front");
+    expect(labels).toContain("reflected before entering the absorber");
+    expect(labels).toContain("entered, then left through the front");
     expect(svg.match(/<g class="strip"/g)!.length).toBe(labels.length);
     const empty = renderReport(loadReportInput([writeTinyRun(join(tmp, "strips"), { matricesOnly: true })], { angleDeg: 0 }));
     expect(empty.figures.length).toBeGreaterThan(0);
