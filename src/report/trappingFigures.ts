@@ -35,7 +35,7 @@ export function passesFigure(stack: StackEntry, index: number, angleDeg: number)
     });
     let free = 0;
     for (let ip = 0; ip < nP; ip++) free += t.freePathRatio[(it * nP + ip) * nL + il]!;
-    return { label: `${m.wavelengthNm[il]} nm · α→0 path ${(free / nP).toFixed(1)} W`, x: passes, y, markers: true, colour: seriesColour(s) };
+    return { label: `${m.wavelengthNm[il]} nm (α→0 path ${(free / nP).toFixed(1)} W)`, x: passes, y, markers: true, colour: seriesColour(s) };
   });
   const id = `passes-${stackId(stack, index)}`;
   const title = `Light still in the absorber after each pass at θ = ${angleDeg}°`;
@@ -45,7 +45,7 @@ export function passesFigure(stack: StackEntry, index: number, angleDeg: number)
     svg: linePlot({
       id,
       title,
-      subtitle: `${stack.label} · of the power that entered; legend: path with absorption removed (ideal Lambertian: 4n² ≈ 50 W)`,
+      subtitle: `${stack.label} · share of the power that entered`,
       width: 620,
       height: 400,
       x: { label: "passes completed", domain: [1, t.maxPasses], ticks: [1, 5, 10, 15, 20] },

