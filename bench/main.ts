@@ -2,13 +2,15 @@
  * `npm run bench`: the project's speed and memory figures (never asserted in unit tests).
  * Parts: optics (exact vs tabulated interface optics), trace (the tracer reference case: speed and
  * estimator efficiency against a native C reference), paired (common-random-number gain), sweep
- * (pool efficiency), yield. `LIGHTFOLD_BENCH=optics,trace` picks parts.
+ * (pool efficiency), yield, bifacial (rear-light view factors, quadrature and year). `LIGHTFOLD_BENCH=optics,trace`
+ * picks parts.
  */
 import { runOpticsBench } from "./optics.js";
 import { runTraceBench } from "./trace.js";
 import { runSweepBench } from "./sweep.js";
 import { runYieldBench } from "./yield.js";
 import { runPairedBench } from "./paired.js";
+import { runBifacialBench } from "./bifacial.js";
 
 const parts: Record<string, () => Promise<void>> = {
   optics: runOpticsBench,
@@ -16,6 +18,7 @@ const parts: Record<string, () => Promise<void>> = {
   paired: runPairedBench,
   sweep: runSweepBench,
   yield: runYieldBench,
+  bifacial: runBifacialBench,
 };
 
 const chosen = (process.env.LIGHTFOLD_BENCH ?? Object.keys(parts).join(",")).split(",").map((s) => s.trim());
