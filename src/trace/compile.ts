@@ -109,28 +109,10 @@ export function compileStack(
   const channels = channelNamesOfStack(stack);
   const ch = (name: string): number => channels.indexOf(name);
   const nLayers = stack.layers.length;
-  const rearLayers = stack.rearLayers ?? [];
-  const nRear = rearLayers.length;
+  const nRear = (stack.rearLayers ?? []).length;
   const ABS = nLayers + 1;
   const outerMedium = ABS + nRear + 1;
-  const nMedia = outerMedium + 1;
-  const mediumNK: NK[] = [nkOf(stack.incidence, "incidence")];
-  stack.layers.forEach((l, j) => mediumNK.push(nkOf(l.material, `layers[${j}].material`)));
-  mediumNK.push(nkOf(stack.absorber.material, "absorber.material"));
-  rearLayers.forEach((l, j) => mediumNK.push(nkOf(l.material, `rearLayers[${j}].material`)));
-  mediumNK.push(outerNK(stack, nkOf));
-  const mediumN = new Float64Array(nMedia);
-  const mediumK = new Float64Array(nMedia);
-  const mediumAlphaPerUm = new Float64Array(nMedia);
-  const mediumChan = new Int32Array(nMedia);
-  for (let m = 0; m < nMedia; m++) {
-    mediumN[m] = mediumNK[m].n;
-    mediumK[m] = mediumNK[m].k;
-    // α = 4πk/λ (any optics text); λ in µm gives α in 1/µm. The outside media do not absorb.
-    const outside = m === 0 || m === outerMedium;
-    mediumAlphaPerUm[m] = outside ? 0 : (4 * Math.PI * mediumNK[m].k) / (wavelengthNm * 1e-3);
-    mediumChan[m] = outside ? -1 : m === ABS ? ch("A_absorber") : m < ABS ? ch(`A_layer:${stack.layers[m - 1].name}`) : ch(`A_layer:${rearLayers[m - ABS - 1].name}`);
-  }
+  const { mediumNK, mediumN, mediumK, mediumAlphaPerUm, mediumChan } = compileMedia(stack, wavelengthNm, nkOf, ch);
   const tableRows = options.nCos ?? 1024;
 
   // Thick layers: planar top faces, with their coherent films.
@@ -159,34 +141,8 @@ export function compileStack(
   const frontTile = surfaceOf(stack.front.texture, stack.boundary, "stack.front.texture");
 
   // Rear: real interface (absorber | films | exit) or an ideal reflector.
-  let rearKind = REAR_INTERFACE;
-  let rear: CompiledInterface | null = null;
-  let rearTile: SurfaceTile = planarTile(1);
-  let rearReflectance = 0;
-  let rearOpaque = true;
-  const rearSpec = stack.rear;
-  if (isIdealRear(rearSpec)) {
-    rearKind = rearSpec.ideal.kind === "mirror" ? REAR_IDEAL_MIRROR : REAR_IDEAL_LAMBERTIAN;
-    rearReflectance = rearSpec.ideal.reflectance;
-  } else {
-    rearTile = surfaceOf(rearSpec.texture, stack.boundary, "stack.rear.texture");
-    const rearFilms = films(rearSpec.films, "rear.films");
-    const exitNK = nkOf(rearSpec.exit, "rear.exit");
-    // A metal-like exit (k ≥ n, as the interface tables treat it) absorbs what enters it.
-    const metal = exitNK.k >= exitNK.n;
-    rear = {
-      table: buildInterfaceTable(mediumNK[nLayers + 1], rearFilms, exitNK, wavelengthNm, tableRows),
-      nUpper: mediumN[nLayers + 1],
-      nLower: exitNK.n,
-      nFilms: rearFilms.length,
-      filmChan0: rearFilms.length > 0 ? ch(`A_film:rear:0:${rearSpec.films[0].material}`) : -1,
-      // A metal takes what enters it. Light entering a transparent exit ends as T at once only
-      // behind a planar rear; behind a texture it may meet a neighbouring facet again, so it goes on.
-      lowerSinkChan: metal ? ch("A_rear") : nRear === 0 && rearTile.kind !== SURFACE_MESH ? ch(CH_T_FIRST) : -1,
-    };
-    if (nRear > 0 && metal) throw new InputError(`stack.rear.exit: "${rearSpec.exit}" is a metal at ${wavelengthNm} nm; rear layers need a transparent medium behind the rear interface`);
-    rearOpaque = metal && nRear === 0;
-  }
+  const cx: RearContext = { stack, wavelengthNm, tableRows, nkOf, films, ch, mediumNK, mediumN, nRear };
+  const { rearKind, rear, rearTile, rearReflectance, metalExit } = compileRearInterface(cx);
 
   // Layer planes: the bottom layer starts at the top of the front texture.
   const layerTopZUm = new Float64Array(nLayers + 1);
@@ -212,45 +168,18 @@ export function compileStack(
     );
   }
 
-  // Rear layers: planar, stacked below the rear texture's outermost points.
-  const rearBottomZUm = new Float64Array(nRear);
-  let zr = -thicknessUm - rearTile.zMaxUm;
-  for (let j = 0; j < nRear; j++) {
-    zr -= rearLayers[j].thicknessUm;
-    rearBottomZUm[j] = zr;
-  }
-  const outer = stack.rearOuter;
-  const backsheet = outer !== undefined && isBacksheet(outer) ? outer.backsheet : null;
-  const rearBottomInterfaces: (CompiledInterface | null)[] = rearLayers.map((l, j) => {
-    const below = ABS + j + 2;
-    if (j === nRear - 1 && backsheet) return null;
-    const f = films(l.bottomFilms, `rearLayers[${j}].bottomFilms`);
-    return {
-      table: buildInterfaceTable(mediumNK[below - 1], f, mediumNK[below], wavelengthNm, tableRows),
-      nUpper: mediumN[below - 1],
-      nLower: mediumN[below],
-      nFilms: f.length,
-      filmChan0: f.length > 0 ? ch(`A_film:bottom:${l.name}:0:${l.bottomFilms[0].material}`) : -1,
-      lowerSinkChan: below === outerMedium ? ch(CH_T_FIRST) : -1,
-    };
-  });
-  if (backsheet) rearOpaque = true;
-  const backsheetReflectance = backsheet === null ? -1
-    : typeof backsheet.reflectance === "number" ? backsheet.reflectance
-    : backsheetTableValue(backsheet.reflectance, wavelengthNm);
+  const rl = compileRearLayers(cx, thicknessUm, rearTile, outerMedium);
+  const rearOpaque = isIdealRear(stack.rear) || (metalExit && nRear === 0) || rl.backsheetReflectance >= 0;
 
   const depthEdges = options.depthEdgesUm === undefined ? null : checkDepthEdges(options.depthEdgesUm);
   return {
     stack,
     wavelengthNm,
     nRear,
-    rearBottomZUm,
-    rearBottomInterfaces,
+    ...rl,
     outerMedium,
-    backsheetReflectance,
-    backsheetHaze: backsheet ? backsheet.haze : 0,
     rearOpaque,
-    rearLaunchZUm: nRear > 0 ? rearBottomZUm[nRear - 1] : -thicknessUm - rearTile.zMaxUm - 1,
+    rearLaunchZUm: nRear > 0 ? rl.rearBottomZUm[nRear - 1] : -thicknessUm - rearTile.zMaxUm - 1,
     channels,
     nChannels: channels.length,
     nLayers,
@@ -361,4 +290,109 @@ function launchWindow(tiles: (SurfaceTile | null)[]): { launchLxUm: number; laun
   if (same) return { launchLxUm: textured[0]!.lxUm, launchLyUm: textured[0]!.lyUm };
   const lx = Math.max(...textured.map((t) => t.lxUm)), ly = Math.max(...textured.map((t) => t.lyUm));
   return { launchLxUm: LAUNCH_WINDOW_CELLS * lx, launchLyUm: LAUNCH_WINDOW_CELLS * ly };
+}
+
+/** What the rear's compilation needs from compileStack. */
+interface RearContext {
+  stack: StackSpec;
+  wavelengthNm: number;
+  tableRows: number;
+  nkOf: (name: string, field: string) => NK;
+  films: (list: FilmSpec[], field: string) => FilmLayer[];
+  ch: (name: string) => number;
+  mediumNK: NK[];
+  mediumN: Float64Array;
+  nRear: number;
+}
+
+/** The rear interface (absorber | films | exit) or an ideal reflector, and the rear tile. */
+function compileRearInterface(cx: RearContext): {
+  rearKind: number; rear: CompiledInterface | null; rearTile: SurfaceTile; rearReflectance: number; metalExit: boolean;
+} {
+  const { stack, wavelengthNm, tableRows, nkOf, films, ch, mediumNK, mediumN, nRear } = cx;
+  const abs = stack.layers.length + 1;
+  const rearSpec = stack.rear;
+  if (isIdealRear(rearSpec)) {
+    const rearKind = rearSpec.ideal.kind === "mirror" ? REAR_IDEAL_MIRROR : REAR_IDEAL_LAMBERTIAN;
+    return { rearKind, rear: null, rearTile: planarTile(1), rearReflectance: rearSpec.ideal.reflectance, metalExit: false };
+  }
+  const rearTile = surfaceOf(rearSpec.texture, stack.boundary, "stack.rear.texture");
+  const rearFilms = films(rearSpec.films, "rear.films");
+  const exitNK = nkOf(rearSpec.exit, "rear.exit");
+  // A metal-like exit (k ≥ n, as the interface tables treat it) absorbs what enters it.
+  const metal = exitNK.k >= exitNK.n;
+  if (nRear > 0 && metal) throw new InputError(`stack.rear.exit: "${rearSpec.exit}" is a metal at ${wavelengthNm} nm; rear layers need a transparent medium behind the rear interface`);
+  const rear: CompiledInterface = {
+    table: buildInterfaceTable(mediumNK[abs], rearFilms, exitNK, wavelengthNm, tableRows),
+    nUpper: mediumN[abs],
+    nLower: exitNK.n,
+    nFilms: rearFilms.length,
+    filmChan0: rearFilms.length > 0 ? ch(`A_film:rear:0:${rearSpec.films[0].material}`) : -1,
+    // A metal takes what enters it. Light entering a transparent exit ends as T at once only
+    // behind a planar rear; behind a texture it may meet a neighbouring facet again, so it goes on.
+    lowerSinkChan: metal ? ch("A_rear") : nRear === 0 && rearTile.kind !== SURFACE_MESH ? ch(CH_T_FIRST) : -1,
+  };
+  return { rearKind: REAR_INTERFACE, rear, rearTile, rearReflectance: 0, metalExit: metal };
+}
+
+/** Rear layers: planar, stacked below the rear texture's outermost points; their outer faces; a back-sheet. */
+function compileRearLayers(cx: RearContext, thicknessUm: number, rearTile: SurfaceTile, outerMedium: number): {
+  rearBottomZUm: Float64Array; rearBottomInterfaces: (CompiledInterface | null)[]; backsheetReflectance: number; backsheetHaze: number;
+} {
+  const { stack, wavelengthNm, tableRows, films, ch, mediumNK, mediumN, nRear } = cx;
+  const rearLayers = stack.rearLayers ?? [];
+  const abs = stack.layers.length + 1;
+  const rearBottomZUm = new Float64Array(nRear);
+  let zr = -thicknessUm - rearTile.zMaxUm;
+  for (let j = 0; j < nRear; j++) {
+    zr -= rearLayers[j].thicknessUm;
+    rearBottomZUm[j] = zr;
+  }
+  const outer = stack.rearOuter;
+  const backsheet = outer !== undefined && isBacksheet(outer) ? outer.backsheet : null;
+  const rearBottomInterfaces: (CompiledInterface | null)[] = rearLayers.map((l, j) => {
+    const below = abs + j + 2;
+    if (j === nRear - 1 && backsheet) return null;
+    const f = films(l.bottomFilms, `rearLayers[${j}].bottomFilms`);
+    return {
+      table: buildInterfaceTable(mediumNK[below - 1], f, mediumNK[below], wavelengthNm, tableRows),
+      nUpper: mediumN[below - 1],
+      nLower: mediumN[below],
+      nFilms: f.length,
+      filmChan0: f.length > 0 ? ch(`A_film:bottom:${l.name}:0:${l.bottomFilms[0].material}`) : -1,
+      lowerSinkChan: below === outerMedium ? ch(CH_T_FIRST) : -1,
+    };
+  });
+  const backsheetReflectance = backsheet === null ? -1
+    : typeof backsheet.reflectance === "number" ? backsheet.reflectance
+    : backsheetTableValue(backsheet.reflectance, wavelengthNm);
+  return { rearBottomZUm, rearBottomInterfaces, backsheetReflectance, backsheetHaze: backsheet ? backsheet.haze : 0 };
+}
+
+/**
+ * Media from the incidence side: incidence, front layers, absorber, rear layers, the medium behind
+ * the rear; their n, k, α = 4πk/λ (any optics text; λ in µm gives 1/µm) and absorption channel. The
+ * outside media do not absorb.
+ */
+function compileMedia(stack: StackSpec, wavelengthNm: number, nkOf: (name: string, field: string) => NK, ch: (name: string) => number): {
+  mediumNK: NK[]; mediumN: Float64Array; mediumK: Float64Array; mediumAlphaPerUm: Float64Array; mediumChan: Int32Array;
+} {
+  const rearLayers = stack.rearLayers ?? [];
+  const abs = stack.layers.length + 1;
+  const mediumNK: NK[] = [nkOf(stack.incidence, "incidence")];
+  stack.layers.forEach((l, j) => mediumNK.push(nkOf(l.material, `layers[${j}].material`)));
+  mediumNK.push(nkOf(stack.absorber.material, "absorber.material"));
+  rearLayers.forEach((l, j) => mediumNK.push(nkOf(l.material, `rearLayers[${j}].material`)));
+  mediumNK.push(outerNK(stack, nkOf));
+  const nMedia = mediumNK.length, outerMedium = nMedia - 1;
+  const mediumN = new Float64Array(nMedia), mediumK = new Float64Array(nMedia);
+  const mediumAlphaPerUm = new Float64Array(nMedia), mediumChan = new Int32Array(nMedia);
+  for (let m = 0; m < nMedia; m++) {
+    mediumN[m] = mediumNK[m].n;
+    mediumK[m] = mediumNK[m].k;
+    const outside = m === 0 || m === outerMedium;
+    mediumAlphaPerUm[m] = outside ? 0 : (4 * Math.PI * mediumNK[m].k) / (wavelengthNm * 1e-3);
+    mediumChan[m] = outside ? -1 : m === abs ? ch("A_absorber") : m < abs ? ch(`A_layer:${stack.layers[m - 1].name}`) : ch(`A_layer:${rearLayers[m - abs - 1].name}`);
+  }
+  return { mediumNK, mediumN, mediumK, mediumAlphaPerUm, mediumChan };
 }
