@@ -19,8 +19,17 @@ export interface MatrixJsonExport extends MatrixProvenance {
   stderr: number[][][][];
   /** Rays per point, nested [theta][phi][wavelength]. */
   nRays: number[][][];
-  /** Mean absorber path / thickness per point, nested [theta][phi][wavelength]. */
+  /** Photon path in the absorber per incident photon / thickness per point, nested [theta][phi][wavelength]. */
   pathRatio: number[][][];
+  /** Light-trapping arrays (matrices of format version 2): per point, and per pass or polar bin innermost. */
+  trapping?: {
+    maxPasses: number;
+    escapeAngleBinDeg: number;
+    entered: number[][][];
+    freePathRatio: number[][][];
+    passRemaining: number[][][][];
+    escapeAngle: number[][][][];
+  };
 }
 
 function nest4(m: ResponseMatrix, flat: Float64Array): number[][][][] {
@@ -35,9 +44,21 @@ function nest3(m: ResponseMatrix, flat: Float64Array): number[][][] {
   return m.thetaDeg.map((_, it) => m.phiDeg.map((_, ip) => m.wavelengthNm.map((_, il) => flat[pointIndex(m, it, ip, il)])));
 }
 
+/** [theta][phi][wavelength][k] of a per-point array with `inner` values per point. */
+function nestInner(m: ResponseMatrix, flat: Float64Array, inner: number): number[][][][] {
+  return m.thetaDeg.map((_, it) =>
+    m.phiDeg.map((_, ip) =>
+      m.wavelengthNm.map((_, il) => {
+        const q = pointIndex(m, it, ip, il);
+        return Array.from(flat.subarray(q * inner, (q + 1) * inner));
+      }),
+    ),
+  );
+}
+
 /** The matrix as nested arrays with named axes (for tools that do not want to compute flat indices). */
 export function matrixToExportObject(m: ResponseMatrix): MatrixJsonExport {
-  return {
+  const out: MatrixJsonExport = {
     format: JSON_EXPORT_FORMAT,
     formatVersion: JSON_EXPORT_VERSION,
     ...matrixProvenance(m),
@@ -48,6 +69,18 @@ export function matrixToExportObject(m: ResponseMatrix): MatrixJsonExport {
     nRays: nest3(m, m.nRays),
     pathRatio: nest3(m, m.pathRatio),
   };
+  const t = m.trapping;
+  if (t !== undefined) {
+    out.trapping = {
+      maxPasses: t.maxPasses,
+      escapeAngleBinDeg: t.escapeAngleBinDeg,
+      entered: nest3(m, t.entered),
+      freePathRatio: nest3(m, t.freePathRatio),
+      passRemaining: nestInner(m, t.passRemaining, t.maxPasses + 1),
+      escapeAngle: nestInner(m, t.escapeAngle, Math.round(90 / t.escapeAngleBinDeg)),
+    };
+  }
+  return out;
 }
 
 /** JSON text of the export (JSON numbers round-trip doubles exactly). */

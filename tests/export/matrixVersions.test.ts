@@ -5,6 +5,8 @@ import { channelLabel } from "../../src/response/channelLabels.js";
 import { photocurrentForMatrix } from "../../src/weighting/writePhotocurrent.js";
 import { astmG173 } from "../../src/spectrum/index.js";
 import { smallMatrix } from "./matrixFixture.js";
+import { matrixToNpy } from "../../src/export/npyExport.js";
+import { matrixToExportObject } from "../../src/export/jsonExport.js";
 
 // Format history (src/response/responseMatrix.ts): version 2 splits R and T by history and adds
 // the light-trapping arrays; version 1 files keep loading with their R and T read as totals.
@@ -42,5 +44,25 @@ describe("response matrix format versions", () => {
     const raw = JSON.parse(matrixToJson(m)) as { trapping: { escapeAngle: number[] } };
     raw.trapping.escapeAngle.pop();
     expect(() => matrixFromJson(JSON.stringify(raw), "bad.json")).toThrow(/bad.json.*trapping.*escapeAngle/);
+  });
+
+  it("exports the trapping arrays: NPY files with their shapes (NumPy format, NEP 1) and nested JSON", () => {
+    const m = smallMatrix();
+    const n = m.nRays.length;
+    m.trapping = emptyTrapping(n);
+    const stride = m.trapping.maxPasses + 1;
+    m.trapping.passRemaining[5 * stride + 2] = 0.25; // point 5, pass 3
+    const npy = matrixToNpy(m, "mx");
+    expect(npy.sidecar.arrays.passRemaining!.shape).toEqual([3, 2, 4, stride]);
+    expect(npy.sidecar.arrays.escapeAngle!.shape).toEqual([3, 2, 4, 18]);
+    expect([...npy.files.keys()]).toContain("mx_pass_remaining.npy");
+    const j = matrixToExportObject(m);
+    // point 5 = θ index 0, φ index 1, λ index 1 ([θ][φ][λ] row-major over 2 × 4)
+    expect(j.trapping!.passRemaining[0]![1]![1]![2]).toBe(0.25);
+    expect(j.trapping!.passRemaining[0]![1]![1]!.length).toBe(stride);
+    // a version-1 matrix exports without them
+    delete m.trapping;
+    expect(matrixToNpy(m, "mx").sidecar.arrays.passRemaining).toBeUndefined();
+    expect(matrixToExportObject(m).trapping).toBeUndefined();
   });
 });
