@@ -79,7 +79,9 @@ export function pairedWeightedDifference(a: ResponseMatrix, b: ResponseMatrix, c
  */
 export function pairedStderrMatrix(a: ResponseMatrix, b: ResponseMatrix, channel: string): ResponseMatrix | undefined {
   const same = (x: number[], y: number[]): boolean => x.length === y.length && x.every((v, i) => v === y[i]);
-  if (!same(a.thetaDeg, b.thetaDeg) || !same(a.phiDeg, b.phiDeg) || !same(a.wavelengthNm, b.wavelengthNm) || a.phiMode !== b.phiMode) return undefined;
+  // The grids must match point for point (the azimuth mode may differ: a planar stack is traced at
+  // one azimuth, a texture with the azimuth averaged; groups are independent replicas either way).
+  if (!same(a.thetaDeg, b.thetaDeg) || !same(a.phiDeg, b.phiDeg) || !same(a.wavelengthNm, b.wavelengthNm)) return undefined;
   const ca = a.channels.indexOf(channel);
   const cb = b.channels.indexOf(channel);
   if (ca < 0 || cb < 0) return undefined;

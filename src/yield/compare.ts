@@ -1,4 +1,22 @@
 import type { YieldResult } from "./annualYield.js";
+import { pairedStderrMatrix } from "../response/pairedDifference.js";
+import type { ResponseMatrix } from "../response/responseMatrix.js";
+import type { Plane } from "../site/site.js";
+import type { SkyModel } from "../sky/transposition.js";
+import type { YearContext } from "./yearContext.js";
+import { prepareMatrix, yieldSweep } from "./yieldRun.js";
+
+/**
+ * Standard error of Q_A − Q_B per plane from the matrices' pairing groups: the yield's linear error
+ * propagation run on the paired errors (pairedStderrMatrix). Undefined when the matrices cannot be
+ * paired (no pairing groups, different grids or batches); then textureBenefit falls back to the
+ * quadrature of both errors.
+ */
+export function pairedDeltaStdErrs(ctx: YearContext, a: ResponseMatrix, b: ResponseMatrix, src: string, planes: Plane[], sky: SkyModel, channel = "A_absorber"): number[] | undefined {
+  const paired = pairedStderrMatrix(a, b, channel);
+  if (paired === undefined) return undefined;
+  return yieldSweep(ctx, prepareMatrix(paired, src, channel), planes, sky).map((y) => y.chargeStdErrAhM2);
+}
 
 /** Texture benefit of A over B at one site and plane, in %, with its Monte Carlo standard error. */
 export interface Benefit {

@@ -4,8 +4,7 @@ import { readResponseMatrix } from "../../response/matrixFile.js";
 import { readSiteFile } from "../../site/siteFile.js";
 import { InputError } from "../../util/errors.js";
 import { toolVersion } from "../../util/version.js";
-import { textureBenefit } from "../../yield/compare.js";
-import { pairedStderrMatrix } from "../../response/pairedDifference.js";
+import { pairedDeltaStdErrs, textureBenefit } from "../../yield/compare.js";
 import { yearContext } from "../../yield/yearContext.js";
 import { compareJson, formatCompareTable, matrixInfo, siteInfo, weatherInfo, type CompareRow } from "../../yield/yieldJson.js";
 import { prepareMatrix, yieldSweep } from "../../yield/yieldRun.js";
@@ -71,9 +70,6 @@ both stacks' rear charge and bifacial gain.`,
       const matrices = opts.matrix.map((f) => readResponseMatrix(f));
       const prepared = matrices.map((m, i) => prepareMatrix(m, opts.matrix[i]!, opts.channel));
       if (opts.rearMatrix !== undefined) return bifacialCompare(opts, matrices, prepared, weatherSpecs, sites, year, seed, planes, sky);
-      // Paired errors where both matrices carry pairing groups on one grid (common random numbers).
-      const pairedM = pairedStderrMatrix(matrices[0]!, matrices[1]!, opts.channel ?? "A_absorber");
-      const pairedPrepared = pairedM === undefined ? undefined : prepareMatrix(pairedM, opts.matrix[0]!, opts.channel);
       const rows: CompareRow[] = [];
       const weatherInfos: Record<string, unknown>[] = [];
       sites.forEach((site, i) => {
@@ -81,9 +77,9 @@ both stacks' rear charge and bifacial gain.`,
         weatherInfos.push(weatherInfo(ctx));
         const a = yieldSweep(ctx, prepared[0]!, planes, sky);
         const b = yieldSweep(ctx, prepared[1]!, planes, sky);
-        // The error of Q_A − Q_B: the yield's linear error propagation run on the paired errors.
-        const d = pairedPrepared === undefined ? undefined : yieldSweep(ctx, pairedPrepared, planes, sky);
-        a.forEach((ya, k) => rows.push({ site: site.name, a: ya, b: b[k]!, benefit: textureBenefit(ya, b[k]!, d?.[k]!.chargeStdErrAhM2) }));
+        // Paired errors where both matrices carry pairing groups on one grid (common random numbers).
+        const d = pairedDeltaStdErrs(ctx, matrices[0]!, matrices[1]!, opts.matrix[0]!, planes, sky, opts.channel);
+        a.forEach((ya, k) => rows.push({ site: site.name, a: ya, b: b[k]!, benefit: textureBenefit(ya, b[k]!, d?.[k]) }));
       });
       const doc = compareJson({
         toolVersion: toolVersion(),
