@@ -1,4 +1,4 @@
-import { mkdtempSync, writeFileSync } from "node:fs";
+import { mkdirSync, mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
@@ -63,6 +63,21 @@ describe("CLI details", () => {
     expect(comboTable(dir)).toEqual([
       "  combo  Jsc (θ=0°, φ averaged) mA/cm²  matrix hash",
       "  base   39.414 ± 0.049                 abababababababab",
+    ]);
+  });
+
+  it("the sweep summary splits the front loss into R_first and R_escape when photocurrent.json has them", () => {
+    const dir = mkdtempSync(join(tmpdir(), "lf-combo-split-"));
+    const run = {
+      combos: [{ label: "base", values: {}, studyHash: "cd".repeat(32), jscFirstDirection: { thetaDeg: 0, phiDeg: 0, jscMaCm2: 36.9463, jscStderrMaCm2: 0.0061 } }],
+    };
+    writeFileSync(join(dir, "run.json"), JSON.stringify(run));
+    mkdirSync(join(dir, "base"));
+    const losses = [{ channel: "R_first", currentMaCm2: 4.6421 }, { channel: "R_escape", currentMaCm2: 4.6333 }];
+    writeFileSync(join(dir, "base", "photocurrent.json"), JSON.stringify({ directions: [{ losses }] }));
+    expect(comboTable(dir)).toEqual([
+      "  combo  Jsc (θ=0°, φ 0°) mA/cm²  R first mA/cm²  R escape mA/cm²  matrix hash",
+      "  base   36.946 ± 0.006           4.642           4.633            cdcdcdcdcdcdcdcd",
     ]);
   });
 

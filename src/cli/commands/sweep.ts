@@ -170,7 +170,8 @@ with the same study; a changed study sets the old journal aside and starts afres
 
 /**
  * Summary table from run.json, one line per combination (one line without a sweep): the values in
- * words, the absorber photocurrent at the first grid direction and the hash its matrix.json carries.
+ * words, the absorber photocurrent at the first grid direction, the front loss there split into
+ * R_first and R_escape (when photocurrent.json has them) and the hash its matrix.json carries.
  */
 export function comboTable(outDir: string): string[] {
   const run = JSON.parse(readFileSync(join(outDir, "run.json"), "utf8")) as {
@@ -181,11 +182,21 @@ export function comboTable(outDir: string): string[] {
   const first = run.combos.find((c) => c.jscFirstDirection !== undefined)?.jscFirstDirection;
   const where = first === undefined ? "" : `θ=${first.thetaDeg}°, φ ${first.phiDeg === "averaged" ? "averaged" : `${first.phiDeg}°`}`;
   const swept = run.combos.length > 1 || Object.keys(run.combos[0]!.values).length > 0;
-  const head = ["combo", ...(swept ? ["parameters"] : []), first !== undefined ? `Jsc (${where}) mA/cm²` : "Jsc mA/cm²", "matrix hash"];
-  const rows = run.combos.map((c) => [
+  // The front loss split by history at the first direction, from each combination's photocurrent.json.
+  const split = run.combos.map((c) => frontSplit(join(outDir, c.label, "photocurrent.json")));
+  const withSplit = split.every((x) => x !== undefined);
+  const head = [
+    "combo",
+    ...(swept ? ["parameters"] : []),
+    first !== undefined ? `Jsc (${where}) mA/cm²` : "Jsc mA/cm²",
+    ...(withSplit ? ["R first mA/cm²", "R escape mA/cm²"] : []),
+    "matrix hash",
+  ];
+  const rows = run.combos.map((c, i) => [
     c.label,
     ...(swept ? [c.title ?? Object.entries(c.values).map(([k, v]) => `${k}=${v}`).join(", ")] : []),
     c.jscFirstDirection === undefined ? "–" : `${c.jscFirstDirection.jscMaCm2.toFixed(3)} ± ${c.jscFirstDirection.jscStderrMaCm2.toFixed(3)}`,
+    ...(withSplit ? [split[i]![0].toFixed(3), split[i]![1].toFixed(3)] : []),
     c.studyHash.slice(0, 16),
     best !== undefined && c.label === best.label ? `← best: ${bestNote(best)}` : "",
   ]);
@@ -193,6 +204,24 @@ export function comboTable(outDir: string): string[] {
   const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i]!.length)));
   const fmt = (r: string[]): string => ("  " + r.map((v, i) => v.padEnd(widths[i]!)).join("  ")).trimEnd();
   return [fmt(head), ...rows.map(fmt)];
+}
+
+/**
+ * R_first and R_escape in mA/cm² at the first direction of a photocurrent.json written by this run,
+ * or undefined when the file or the split channels are missing (older matrices carry one R).
+ */
+function frontSplit(path: string): [number, number] | undefined {
+  if (!existsSync(path)) return undefined;
+  let pc: { directions?: { losses?: { channel: string; currentMaCm2: number }[] }[] };
+  try {
+    pc = JSON.parse(readFileSync(path, "utf8")) as typeof pc;
+  } catch {
+    return undefined;
+  }
+  const losses = pc.directions?.[0]?.losses ?? [];
+  const a = losses.find((l) => l.channel === "R_first");
+  const b = losses.find((l) => l.channel === "R_escape");
+  return a === undefined || b === undefined ? undefined : [a.currentMaCm2, b.currentMaCm2];
 }
 
 /** "+0.0610 ± 0.0061 paired over p1 (± 0.0318 if independent)" (mA/cm²). */
