@@ -14,7 +14,7 @@ import {
 } from "./figures.js";
 import type { BenefitRow, BifacialRow, OptimumEntry, ReportInput, StackEntry } from "./inputs.js";
 import { ledgerFigure, responseMapFigure, spectralStripsFigure } from "./stackFigures.js";
-import { generationFigure, passesFigure } from "./trappingFigures.js";
+import { escapeAngleFigure, generationFigure, passesFigure } from "./trappingFigures.js";
 import { REPORT_CSS } from "./style.js";
 
 export interface RenderedReport {
@@ -147,10 +147,11 @@ export function renderReport(input: ReportInput): RenderedReport {
   // Light trapping: passes per stack, generation profiles
   const passes = shown.map((s, i) => passesFigure(s, i, input.angleDeg)).filter((f): f is Figure => f !== null);
   const generation = generationFigure(input.generations ?? []);
+  const escape = escapeAngleFigure(shown, input.angleDeg);
   sections += `<section id="trapping"><h2>Light trapping and generation</h2>`;
   sections += html`<p class="lead">The front loss in the ledger comes in two parts: light reflected before it ever entered the absorber (what anti-reflection can win) and light that entered and escaped again (what light trapping can win). Of the light that entered, the plots show the fraction still inside after each pass (one traversal between the faces) at θ = ${input.angleDeg}° for the long wavelengths, and the generation profile G(z) written by the generation command.</p>`;
   if (passes.length === 0) sections += note("Passes omitted: the matrices carry no light-trapping tallies (format version 1: rerun the sweep).");
-  sections += `<div class="row">${passes.map(use).join("")}</div>`;
+  sections += `<div class="row">${passes.map(use).join("")}${escape ? use(escape) : ""}</div>`;
   sections += generation ? use(generation) : note("Generation profile omitted: no generation/generation.json in the run (made by `lightfold generation <study> --out <run>/generation`).");
   sections += `</section>`;
 

@@ -81,3 +81,51 @@ export function generationFigure(profiles: GenerationEntry[]): Figure | null {
     }),
   };
 }
+
+/**
+ * How the light that escapes through the front after entering leaves: its share per polar-angle bin
+ * outside, at the report angle and the longest wavelength of each stack (mean over the listed
+ * azimuths), against Lambertian emission (power ∝ cos θ, so the share of a bin is
+ * sin²θ₂ − sin²θ₁). Null when no matrix carries the trapping arrays.
+ */
+export function escapeAngleFigure(stacks: StackEntry[], angleDeg: number): Figure | null {
+  const series: LineSeries[] = [];
+  let binDeg = 0;
+  stacks.forEach((stack, i) => {
+    const m = stack.matrix;
+    const t = m.trapping;
+    if (!t) return;
+    binDeg = t.escapeAngleBinDeg;
+    const nB = Math.round(90 / binDeg);
+    const it = thetaIndex(m, angleDeg, stack.matrixPath);
+    const nP = m.phiDeg.length;
+    const nL = m.wavelengthNm.length;
+    const il = nL - 1;
+    const share = new Array<number>(nB).fill(0);
+    for (let ip = 0; ip < nP; ip++) for (let b = 0; b < nB; b++) share[b]! += t.escapeAngle[((it * nP + ip) * nL + il) * nB + b]!;
+    const total = share.reduce((a, v) => a + v, 0);
+    if (!(total > 0)) return;
+    series.push({ label: `${stack.label}${m.lightFrom === "rear" ? " (light from the rear)" : ""}, ${m.wavelengthNm[il]} nm`, x: share.map((_, b) => (b + 0.5) * binDeg), y: share.map((v) => v / total), markers: true, colour: seriesColour(i) });
+  });
+  if (series.length === 0) return null;
+  const nB = Math.round(90 / binDeg);
+  const rad = Math.PI / 180;
+  const lambert = Array.from({ length: nB }, (_, b) => Math.sin((b + 1) * binDeg * rad) ** 2 - Math.sin(b * binDeg * rad) ** 2);
+  series.push({ label: "Lambertian emission (cos θ)", x: lambert.map((_, b) => (b + 0.5) * binDeg), y: lambert, colour: "#8C93A0", guide: true });
+  const id = "escape-angles";
+  const title = "Where the escaping light goes";
+  return {
+    id,
+    title,
+    svg: linePlot({
+      id,
+      title,
+      subtitle: `entered, then left through the front · per ${binDeg}° bin · θ = ${angleDeg}°`,
+      width: 620,
+      height: 400,
+      x: { label: "polar angle outside (°)", domain: [0, 90], ticks: [0, 15, 30, 45, 60, 75, 90] },
+      y: { label: "share of the escaping power" },
+      series,
+    }),
+  };
+}

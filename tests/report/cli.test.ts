@@ -31,7 +31,7 @@ describe("lightfold report", () => {
     expect(r.status).toBe(0);
     const j = JSON.parse(r.stdout) as { indexPath: string; files: string[]; omitted: string[] };
     expect(j.indexPath).toBe(join(out, "index.html"));
-    expect(j.files.length).toBe(15); // index.html + 14 plots (two ledgers, the optimum, two passes and the generation plot included)
+    expect(j.files.length).toBe(16); // index.html + 15 plots (two ledgers, the optimum, two passes, the escape-angle and the generation plot included)
     expect(j.omitted).toEqual([]);
   });
 

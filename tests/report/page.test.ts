@@ -43,6 +43,7 @@ describe("renderReport(input) with user text that looks like markup", () => {
       "spectral-2-planar-reference",
       "passes-1-script-alert-1-script",
       "passes-2-planar-reference",
+      "escape-angles",
       "generation-profile",
       "optimum-1-front-films-0-thicknessnm",
       "response-map-1-script-alert-1-script",
