@@ -1,6 +1,10 @@
-import { LOST, NO_HIT, Q_DX, Q_DY, Q_DZ, Q_LIMIT, Q_OX, Q_OY, Q_OZ, Q_T, meshHit, pyramidHit } from "../geometry/surfaceHit.js";
+import { LOST, NO_HIT, Q_DX, Q_DY, Q_DZ, Q_LIMIT, Q_OX, Q_OY, Q_OZ, Q_T, meshHit } from "../geometry/surfaceHit.js";
 import { SURFACE_MESH, TRI_STRIDE, type SurfaceTile } from "../geometry/surfaceTile.js";
 import type { CompiledStack } from "./compiledStack.js";
+
+/** The limits of pyramidHit (src/geometry/surfaceHit.ts). */
+const PYRAMID_MAX_STEPS = 1 << 20;
+const PYRAMID_EDGE_TOL_REL = 1e-10;
 import { DX, DY, DZ, HIT, NX, NY, NZ, T, X, Y, Z, setNormal } from "./rayState.js";
 
 /**
@@ -89,6 +93,7 @@ export function rearSearchFromBehind(cs: CompiledStack, st: Float64Array): numbe
  * miss there is LOST.
  */
 function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBelow: boolean, zSign: number, zOffsetUm: number): number {
+  if (tile.pyramidSign !== 0) return pyramidSearch(tile, st, fromBelow, zSign, zOffsetUm);
   const x = st[X];
   const y = st[Y];
   const dx = st[DX];
@@ -141,25 +146,143 @@ function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBe
   q[Q_DY] = dyl;
   q[Q_DZ] = dzl;
   q[Q_LIMIT] = tLimit;
-  let nxl: number, nyl: number, nzl: number;
-  if (tile.pyramidSign !== 0) {
-    const k = pyramidHit(tile, q, fromBelow);
-    if (k < 0) return k === NO_HIT && !mustHit ? NO_HIT : LOST;
-    const nrm = tile.pyramidNormals;
-    nxl = nrm[3 * k];
-    nyl = nrm[3 * k + 1];
-    nzl = nrm[3 * k + 2];
-  } else {
-    const tri = meshHit(tile, q, fromBelow);
-    if (tri < 0) return tri === NO_HIT && !mustHit ? NO_HIT : LOST;
-    const o = tri * TRI_STRIDE;
-    nxl = tile.tri[o];
-    nyl = tile.tri[o + 1];
-    nzl = tile.tri[o + 2];
-  }
+  const tri = meshHit(tile, q, fromBelow);
+  if (tri < 0) return tri === NO_HIT && !mustHit ? NO_HIT : LOST;
+  const o = tri * TRI_STRIDE;
+  const nxl = tile.tri[o];
+  const nyl = tile.tri[o + 1];
+  const nzl = tile.tri[o + 2];
   st[NX] = c * nxl - s * nyl;
   st[NY] = s * nxl + c * nyl;
   st[NZ] = nzl;
   st[T] = t0 + q[Q_T];
+  return HIT;
+}
+
+/**
+ * tileSearch for regular square pyramids (tile.pyramidSign ≠ 0): the same slab entry and wrap, then
+ * the analytic facet walk of pyramidHit (src/geometry/surfaceHit.ts, same arithmetic step for step)
+ * in this one function, with the ray in locals instead of a query array.
+ */
+function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, zSign: number, zOffsetUm: number): number {
+  const zl = zSign * (st[Z] - zOffsetUm);
+  const dzl = zSign * st[DZ];
+  const zMin = tile.zMinUm;
+  const zMax = tile.zMaxUm;
+  let t0 = 0;
+  let tLimit = Infinity;
+  let mustHit = false;
+  const margin = 1e-7 * (zMax - zMin + tile.lxUm);
+  if (fromBelow) {
+    if (dzl > 0) {
+      if (zl < zMin - margin) t0 = (zMin - margin - zl) / dzl;
+      tLimit = (zMax - zl) / dzl - t0;
+      mustHit = true;
+    } else if (dzl < 0) {
+      if (zl <= zMin) return NO_HIT;
+      tLimit = (zMin - zl) / dzl;
+    }
+  } else {
+    if (dzl < 0) {
+      if (zl > zMax + margin) t0 = (zMax + margin - zl) / dzl;
+      tLimit = (zMin - zl) / dzl - t0;
+      mustHit = true;
+    } else if (dzl > 0) {
+      if (zl >= zMax) return NO_HIT;
+      tLimit = (zMax - zl) / dzl;
+    }
+  }
+  if (mustHit) tLimit = tLimit * (1 + 1e-9) + 1e-9 * (zMax - zMin);
+  const x = st[X];
+  const y = st[Y];
+  const dx = st[DX];
+  const dy = st[DY];
+  const c = tile.cosRot;
+  const s = tile.sinRot;
+  const du = c * dx + s * dy;
+  const dv = -s * dx + c * dy;
+  const lx = tile.lxUm;
+  const ly = tile.lyUm;
+  let px = c * x + s * y + t0 * du;
+  let py = -s * x + c * y + t0 * dv;
+  px -= lx * Math.floor(px / lx);
+  py -= ly * Math.floor(py / ly);
+  // The walk (pyramidHit): inverted pyramids are upright ones with z reversed.
+  const a = tile.pyramidPeriodUm;
+  const half = 0.5 * a;
+  const tanA = tile.pyramidTan;
+  const flip = tile.pyramidSign < 0;
+  const below = flip ? !fromBelow : fromBelow;
+  const ozl = zl + t0 * dzl;
+  const oz = flip ? -ozl : ozl;
+  const dz = flip ? -dzl : dzl;
+  const tol = PYRAMID_EDGE_TOL_REL * (lx + ly);
+  const tEps = 1e-12 * (lx + ly);
+  let u0 = px - a * Math.floor(px / a) - half;
+  let v0 = py - a * Math.floor(py / a) - half;
+  const invDu = du !== 0 ? 1 / Math.abs(du) : Infinity;
+  const invDv = dv !== 0 ? 1 / Math.abs(dv) : Infinity;
+  const stepU = du > 0 ? a : -a;
+  const stepV = dv > 0 ? a : -a;
+  let tNextU = du > 0 ? (half - u0) * invDu : du < 0 ? (half + u0) * invDu : Infinity;
+  let tNextV = dv > 0 ? (half - v0) * invDv : dv < 0 ? (half + v0) * invDv : Infinity;
+  const tDeltaU = a * invDu;
+  const tDeltaV = a * invDv;
+  const tdu = tanA * du;
+  const tdv = tanA * dv;
+  const b0 = dz + tdu, b1 = dz - tdu, b2 = dz + tdv, b3 = dz - tdv;
+  const zH = oz - tile.pyramidHeightUm;
+  let tA = 0;
+  let k = LOST;
+  let tHit = 0;
+  for (let step = 0; step < PYRAMID_MAX_STEPS; step++) {
+    let tB = tNextU < tNextV ? tNextU : tNextV;
+    if (tB > tLimit) tB = tLimit;
+    let tLo = -Infinity;
+    let tHi = Infinity;
+    let kLo = -1;
+    let kHi = -1;
+    let empty = false;
+    const tu = tanA * u0;
+    const tv = tanA * v0;
+    const a0 = zH + tu, a1 = zH - tu, a2 = zH + tv, a3 = zH - tv;
+    if (b0 > 0) { const r = -a0 / b0; if (r < tHi) { tHi = r; kHi = 0; } } else if (b0 < 0) { const r = -a0 / b0; if (r > tLo) { tLo = r; kLo = 0; } } else if (a0 > 0) empty = true;
+    if (b1 > 0) { const r = -a1 / b1; if (r < tHi) { tHi = r; kHi = 1; } } else if (b1 < 0) { const r = -a1 / b1; if (r > tLo) { tLo = r; kLo = 1; } } else if (a1 > 0) empty = true;
+    if (b2 > 0) { const r = -a2 / b2; if (r < tHi) { tHi = r; kHi = 2; } } else if (b2 < 0) { const r = -a2 / b2; if (r > tLo) { tLo = r; kLo = 2; } } else if (a2 > 0) empty = true;
+    if (b3 > 0) { const r = -a3 / b3; if (r < tHi) { tHi = r; kHi = 3; } } else if (b3 < 0) { const r = -a3 / b3; if (r > tLo) { tLo = r; kLo = 3; } } else if (a3 > 0) empty = true;
+    if (!empty) {
+      if (below) {
+        if (kHi >= 0 && tHi > tEps && tHi >= tA - tol && tHi <= tB + tol && tHi >= tLo - tol) {
+          k = kHi;
+          tHit = tHi;
+          break;
+        }
+      } else if (kLo >= 0 && tLo > tEps && tLo >= tA - tol && tLo <= tB + tol && tLo <= tHi + tol) {
+        k = kLo;
+        tHit = tLo;
+        break;
+      }
+    }
+    if (tB >= tLimit) {
+      k = NO_HIT;
+      break;
+    }
+    tA = tB;
+    if (tNextU < tNextV) {
+      u0 -= stepU;
+      tNextU += tDeltaU;
+    } else {
+      v0 -= stepV;
+      tNextV += tDeltaV;
+    }
+  }
+  if (k < 0) return k === NO_HIT && !mustHit ? NO_HIT : LOST;
+  const nrm = tile.pyramidNormals;
+  const nxl = nrm[3 * k];
+  const nyl = nrm[3 * k + 1];
+  st[NX] = c * nxl - s * nyl;
+  st[NY] = s * nxl + c * nyl;
+  st[NZ] = nrm[3 * k + 2];
+  st[T] = t0 + tHit;
   return HIT;
 }
