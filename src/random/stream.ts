@@ -39,10 +39,13 @@ export class RandomStream {
     if ((s[0] | s[1] | s[2] | s[3]) === 0) s[0] = 0x9e3779b9;
   }
 
-  /** Next uint32. */
-  nextUint32(): number {
+  /**
+   * Next 32 random bits as an int32 (a uint32 above 2^30 would be a boxed number when returned from
+   * code that is not inlined; next() takes the unsigned value).
+   */
+  nextInt32(): number {
     const s = this.s;
-    const result = Math.imul(rotl(Math.imul(s[1], 5), 7), 9) >>> 0;
+    const result = Math.imul(rotl(Math.imul(s[1], 5), 7), 9);
     const t = s[1] << 9;
     s[2] ^= s[0];
     s[3] ^= s[1];
@@ -55,7 +58,7 @@ export class RandomStream {
 
   /** Uniform in the open interval (0, 1), resolution 2^-32. */
   next(): number {
-    return (this.nextUint32() + 0.5) * 2.3283064365386963e-10;
+    return ((this.nextInt32() >>> 0) + 0.5) * 2.3283064365386963e-10;
   }
 }
 

@@ -123,7 +123,9 @@ export function leaveFront(cs: CompiledStack, st: Float64Array): void {
  * Adds the finished ray's sums (and their squares) to the diagnostics and clears its scratch. Called
  * before its channel contributions are folded (it reads the R and T totals from them).
  */
-export function foldHistory(cs: CompiledStack, st: Float64Array, invThicknessUm: number): void {
+export function foldHistory(cs: CompiledStack, st: Float64Array): void {
+  // The thickness's inverse here, not as an argument: a double passed to code that is not inlined is boxed.
+  const invThicknessUm = 1 / cs.thicknessUm;
   const d = cs.diag;
   const c = cs.contrib;
   const r = c[cs.chRFirst] + c[cs.chREscape];

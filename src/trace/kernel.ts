@@ -76,9 +76,9 @@ export function traceBatch(
   const polMode = polarizationMode(polarization);
   const st = cs.state;
   const invW = 1 / cs.thicknessUm;
-  let events = 0;
-  let pathSum = 0;
-  let pathSumSq = 0;
+  // Batch sums [events, Σp, Σp²] in a typed array: doubles carried from ray to ray in locals across
+  // the calls below were boxed (two numbers allocated per ray).
+  const sums = new Float64Array(3);
   setLaunchAngles(st, Math.sin(thetaDeg * DEG), Math.cos(thetaDeg * DEG));
   if (phiDeg !== null) setLaunchAzimuth(st, phiDeg * DEG);
   for (let r = 0; r < nRays; r++) {
@@ -89,15 +89,15 @@ export function traceBatch(
     launchRay(cs, polMode, rng, fromRear);
     resetHistory(st, fromRear ? FACE_REAR : FACE_FRONT);
     traceRay(cs, rng, startMedium);
-    events += st[EVENTS];
-    foldHistory(cs, st, invW);
+    sums[0] += st[EVENTS];
+    foldHistory(cs, st);
     foldRayContributions(cs.contrib, nC, tally);
     if (withDepth) foldDepth(cs, tally, depthAt);
     const p = st[PATH] * invW;
-    pathSum += p;
-    pathSumSq += p * p;
+    sums[1] += p;
+    sums[2] += p * p;
   }
-  foldBatchTotals(tally, nC, nRays, pathSum, pathSumSq, events);
+  foldBatchTotals(tally, nC, nRays, sums[1], sums[2], sums[0]);
 }
 
 /**
