@@ -3,7 +3,7 @@ import type { GenerationEntry, StackEntry } from "./inputs.js";
 import { thetaIndex } from "./spectralBreakdown.js";
 import { linePlot, type LineSeries } from "./svg/linePlot.js";
 import { seriesColour } from "./svg/palette.js";
-import { stackId, type Figure } from "./figureKit.js";
+import { figure, stackId, type Figure } from "./figureKit.js";
 
 /** Up to four wavelengths of the grid at or above 900 nm (where trapping matters), evenly spread. */
 function trappingWavelengths(wavelengthNm: number[]): number[] {
@@ -39,20 +39,14 @@ export function passesFigure(stack: StackEntry, index: number, angleDeg: number)
   });
   const id = `passes-${stackId(stack, index)}`;
   const title = `Light still in the absorber after each pass at θ = ${angleDeg}°`;
-  return {
-    id,
-    title,
-    svg: linePlot({
-      id,
-      title,
-      subtitle: `${stack.label} · share of the power that entered`,
-      width: 620,
-      height: 400,
-      x: { label: "passes completed", domain: [1, t.maxPasses], ticks: [1, 5, 10, 15, 20] },
-      y: { label: "fraction still inside", kind: "log" },
-      series,
-    }),
-  };
+  return figure(id, title, linePlot, {
+    subtitle: `${stack.label} · share of the power that entered`,
+    width: 620,
+    height: 400,
+    x: { label: "passes completed", domain: [1, t.maxPasses], ticks: [1, 5, 10, 15, 20] },
+    y: { label: "fraction still inside", kind: "log" },
+    series,
+  });
 }
 
 /** Generation profiles G(z) under their spectra, log depth axis; null when no run has one. */
@@ -66,20 +60,14 @@ export function generationFigure(profiles: GenerationEntry[]): Figure | null {
   }));
   const id = "generation-profile";
   const title = "Generation profile G(z) in the absorber";
-  return {
-    id,
-    title,
-    svg: linePlot({
-      id,
-      title,
-      subtitle: `${[...new Set(profiles.map((p) => `θ = ${p.thetaDeg}°, ${p.spectrum}`))].join("; ")} · depth from the texture tips`,
-      width: 620,
-      height: 400,
-      x: { label: "depth z (µm)", kind: "log" },
-      y: { label: "G (cm⁻³ s⁻¹)", kind: "log" },
-      series,
-    }),
-  };
+  return figure(id, title, linePlot, {
+    subtitle: `${[...new Set(profiles.map((p) => `θ = ${p.thetaDeg}°, ${p.spectrum}`))].join("; ")} · depth from the texture tips`,
+    width: 620,
+    height: 400,
+    x: { label: "depth z (µm)", kind: "log" },
+    y: { label: "G (cm⁻³ s⁻¹)", kind: "log" },
+    series,
+  });
 }
 
 /**
@@ -114,18 +102,12 @@ export function escapeAngleFigure(stacks: StackEntry[], angleDeg: number): Figur
   series.push({ label: "Lambertian emission (cos θ)", x: lambert.map((_, b) => (b + 0.5) * binDeg), y: lambert, colour: "#8C93A0", guide: true });
   const id = "escape-angles";
   const title = "Where the escaping light goes";
-  return {
-    id,
-    title,
-    svg: linePlot({
-      id,
-      title,
-      subtitle: `entered, then left through the front · per ${binDeg}° bin · θ = ${angleDeg}°`,
-      width: 620,
-      height: 400,
-      x: { label: "polar angle outside (°)", domain: [0, 90], ticks: [0, 15, 30, 45, 60, 75, 90] },
-      y: { label: "share of the escaping power" },
-      series,
-    }),
-  };
+  return figure(id, title, linePlot, {
+    subtitle: `entered, then left through the front · per ${binDeg}° bin · θ = ${angleDeg}°`,
+    width: 620,
+    height: 400,
+    x: { label: "polar angle outside (°)", domain: [0, 90], ticks: [0, 15, 30, 45, 60, 75, 90] },
+    y: { label: "share of the escaping power" },
+    series,
+  });
 }
