@@ -1,6 +1,7 @@
 import { escapeText } from "../escape.js";
 import { el, num, text } from "./element.js";
-import { FONT_FAMILY, GRID, INK, INK_SOFT, markerPath } from "./palette.js";
+import { GRID, INK, markerPath } from "./palette.js";
+import { svgFrame } from "./frame.js";
 import { formatTick, linearScale, linearTicks, logDomain, logScale, logTicks, niceDomain, type Scale } from "./scale.js";
 
 /** One axis of a chart: numeric (linear or log) or categorical ("band"). */
@@ -65,7 +66,6 @@ export interface Chart {
 
 const TICK_FONT = 12;
 const LABEL_FONT = 13;
-const TITLE_FONT = 15;
 const MAX_LEGEND_CHARS = 52;
 
 function legendLabel(label: string): string {
@@ -213,38 +213,9 @@ export function clipId(c: Chart): string {
  */
 export function renderChart(c: Chart, body: string, overlay = ""): string {
   const { spec } = c;
-  const head =
-    el("title", {}, escapeText(spec.title)) +
-    el("defs", {}, el("clipPath", { id: clipId(c) }, el("rect", { x: c.left, y: c.top, width: c.right - c.left, height: c.bottom - c.top })));
-  // approximate glyph widths of the title (15 px bold) and subtitle (12 px) fonts
-  const fit = (t: string, pxPerChar: number) => {
-    const max = Math.floor((c.width - c.left - 8) / pxPerChar);
-    return t.length > max ? `${t.slice(0, Math.max(1, max - 1))}…` : t;
-  };
-  const titles =
-    text(c.left, 24, fit(spec.title, 9), { "font-size": TITLE_FONT, "font-weight": "bold", fill: INK, class: "plot-title" }) +
-    (spec.subtitle ? text(c.left, 43, fit(spec.subtitle, 6.9), { "font-size": TICK_FONT, fill: INK_SOFT }) : "");
-  return el(
-    "svg",
-    {
-      xmlns: "http://www.w3.org/2000/svg",
-      width: c.width,
-      height: c.height,
-      viewBox: `0 0 ${c.width} ${c.height}`,
-      role: "img",
-      "aria-label": spec.title,
-      "data-plot": spec.id,
-      "font-family": FONT_FAMILY,
-    },
-    head +
-      el("rect", { x: 0, y: 0, width: c.width, height: c.height, fill: "#FFFFFF" }) +
-      gridLines(c) +
-      el("g", { class: "marks", "clip-path": `url(#${clipId(c)})` }, body) +
-      axes(c) +
-      overlay +
-      titles +
-      legend(c),
-  );
+  const defs = el("defs", {}, el("clipPath", { id: clipId(c) }, el("rect", { x: c.left, y: c.top, width: c.right - c.left, height: c.bottom - c.top })));
+  const content = gridLines(c) + el("g", { class: "marks", "clip-path": `url(#${clipId(c)})` }, body) + axes(c) + overlay;
+  return svgFrame({ id: spec.id, title: spec.title, subtitle: spec.subtitle, width: c.width, height: c.height, left: c.left }, content, { defs, over: legend(c) });
 }
 
 /** Min and max of the finite values of several arrays; [0, 1] when there are none. */

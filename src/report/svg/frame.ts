@@ -2,8 +2,16 @@ import { escapeText } from "../escape.js";
 import { el, text } from "./element.js";
 import { FONT_FAMILY, INK, INK_SOFT } from "./palette.js";
 
-/** Title lines and outer element of a standalone SVG plot (for figures with their own layout). */
-export function svgFrame(o: { id: string; title: string; subtitle?: string; width: number; height: number; left: number }, content: string): string {
+/**
+ * Title lines and outer element of a standalone SVG plot: `content` is drawn on the white
+ * background under the titles, `defs` before the background and `over` above the titles.
+ */
+export function svgFrame(
+  o: { id: string; title: string; subtitle?: string; width: number; height: number; left: number },
+  content: string,
+  layers: { defs?: string; over?: string } = {},
+): string {
+  // approximate glyph widths of the title (15 px bold) and subtitle (12 px) fonts
   const fit = (t: string, pxPerChar: number) => {
     const max = Math.floor((o.width - o.left - 8) / pxPerChar);
     return t.length > max ? `${t.slice(0, Math.max(1, max - 1))}…` : t;
@@ -23,7 +31,12 @@ export function svgFrame(o: { id: string; title: string; subtitle?: string; widt
       "data-plot": o.id,
       "font-family": FONT_FAMILY,
     },
-    el("title", {}, escapeText(o.title)) + el("rect", { x: 0, y: 0, width: o.width, height: o.height, fill: "#FFFFFF" }) + content + titles,
+    el("title", {}, escapeText(o.title)) +
+      (layers.defs ?? "") +
+      el("rect", { x: 0, y: 0, width: o.width, height: o.height, fill: "#FFFFFF" }) +
+      content +
+      titles +
+      (layers.over ?? ""),
   );
 }
 
