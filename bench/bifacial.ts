@@ -16,6 +16,7 @@ import { faceQuadrature } from "../src/yield/faceQuadrature.js";
 import { faceYield } from "../src/yield/faceYield.js";
 import { yearContext } from "../src/yield/yearContext.js";
 import { planeList, prepareMatrix } from "../src/yield/yieldRun.js";
+import { cpuMs } from "./timing.js";
 
 function matrix(scale: number, lightFrom?: "rear"): ResponseMatrix {
   const thetaDeg = Array.from({ length: 18 }, (_, i) => 5 * i);
@@ -34,19 +35,6 @@ function matrix(scale: number, lightFrom?: "rear"): ResponseMatrix {
     thetaDeg, phiDeg: [0], phiMode: "averaged", wavelengthNm, channels: ["R", "A_absorber"], mean, stderr,
     nRays: new Float64Array(n).fill(1e4), pathRatio: new Float64Array(n).fill(1), ...(lightFrom ? { lightFrom } : {}),
   };
-}
-
-/** Median CPU time (user + system of this process) of repeated calls, ms. */
-function cpuMs(f: () => void, repeats: number): number {
-  const t: number[] = [];
-  for (let i = 0; i < repeats; i++) {
-    const c0 = process.cpuUsage();
-    f();
-    const c = process.cpuUsage(c0);
-    t.push((c.user + c.system) / 1000);
-  }
-  t.sort((a, b) => a - b);
-  return t[Math.floor(t.length / 2)]!;
 }
 
 export async function runBifacialBench(): Promise<void> {

@@ -12,6 +12,7 @@ import { annualYield, planeSetup } from "../src/yield/annualYield.js";
 import { yearContext } from "../src/yield/yearContext.js";
 import { planeList, prepareMatrix, yieldSweep } from "../src/yield/yieldRun.js";
 import { clearSkyHourlySpectra } from "../src/yield/clearSkyHours.js";
+import { cpuMs, timeMs } from "./timing.js";
 
 function benchMatrix(): ResponseMatrix {
   const thetaDeg = Array.from({ length: 18 }, (_, i) => 5 * i);
@@ -31,30 +32,6 @@ function benchMatrix(): ResponseMatrix {
     thetaDeg, phiDeg, phiMode: "square", wavelengthNm, channels: ["R_first", "A_absorber"], mean, stderr,
     nRays: new Float64Array(n).fill(1e4), pathRatio: new Float64Array(n).fill(1),
   };
-}
-
-function timeMs(f: () => void, repeats: number): number {
-  const t: number[] = [];
-  for (let i = 0; i < repeats; i++) {
-    const t0 = performance.now();
-    f();
-    t.push(performance.now() - t0);
-  }
-  t.sort((a, b) => a - b);
-  return t[Math.floor(t.length / 2)]!; // median
-}
-
-/** Median CPU time (user + system of this process) of repeated calls, ms: steadier than wall time on a shared machine. */
-function cpuMs(f: () => void, repeats: number): number {
-  const t: number[] = [];
-  for (let i = 0; i < repeats; i++) {
-    const c0 = process.cpuUsage();
-    f();
-    const c = process.cpuUsage(c0);
-    t.push((c.user + c.system) / 1000);
-  }
-  t.sort((a, b) => a - b);
-  return t[Math.floor(t.length / 2)]!;
 }
 
 export async function runYieldBench(): Promise<void> {
