@@ -3,24 +3,17 @@ import { photocurrentWeights, type Spectrum } from "../spectrum/index.js";
 import { toolVersion } from "../util/version.js";
 import { collectionAt, type CollectionCurve } from "./collection.js";
 import { eqeFromProfile, generationUnderSpectrum, spectralGenerationPerCm, type GenerationProfile } from "./profile.js";
-import { traceGenerationProfile, type DepthGridSpec, type SpectralProfile } from "./traceProfile.js";
+import { traceGenerationProfile, type ProfileRequest, type SpectralProfile } from "./traceProfile.js";
 import { writeGenerationFiles } from "./writeProfile.js";
 
-export interface GenerationRunOptions {
-  comboIndex: number;
-  thetaDeg: number;
-  phiDeg: number | null;
-  raysPerWavelength: number;
-  batch: number;
-  grid: DepthGridSpec;
-  seed: number;
+/** The trace request of the combination (its study and registry come from the loaded study), plus weighting and output. */
+export interface GenerationRunOptions extends Omit<ProfileRequest, "study" | "registry"> {
   spectrum: Spectrum;
   /** Uniform collection probability, a curve η(z), or none. */
   collection: number | CollectionCurve | null;
   /** Text recorded in the sidecar for the collection (flag value or file). */
   collectionLabel: string | null;
   outDir: string;
-  onWavelength?(done: number, total: number): void;
 }
 
 export interface GenerationRun {
