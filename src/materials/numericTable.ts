@@ -78,3 +78,27 @@ export function requireEach(t: NumericTable, c: number, ok: (v: number) => boole
     if (!ok(x[i]!)) throw new InputError(`${t.label}:${t.lines[i]}: ${t.header[c]} = ${x[i]}; expected ${expected}`);
   }
 }
+
+/**
+ * Parses a two-column spectral table `wavelength_nm,<column>` (`shownHeader` is the header as the
+ * message spells it): at least 2 rows, wavelengths positive and strictly increasing, every value
+ * passing `ok`. Errors name `label` and the line.
+ */
+export function parseWavelengthSeries(
+  text: string,
+  label: string,
+  column: string,
+  shownHeader: string,
+  ok: (v: number) => boolean,
+  expected: string,
+): { wavelengthNm: Float64Array; values: Float64Array } {
+  const t = parseNumericTable(text, label);
+  if (t.header.length !== 2 || t.header[0] !== "wavelength_nm" || t.header[1] !== column) {
+    throw new InputError(`${label}: header is "${t.header.join(",")}"; expected "${shownHeader}"`);
+  }
+  if (t.columns[0]!.length < 2) throw new InputError(`${label}: needs at least 2 data rows, found ${t.columns[0]!.length}`);
+  requireEach(t, 0, (v) => v > 0, "a positive wavelength");
+  requireStrictlyIncreasing(t, 0);
+  requireEach(t, 1, ok, expected);
+  return { wavelengthNm: t.columns[0]!, values: t.columns[1]! };
+}

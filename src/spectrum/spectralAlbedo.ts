@@ -1,4 +1,4 @@
-import { parseNumericTable, requireEach, requireStrictlyIncreasing } from "../materials/numericTable.js";
+import { parseWavelengthSeries } from "../materials/numericTable.js";
 import { InputError } from "../util/errors.js";
 
 /** A spectral ground reflectance: wavelength (nm, strictly increasing) and reflectance 0…1. */
@@ -10,15 +10,8 @@ export interface SpectralAlbedo {
 
 /** Parses `wavelength_nm,reflectance` CSV text ('#' comments; at least 2 rows). Errors name file and line. */
 export function parseSpectralAlbedo(text: string, src: string): SpectralAlbedo {
-  const t = parseNumericTable(text, src);
-  if (t.header.length !== 2 || t.header[0] !== "wavelength_nm" || t.header[1] !== "reflectance") {
-    throw new InputError(`${src}: header is "${t.header.join(",")}"; expected "wavelength_nm,reflectance"`);
-  }
-  if (t.columns[0]!.length < 2) throw new InputError(`${src}: needs at least 2 data rows, found ${t.columns[0]!.length}`);
-  requireEach(t, 0, (v) => v > 0, "a positive wavelength");
-  requireStrictlyIncreasing(t, 0);
-  requireEach(t, 1, (v) => v >= 0 && v <= 1, "a reflectance 0…1");
-  return { source: src, wavelengthNm: t.columns[0]!, reflectance: t.columns[1]! };
+  const t = parseWavelengthSeries(text, src, "reflectance", "wavelength_nm,reflectance", (v) => v >= 0 && v <= 1, "a reflectance 0…1");
+  return { source: src, wavelengthNm: t.wavelengthNm, reflectance: t.values };
 }
 
 /**

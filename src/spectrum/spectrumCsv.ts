@@ -1,6 +1,5 @@
 import { readDataFile } from "../util/inputFile.js";
-import { InputError } from "../util/errors.js";
-import { parseNumericTable, requireEach, requireStrictlyIncreasing } from "../materials/numericTable.js";
+import { parseWavelengthSeries } from "../materials/numericTable.js";
 import type { Spectrum } from "./types.js";
 
 /**
@@ -8,15 +7,8 @@ import type { Spectrum } from "./types.js";
  * (wavelength strictly increasing, irradiance ≥ 0 in W m⁻² nm⁻¹, at least 2 rows).
  */
 export function parseSpectrumCsv(text: string, label: string, name = label): Spectrum {
-  const t = parseNumericTable(text, label);
-  if (t.header.length !== 2 || t.header[0] !== "wavelength_nm" || t.header[1] !== "irradiance_w_m2_nm") {
-    throw new InputError(`${label}: header is "${t.header.join(",")}"; expected "wavelength_nm,irradiance_W_m2_nm"`);
-  }
-  if (t.columns[0]!.length < 2) throw new InputError(`${label}: needs at least 2 data rows, found ${t.columns[0]!.length}`);
-  requireEach(t, 0, (v) => v > 0, "a positive wavelength");
-  requireStrictlyIncreasing(t, 0);
-  requireEach(t, 1, (v) => v >= 0, "irradiance ≥ 0");
-  return { name, wavelengthNm: t.columns[0]!, irradianceWm2PerNm: t.columns[1]! };
+  const t = parseWavelengthSeries(text, label, "irradiance_w_m2_nm", "wavelength_nm,irradiance_W_m2_nm", (v) => v >= 0, "irradiance ≥ 0");
+  return { name, wavelengthNm: t.wavelengthNm, irradianceWm2PerNm: t.values };
 }
 
 /** Reads a spectrum CSV file (see parseSpectrumCsv); errors name the file and line. */
