@@ -5,22 +5,9 @@ import { describe, expect, it } from "vitest";
 import { loadStudy, loadStudyFromDocument } from "../../src/study/load.js";
 import { axisValues, foldSquareAzimuthDeg } from "../../src/study/grid.js";
 import { InputError } from "../../src/util/errors.js";
+import { baseDoc } from "./baseDoc.js";
 
 const here = join(import.meta.dirname, "..", "..", "configs");
-
-function baseDoc(): Record<string, unknown> {
-  return {
-    name: "t",
-    stack: {
-      front: { texture: { type: "upright-pyramids", baseUm: 10 }, films: [{ material: "SiNx", thicknessNm: 75 }] },
-      absorber: { material: "Si", thicknessUm: 180 },
-      rear: { ideal: { kind: "mirror", reflectance: 0.95 } },
-    },
-    grid: { thetaDeg: { from: 0, to: 80, step: 10 }, phiDeg: [0], wavelengthNm: { from: 400, to: 1100, step: 100 } },
-    rays: { perPoint: 100, batch: 50 },
-    seed: 1,
-  };
-}
 
 function errorOf(doc: unknown, dir = tmpdir()): InputError {
   try {

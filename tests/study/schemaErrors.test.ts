@@ -5,23 +5,10 @@ import { Ajv2020 } from "ajv/dist/2020.js";
 import { describe, expect, it } from "vitest";
 import { loadStudyFromDocument } from "../../src/study/load.js";
 import { InputError } from "../../src/util/errors.js";
+import { baseDoc } from "./baseDoc.js";
 
 const root = join(import.meta.dirname, "..", "..");
 const schema = JSON.parse(readFileSync(join(root, "schema", "study.schema.json"), "utf8"));
-
-function baseDoc(): Record<string, any> {
-  return {
-    name: "t",
-    stack: {
-      front: { texture: { type: "upright-pyramids", baseUm: 10 }, films: [{ material: "SiNx", thicknessNm: 75 }] },
-      absorber: { material: "Si", thicknessUm: 180 },
-      rear: { ideal: { kind: "mirror", reflectance: 0.95 } },
-    },
-    grid: { thetaDeg: { from: 0, to: 80, step: 10 }, phiDeg: [0], wavelengthNm: { from: 400, to: 1100, step: 100 } },
-    rays: { perPoint: 100, batch: 50 },
-    seed: 1,
-  };
-}
 
 function errorOf(edit: (d: Record<string, any>) => void): { message: string; hint: string | undefined } {
   const d = baseDoc();
