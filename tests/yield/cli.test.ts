@@ -1,8 +1,8 @@
 import { existsSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
-import { main } from "../../src/cli/main.js";
+import { beforeAll, describe, expect, it } from "vitest";
+import { runMain } from "../helpers/cli.js";
 import { writeResponseMatrix } from "../../src/response/matrixFile.js";
 import { makeMatrix, range } from "./matrixFixture.js";
 
@@ -16,14 +16,13 @@ beforeAll(() => {
   writeResponseMatrix(join(dir, "short.matrix.json"), makeMatrix({ thetaDeg: range(0, 60, 10), absorber: () => 0.9 }));
 });
 
-const out: string[] = [];
-function run(...args: string[]): Promise<number> {
-  out.length = 0;
-  vi.spyOn(process.stdout, "write").mockImplementation((s) => (out.push(String(s)), true));
-  vi.spyOn(process.stderr, "write").mockImplementation((s) => (out.push(String(s)), true));
-  return main(["node", "lightfold", ...args]);
+let out = "";
+/** `lightfold <args>` in this process: its exit code; stdout then stderr are kept in `out`. */
+async function run(...args: string[]): Promise<number> {
+  const r = await runMain(...args);
+  out = r.out + r.err;
+  return r.code;
 }
-afterEach(() => vi.restoreAllMocks());
 
 describe("lightfold weather / yield / compare", () => {
   it("weather writes a synthetic year that yield reads back; yield writes <run>/yield/yield-<site>.json", async () => {
@@ -49,7 +48,7 @@ describe("lightfold weather / yield / compare", () => {
     const doc = JSON.parse(readFileSync(res, "utf8"));
     expect(Math.abs(total / doc.results[0].chargeAhM2 - 1)).toBeLessThan(1e-4); // rows rounded to 1 mA/m²
     expect(await run("weather", "--site", SITE, "--check", join(dir, "w.csv"))).toBe(0);
-    expect(out.join("")).toMatch(/8760 hourly records, a full year/);
+    expect(out).toMatch(/8760 hourly records, a full year/);
   });
 
   it("compare writes <run>/yield/compare.json with a benefit row per site and tilt", async () => {
@@ -86,7 +85,7 @@ describe("lightfold weather / yield / compare", () => {
     ];
     for (const [args, msg] of cases) {
       expect(await run("yield", ...args, "--out", target)).toBe(2);
-      expect(out.join("")).toMatch(msg);
+      expect(out).toMatch(msg);
       expect(existsSync(target)).toBe(false);
     }
     expect(readdirSync(dir).some((f) => f.endsWith(".tmp"))).toBe(false);

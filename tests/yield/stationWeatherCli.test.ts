@@ -1,21 +1,20 @@
 import { mkdtempSync, readFileSync, writeFileSync, existsSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
-import { main } from "../../src/cli/main.js";
+import { beforeAll, describe, expect, it } from "vitest";
+import { runMain } from "../helpers/cli.js";
 import { writeResponseMatrix } from "../../src/response/matrixFile.js";
 import { makeMatrix, range } from "./matrixFixture.js";
 
 let dir = "";
 const SITE = "configs/sites/brevenmark.site.json";
-const out: string[] = [];
-function run(...args: string[]): Promise<number> {
-  out.length = 0;
-  vi.spyOn(process.stdout, "write").mockImplementation((s) => (out.push(String(s)), true));
-  vi.spyOn(process.stderr, "write").mockImplementation((s) => (out.push(String(s)), true));
-  return main(["node", "lightfold", ...args]);
+let out = "";
+/** `lightfold <args>` in this process: its exit code; stdout then stderr are kept in `out`. */
+async function run(...args: string[]): Promise<number> {
+  const r = await runMain(...args);
+  out = r.out + r.err;
+  return r.code;
 }
-afterEach(() => vi.restoreAllMocks());
 
 beforeAll(() => {
   dir = mkdtempSync(join(tmpdir(), "lightfold-station-"));
@@ -44,7 +43,7 @@ describe("yield --weather with EPW and TMY3 files", () => {
   it("refuses a site file that names another place than the weather file's header, writing nothing", async () => {
     const epw = join(dir, "w.epw"), res = join(dir, "never.json");
     expect(await run("yield", "--matrix", join(dir, "a.matrix.json"), "--site", "configs/sites/tessarit-reg.site.json", "--weather", epw, "--out", res)).toBe(2);
-    expect(out.join("")).toMatch(/describe different places or time zones/);
+    expect(out).toMatch(/describe different places or time zones/);
     expect(existsSync(res)).toBe(false);
   });
 
@@ -52,13 +51,13 @@ describe("yield --weather with EPW and TMY3 files", () => {
     const bad = join(dir, "bad.txt");
     writeFileSync(bad, "station;lat;lon\nx;1;2\n");
     expect(await run("yield", "--matrix", join(dir, "a.matrix.json"), "--weather", bad)).toBe(2);
-    expect(out.join("")).toMatch(/bad\.txt: unknown weather file format/);
+    expect(out).toMatch(/bad\.txt: unknown weather file format/);
   });
 
   it("--spectra clear-sky-model on an EPW file reports the spectral correction per month and year beside the G173-shape charge", async () => {
     const res = join(dir, "spectral.json");
     expect(await run("yield", "--matrix", join(dir, "a.matrix.json"), "--weather", join(dir, "w.epw"), "--tilt", "35", "--spectra", "clear-sky-model", "--out", res)).toBe(0);
-    expect(out.join("")).toMatch(/spectral %/);
+    expect(out).toMatch(/spectral %/);
     const doc = JSON.parse(readFileSync(res, "utf8"));
     expect(doc.spectra.mode).toBe("clear-sky-model");
     expect(doc.spectra.hoursWithOwnSpectra).toBeGreaterThan(4000);
@@ -90,7 +89,7 @@ describe("yield --weather with EPW and TMY3 files", () => {
     const text = rows.join("\n") + "\n";
     writeFileSync(spec, text.replace(/\n(2027-06-21T10:30:00\+01:00,)([^,]+),/, "\n$1-0.5,"));
     expect(await run("yield", "--matrix", join(dir, "a.matrix.json"), "--site", SITE, "--weather", join(dir, "w.csv"), "--spectra", spec, "--out", bad)).toBe(2);
-    expect(out.join("")).toMatch(/measured\.csv: .*line 4: irradiance "-0\.5" at 300 nm/s);
+    expect(out).toMatch(/measured\.csv: .*line 4: irradiance "-0\.5" at 300 nm/s);
     expect(existsSync(bad)).toBe(false);
   });
 });
