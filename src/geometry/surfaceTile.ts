@@ -41,7 +41,8 @@ export interface SurfaceTile {
   cosRot: number;
   sinRot: number;
   /**
-   * Regular square pyramids (same surface as the triangles, searched analytically, see pyramidHit):
+   * Regular square pyramids (same surface as the triangles, searched analytically by pyramidSearch,
+   * src/trace/surfaceSearch.ts):
    * +1 upright, −1 inverted, 0 not such a texture. Period (base) in µm, tan of the facet angle,
    * apex height, and the four facet normals (+u, −u, +v, −v; 3 numbers each, outward).
    */

@@ -2,9 +2,10 @@ import { LOST, NO_HIT, Q_DX, Q_DY, Q_DZ, Q_LIMIT, Q_OX, Q_OY, Q_OZ, Q_T, meshHit
 import { SURFACE_MESH, TRI_STRIDE, type SurfaceTile } from "../geometry/surfaceTile.js";
 import type { CompiledStack } from "./compiledStack.js";
 
-/** The limits of pyramidHit (src/geometry/surfaceHit.ts). */
+/** Limits of the pyramid walk: the step budget and the edge tolerance relative to the tile size. */
 const PYRAMID_MAX_STEPS = 1 << 20;
 const PYRAMID_EDGE_TOL_REL = 1e-10;
+
 import { DX, DY, DZ, HIT, NX, NY, NZ, T, X, Y, Z, setNormal } from "./rayState.js";
 
 /**
@@ -94,18 +95,54 @@ export function rearSearchFromBehind(cs: CompiledStack, st: Float64Array): numbe
  */
 function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBelow: boolean, zSign: number, zOffsetUm: number): number {
   if (tile.pyramidSign !== 0) return pyramidSearch(tile, st, fromBelow, zSign, zOffsetUm);
-  const x = st[X];
-  const y = st[Y];
-  const dx = st[DX];
-  const dy = st[DY];
   // Local height: z − offset (front: offset 0; outer glass texture: the glass's top plane), or for
   // the rear tile, flipped: −(z − (−W)) = −(z + W).
   const zl = zSign * (st[Z] - zOffsetUm);
   const dzl = zSign * st[DZ];
+  const entry = slabEntry(tile, zl, dzl, fromBelow);
+  if (entry === NO_HIT) return NO_HIT;
+  const mustHit = entry === MUST_HIT;
+  const t0 = slab[0];
   const c = tile.cosRot;
   const s = tile.sinRot;
-  const dxl = c * dx + s * dy;
-  const dyl = -s * dx + c * dy;
+  const dxl = c * st[DX] + s * st[DY];
+  const dyl = -s * st[DX] + c * st[DY];
+  const lx = tile.lxUm;
+  const ly = tile.lyUm;
+  let px = c * st[X] + s * st[Y] + t0 * dxl;
+  let py = -s * st[X] + c * st[Y] + t0 * dyl;
+  px -= lx * Math.floor(px / lx);
+  py -= ly * Math.floor(py / ly);
+  q[Q_OX] = px;
+  q[Q_OY] = py;
+  q[Q_OZ] = zl + t0 * dzl;
+  q[Q_DX] = dxl;
+  q[Q_DY] = dyl;
+  q[Q_DZ] = dzl;
+  q[Q_LIMIT] = slab[1];
+  const tri = meshHit(tile, q, fromBelow);
+  if (tri < 0) return tri === NO_HIT && !mustHit ? NO_HIT : LOST;
+  const o = tri * TRI_STRIDE;
+  const nxl = tile.tri[o];
+  const nyl = tile.tri[o + 1];
+  st[NX] = c * nxl - s * nyl;
+  st[NY] = s * nxl + c * nyl;
+  st[NZ] = tile.tri[o + 2];
+  st[T] = t0 + q[Q_T];
+  return HIT;
+}
+
+/** slabEntry result: the ray heads into the surface and must hit it (a miss is LOST). */
+const MUST_HIT = 1;
+/** slabEntry output: [distance to the entry point, search range from there]. */
+const slab = new Float64Array(2);
+
+/**
+ * Where a ray at local height zl (direction dzl) enters the slab zMin..zMax of a tile, and how far the
+ * search may go from there (into slab[0], slab[1]). Returns NO_HIT when the ray leaves the slab on the
+ * far side of the surface, MUST_HIT when it heads into the surface, else 0.
+ */
+function slabEntry(tile: SurfaceTile, zl: number, dzl: number, fromBelow: boolean): number {
   const zMin = tile.zMinUm;
   const zMax = tile.zMaxUm;
   let t0 = 0;
@@ -133,66 +170,31 @@ function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBe
     }
   }
   if (mustHit) tLimit = tLimit * (1 + 1e-9) + 1e-9 * (zMax - zMin);
-  const lx = tile.lxUm;
-  const ly = tile.lyUm;
-  let px = c * x + s * y + t0 * dxl;
-  let py = -s * x + c * y + t0 * dyl;
-  px -= lx * Math.floor(px / lx);
-  py -= ly * Math.floor(py / ly);
-  q[Q_OX] = px;
-  q[Q_OY] = py;
-  q[Q_OZ] = zl + t0 * dzl;
-  q[Q_DX] = dxl;
-  q[Q_DY] = dyl;
-  q[Q_DZ] = dzl;
-  q[Q_LIMIT] = tLimit;
-  const tri = meshHit(tile, q, fromBelow);
-  if (tri < 0) return tri === NO_HIT && !mustHit ? NO_HIT : LOST;
-  const o = tri * TRI_STRIDE;
-  const nxl = tile.tri[o];
-  const nyl = tile.tri[o + 1];
-  const nzl = tile.tri[o + 2];
-  st[NX] = c * nxl - s * nyl;
-  st[NY] = s * nxl + c * nyl;
-  st[NZ] = nzl;
-  st[T] = t0 + q[Q_T];
-  return HIT;
+  slab[0] = t0;
+  slab[1] = tLimit;
+  return mustHit ? MUST_HIT : 0;
 }
 
 /**
- * tileSearch for regular square pyramids (tile.pyramidSign ≠ 0): the same slab entry and wrap, then
- * the analytic facet walk of pyramidHit (src/geometry/surfaceHit.ts, same arithmetic step for step)
- * in this one function, with the ray in locals instead of a query array.
+ * tileSearch for regular square pyramids (tile.pyramidSign ≠ 0), analytic, with the ray in locals;
+ * the facet found (0..3: +u, −u, +v, −v) gives the normal from tile.pyramidNormals. Over the square
+ * footprint of one pyramid the upright surface is the lowest of its four facet planes, h = min_k P_k,
+ * so along the ray z − h = max_k g_k(t) with g_k linear: the ray is under the surface exactly on the
+ * interval [tLo, tHi] where every g_k ≤ 0 (tLo from the planes it moves down through, tHi from those
+ * it moves up through). From above the hit is at tLo, from below at tHi, when that lies in the ray's
+ * stretch over the footprint; the walk goes from footprint to footprint (Amanatides & Woo 1987
+ * traversal with one cell per pyramid). Inverted pyramids are upright ones seen with z reversed. A
+ * plane the ray moves away from bounds the interval on the far side, so the facet a ray has just
+ * left is never hit again.
  */
 function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, zSign: number, zOffsetUm: number): number {
   const zl = zSign * (st[Z] - zOffsetUm);
   const dzl = zSign * st[DZ];
-  const zMin = tile.zMinUm;
-  const zMax = tile.zMaxUm;
-  let t0 = 0;
-  let tLimit = Infinity;
-  let mustHit = false;
-  const margin = 1e-7 * (zMax - zMin + tile.lxUm);
-  if (fromBelow) {
-    if (dzl > 0) {
-      if (zl < zMin - margin) t0 = (zMin - margin - zl) / dzl;
-      tLimit = (zMax - zl) / dzl - t0;
-      mustHit = true;
-    } else if (dzl < 0) {
-      if (zl <= zMin) return NO_HIT;
-      tLimit = (zMin - zl) / dzl;
-    }
-  } else {
-    if (dzl < 0) {
-      if (zl > zMax + margin) t0 = (zMax + margin - zl) / dzl;
-      tLimit = (zMin - zl) / dzl - t0;
-      mustHit = true;
-    } else if (dzl > 0) {
-      if (zl >= zMax) return NO_HIT;
-      tLimit = (zMax - zl) / dzl;
-    }
-  }
-  if (mustHit) tLimit = tLimit * (1 + 1e-9) + 1e-9 * (zMax - zMin);
+  const entry = slabEntry(tile, zl, dzl, fromBelow);
+  if (entry === NO_HIT) return NO_HIT;
+  const mustHit = entry === MUST_HIT;
+  const t0 = slab[0];
+  const tLimit = slab[1];
   const x = st[X];
   const y = st[Y];
   const dx = st[DX];
@@ -207,7 +209,7 @@ function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, 
   let py = -s * x + c * y + t0 * dv;
   px -= lx * Math.floor(px / lx);
   py -= ly * Math.floor(py / ly);
-  // The walk (pyramidHit): inverted pyramids are upright ones with z reversed.
+  // The walk: inverted pyramids are upright ones with z reversed.
   const a = tile.pyramidPeriodUm;
   const half = 0.5 * a;
   const tanA = tile.pyramidTan;

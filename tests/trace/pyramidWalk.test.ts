@@ -1,11 +1,18 @@
 import { describe, expect, it } from "vitest";
+import { MaterialRegistry } from "../../src/materials/registry.js";
 import { RandomStream, streamKey } from "../../src/random/stream.js";
-import { LOST, meshHit, NO_HIT, pyramidHit, Q_DX, Q_DY, Q_DZ, Q_LENGTH, Q_LIMIT, Q_OX, Q_OY, Q_OZ, Q_T } from "../../src/geometry/surfaceHit.js";
+import { LOST, meshHit, NO_HIT, Q_DX, Q_DY, Q_DZ, Q_LENGTH, Q_LIMIT, Q_OX, Q_OY, Q_OZ, Q_T } from "../../src/geometry/surfaceHit.js";
 import { TRI_STRIDE } from "../../src/geometry/surfaceTile.js";
 import { buildSurface } from "../../src/geometry/textures.js";
+import { compileStack } from "../../src/trace/compile.js";
+import { DX, DY, DZ, HIT, NX, NY, NZ, T, X, Y, Z } from "../../src/trace/rayState.js";
+import { frontSearch } from "../../src/trace/surfaceSearch.js";
+import type { StackSpec } from "../../src/study/stackTypes.js";
 
-// The analytic pyramid search must find what the triangle search finds (the same surface):
-// same distance (to rounding), same outward normal, same misses, for rays from either side.
+// The tracer's analytic pyramid walk must find what the triangle search finds (the same surface):
+// same distance (to rounding), same outward normal, same misses, for rays from either side that
+// start inside the texture's slab, close to the surface (the tile's own frame: the front tile of a
+// stack, z = height).
 describe("analytic pyramid search agrees with the triangle mesh", () => {
   const cases: ["upright-pyramids" | "inverted-pyramids", "periodic" | "mirror", number][] = [
     ["upright-pyramids", "periodic", 54.74],
@@ -19,6 +26,9 @@ describe("analytic pyramid search agrees with the triangle mesh", () => {
       expect(tile.pyramidSign).toBe(type === "upright-pyramids" ? 1 : -1);
       const rng = new RandomStream(streamKey(7, "pyramid-hit", type, boundary));
       const q = new Float64Array(Q_LENGTH);
+      const cs = compileStack(pyramidStack(type), MaterialRegistry.withBuiltins(), 1000);
+      cs.frontTile = tile;
+      const st = cs.state;
       let hits = 0;
       let compared = 0;
       for (let i = 0; i < 10000; i++) {
@@ -38,17 +48,18 @@ describe("analytic pyramid search agrees with the triangle mesh", () => {
         set();
         const tri = meshHit(tile, q, fromBelow);
         const tMesh = q[Q_T];
-        set();
-        const k = pyramidHit(tile, q, fromBelow);
-        const tPyr = q[Q_T];
+        st[X] = x; st[Y] = y; st[Z] = z; st[DX] = dx; st[DY] = dy; st[DZ] = dz;
+        const found = frontSearch(cs, st, fromBelow);
+        const tPyr = st[T];
         if (tri === LOST || Math.abs(h - z) < 1e-6) continue; // grazing start: either answer is fair
         compared++;
-        expect(k >= 0).toBe(tri >= 0);
+        expect(found === HIT).toBe(tri >= 0);
         if (tri === NO_HIT) continue;
         hits++;
         expect(Math.abs(tPyr - tMesh)).toBeLessThan(1e-9);
         const o = tri * TRI_STRIDE;
-        for (let j = 0; j < 3; j++) expect(Math.abs(tile.pyramidNormals[3 * k + j] - tile.tri[o + j])).toBeLessThan(1e-12);
+        const normal = [st[NX], st[NY], st[NZ]];
+        for (let j = 0; j < 3; j++) expect(Math.abs(normal[j] - tile.tri[o + j])).toBeLessThan(1e-12);
       }
       expect(compared).toBeGreaterThan(9500);
       expect(hits).toBeGreaterThan(2500);
@@ -62,4 +73,15 @@ function surfaceHeight(sign: number, tanA: number, a: number, x: number, y: numb
   const v = y - a * Math.floor(y / a) - a / 2;
   const H = (tanA * a) / 2;
   return sign * (H - tanA * Math.max(Math.abs(u), Math.abs(v)));
+}
+
+function pyramidStack(type: "upright-pyramids" | "inverted-pyramids"): StackSpec {
+  return {
+    incidence: "air",
+    layers: [],
+    front: { texture: { type, baseUm: 7, facetAngleDeg: 54.74 }, films: [] },
+    absorber: { material: "Si-Green2008", thicknessUm: 180 },
+    rear: { ideal: { kind: "mirror", reflectance: 0.95 } },
+    boundary: "periodic",
+  };
 }
