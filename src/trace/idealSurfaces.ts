@@ -8,20 +8,7 @@ import { ANALOG, DX, DY, DZ, EX, EY, EZ, TWO_PI, W } from "./rayState.js";
  * Mirror: specular; Lambertian: cosine-weighted, depolarising. Returns true when the ray ended.
  */
 export function idealRear(cs: CompiledStack, st: Float64Array, rng: RandomStream): boolean {
-  const r = cs.rearReflectance;
-  const u = rng.next();
-  if (st[ANALOG] !== 0) {
-    if (u >= r) {
-      cs.contrib[cs.chRear] += st[W];
-      return true;
-    }
-  } else {
-    const dep = st[W] * (1 - r);
-    cs.contrib[cs.chRear] += dep;
-    st[W] -= dep;
-    if (!(st[W] > 0)) return true;
-    rouletteCheck(cs, st, rng);
-  }
+  if (absorbAtReflector(cs, st, rng, cs.rearReflectance)) return true;
   if (cs.rearKind === REAR_IDEAL_MIRROR) {
     // Specular at a horizontal plane: z flips; the polarisation keeps its line (r_s = r_p).
     st[DZ] = -st[DZ];
@@ -39,20 +26,7 @@ export function idealRear(cs: CompiledStack, st: Float64Array, rng: RandomStream
  * direction (depolarised), the rest specularly. Returns true when the ray ended.
  */
 export function backsheetEvent(cs: CompiledStack, st: Float64Array, rng: RandomStream): boolean {
-  const r = cs.backsheetReflectance;
-  const u = rng.next();
-  if (st[ANALOG] !== 0) {
-    if (u >= r) {
-      cs.contrib[cs.chRear] += st[W];
-      return true;
-    }
-  } else {
-    const dep = st[W] * (1 - r);
-    cs.contrib[cs.chRear] += dep;
-    st[W] -= dep;
-    if (!(st[W] > 0)) return true;
-    rouletteCheck(cs, st, rng);
-  }
+  if (absorbAtReflector(cs, st, rng, cs.backsheetReflectance)) return true;
   if (rng.next() < cs.backsheetHaze) {
     lambertianDirection(st, 1, rng);
     randomPolarization(st, rng);
@@ -60,6 +34,28 @@ export function backsheetEvent(cs: CompiledStack, st: Float64Array, rng: RandomS
     st[DZ] = -st[DZ];
     st[EZ] = -st[EZ];
   }
+  return false;
+}
+
+/**
+ * The absorbing part of a reflector of reflectance r: the rest (1 − r) goes to A_rear, drawn
+ * (analog) or as a weight (expected value, then roulette). One random number either way, so both
+ * estimators keep the same draw order. Returns true when the ray ended there.
+ */
+function absorbAtReflector(cs: CompiledStack, st: Float64Array, rng: RandomStream, r: number): boolean {
+  const u = rng.next();
+  if (st[ANALOG] !== 0) {
+    if (u >= r) {
+      cs.contrib[cs.chRear] += st[W];
+      return true;
+    }
+    return false;
+  }
+  const dep = st[W] * (1 - r);
+  cs.contrib[cs.chRear] += dep;
+  st[W] -= dep;
+  if (!(st[W] > 0)) return true;
+  rouletteCheck(cs, st, rng);
   return false;
 }
 
