@@ -217,24 +217,14 @@ function stepBehindAbsorber(cs: CompiledStack, st: Float64Array, m: number, rng:
       cs.contrib[rearExitChannel(cs, st)] += st[W];
       return RAY_ENDED;
     }
-    st[T] = (cs.rearBottomZUm[j] - st[Z]) / vz;
-    if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
-    advance(st);
-    st[Z] = cs.rearBottomZUm[j];
-    st[EVENTS]++;
-    setNormal(st, 0, 0, 1);
+    if (reachPlane(cs, st, m, cs.rearBottomZUm[j], rng)) return RAY_ENDED;
     const iface = cs.rearBottomInterfaces[j];
     if (iface === null) return backsheetEvent(cs, st, rng) ? RAY_ENDED : m;
     return afterInterface(cs, st, interfaceEvent(cs, st, iface, rng), m, m + 1);
   }
   if (vz > 0) {
     // j ≥ 1 here (the first rear layer meets the rear texture in stepOntoRear)
-    st[T] = (cs.rearBottomZUm[j - 1] - st[Z]) / vz;
-    if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
-    advance(st);
-    st[Z] = cs.rearBottomZUm[j - 1];
-    st[EVENTS]++;
-    setNormal(st, 0, 0, 1);
+    if (reachPlane(cs, st, m, cs.rearBottomZUm[j - 1], rng)) return RAY_ENDED;
     return afterInterface(cs, st, interfaceEvent(cs, st, cs.rearBottomInterfaces[j - 1] as CompiledInterface, rng), m, m - 1);
   }
   return RAY_LOST;
@@ -273,6 +263,20 @@ function stepOntoFront(cs: CompiledStack, st: Float64Array, rng: RandomStream): 
   return next;
 }
 
+/**
+ * Straight through thick medium m to the horizontal plane z = zUm (Beer–Lambert on the way), landing
+ * on it with the plane's normal +z. Returns true when the ray was absorbed on the way.
+ */
+function reachPlane(cs: CompiledStack, st: Float64Array, m: number, zUm: number, rng: RandomStream): boolean {
+  st[T] = (zUm - st[Z]) / st[DZ];
+  if (absorbAlong(cs, st, m, rng)) return true;
+  advance(st);
+  st[Z] = zUm;
+  st[EVENTS]++;
+  setNormal(st, 0, 0, 1);
+  return false;
+}
+
 /** Planar thick layer m (or the incidence medium, m = 0): straight to its top or bottom plane. */
 function stepInPlanarLayer(cs: CompiledStack, st: Float64Array, m: number, rng: RandomStream): number {
   const vz = st[DZ];
@@ -281,21 +285,11 @@ function stepInPlanarLayer(cs: CompiledStack, st: Float64Array, m: number, rng: 
       leaveFront(cs, st);
       return RAY_ENDED;
     }
-    st[T] = (cs.layerTopZUm[m] - st[Z]) / vz;
-    if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
-    advance(st);
-    st[Z] = cs.layerTopZUm[m];
-    st[EVENTS]++;
-    setNormal(st, 0, 0, 1);
+    if (reachPlane(cs, st, m, cs.layerTopZUm[m], rng)) return RAY_ENDED;
     return afterInterface(cs, st, interfaceEvent(cs, st, cs.topInterfaces[m - 1], rng), m, m - 1);
   }
   if (vz < 0) {
-    st[T] = (cs.layerTopZUm[m + 1] - st[Z]) / vz;
-    if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
-    advance(st);
-    st[Z] = cs.layerTopZUm[m + 1];
-    st[EVENTS]++;
-    setNormal(st, 0, 0, 1);
+    if (reachPlane(cs, st, m, cs.layerTopZUm[m + 1], rng)) return RAY_ENDED;
     return afterInterface(cs, st, interfaceEvent(cs, st, cs.topInterfaces[m], rng), m, m + 1);
   }
   return RAY_LOST;
