@@ -1,3 +1,4 @@
+import { pointMoments } from "./pairedMoments.js";
 import type { ResponseMatrix } from "./responseMatrix.js";
 
 /** A difference A − B of a linear functional of two matrices, with its standard errors. */
@@ -11,39 +12,24 @@ export interface PairedDifference {
 
 /**
  * Paired variance of the difference of the means of channel ca of A and cb of B at matrix point q
- * (both traced with the same streams per batch; docs/contracts.md, Run directory). Pairing groups
- * are independent replicas of the point, so with group means d_g of the difference and group weights
- * f_g = n_g / N over the K groups with rays, Var(D̄) = K/(K − 1) · Σ f_g² (d_g − D̄)² (the
- * variance estimate of a mean over clusters of unequal size, as in cluster sampling, Cochran,
- * Sampling Techniques, ch. 9; from memory; with equal groups it is the textbook s²/K). NaN when
- * fewer than two groups have rays or A and B differ in them.
+ * (both traced with the same streams per batch; docs/contracts.md, Run directory): Var(Ā) + Var(B̄)
+ * − 2 Cov(Ā, B̄) from the pairing groups (pointMoments: the cluster-sampling estimate over groups,
+ * K/(K − 1) · Σ f_g² (d_g − D̄)² for the group differences d_g). NaN when fewer than two groups
+ * have rays or A and B differ in them.
  */
 export function pairedPointVariance(a: ResponseMatrix, ca: number, b: ResponseMatrix, cb: number, q: number): number {
   const G = a.pairGroups;
   if (G === undefined || b.pairGroups !== G || a.groupMean === undefined || b.groupMean === undefined || a.groupRays === undefined || b.groupRays === undefined) return NaN;
-  const nA = a.channels.length;
-  const nB = b.channels.length;
-  let N = 0;
   let K = 0;
-  let sum = 0;
   for (let g = 0; g < G; g++) {
     const n = a.groupRays[q * G + g];
     if (n !== b.groupRays[q * G + g]) return NaN;
-    if (n <= 0) continue;
-    N += n;
-    K++;
-    sum += n * (a.groupMean[(q * G + g) * nA + ca] - b.groupMean[(q * G + g) * nB + cb]);
+    if (n > 0) K++;
   }
   if (K < 2) return NaN;
-  const mean = sum / N;
-  let ss = 0;
-  for (let g = 0; g < G; g++) {
-    const n = a.groupRays[q * G + g];
-    if (n <= 0) continue;
-    const d = a.groupMean[(q * G + g) * nA + ca] - b.groupMean[(q * G + g) * nB + cb] - mean;
-    ss += (n / N) * (n / N) * d * d;
-  }
-  return (K / (K - 1)) * ss;
+  const m = new Float64Array(3);
+  pointMoments(a, ca, b, cb, q, m);
+  return Math.max(0, m[0] + m[1] - 2 * m[2]);
 }
 
 /**
