@@ -24,6 +24,8 @@ export interface FaceSummary {
   monthlyChargeAhM2: number[];
   /** "transposition" (isolated front: the sky model as in `yield`) or "view-factors" (row faces, every rear). */
   model: "transposition" | "view-factors";
+  /** The face's year-summed weight per angle node (the charge is linear in the matrix; src/yield/pairedCharge.ts). */
+  nodeWeights: { beam: Float64Array; diffuse: Float64Array };
 }
 
 export interface BifacialResult {
@@ -41,14 +43,15 @@ export interface BifacialResult {
 }
 
 function summaryOf(y: FaceYieldResult): FaceSummary {
-  return { chargeAhM2: y.chargeAhM2, chargeStdErrAhM2: y.chargeStdErrAhM2, insolationKWhM2: y.insolationKWhM2, monthlyChargeAhM2: y.monthlyChargeAhM2, model: "view-factors" };
+  return { chargeAhM2: y.chargeAhM2, chargeStdErrAhM2: y.chargeStdErrAhM2, insolationKWhM2: y.insolationKWhM2, monthlyChargeAhM2: y.monthlyChargeAhM2, model: "view-factors", nodeWeights: y.nodeWeights };
 }
 
 /**
  * Front + rear yearly charge of one plane and mounting. The front of an isolated row uses the sky
  * model as `yield` does (transposition quadrature, `annualYield`); in rows the front uses the same
  * view-factor model as the rear, so the row ahead's shadow and the sky it hides count. The two
- * matrices are independent Monte Carlo runs: their errors add in quadrature.
+ * matrices are independent Monte Carlo runs (a sweep traces light from the rear on streams of its
+ * own, lightStreamKey): their errors add in quadrature.
  */
 export function bifacialYield(ctx: YearContext, plane: Plane, mount: Mounting, front: PreparedMatrix, rear: PreparedMatrix, skyModel: SkyModel, src = "mounting"): BifacialResult {
   const geometry = checkRowGeometry({ tiltDeg: plane.tiltDeg, slantLengthM: mount.slantLengthM, centreHeightM: mount.centreHeightM, ...(mount.pitchM === null ? {} : { pitchM: mount.pitchM }) }, src);
@@ -58,7 +61,7 @@ export function bifacialYield(ctx: YearContext, plane: Plane, mount: Mounting, f
   let frontS: FaceSummary;
   if (geometry.pitchM === null) {
     const y = annualYield(ctx, planeSetup(plane, front.grid), front.grid, front.tables, { skyModel });
-    frontS = { chargeAhM2: y.chargeAhM2, chargeStdErrAhM2: y.chargeStdErrAhM2, insolationKWhM2: y.poaKWhM2, monthlyChargeAhM2: y.monthlyChargeAhM2, model: "transposition" };
+    frontS = { chargeAhM2: y.chargeAhM2, chargeStdErrAhM2: y.chargeStdErrAhM2, insolationKWhM2: y.poaKWhM2, monthlyChargeAhM2: y.monthlyChargeAhM2, model: "transposition", nodeWeights: y.nodeWeights };
   } else {
     frontS = summaryOf(faceYield(ctx, light, frame, faceQuadrature(light, frame, "front", front.grid), front.grid, front.tables, skyModel));
   }
