@@ -1,5 +1,6 @@
 import type { Site } from "../site/site.js";
 import type { SkyModel } from "../sky/transposition.js";
+import type { BifacialDifference, DifferenceEstimate } from "./bifacialDifference.js";
 import type { BifacialResult, Mounting } from "./bifacialYield.js";
 import type { YearContext } from "./yearContext.js";
 import { siteInfo, weatherInfo } from "./yieldJson.js";
@@ -67,28 +68,33 @@ export function formatBifacialTable(siteName: string, skyModel: SkyModel, optica
   return lines.join("\n") + "\n";
 }
 
-/** One site, plane and mounting of a bifacial comparison. */
+/** One site, plane and mounting of a bifacial comparison, with the differences of A and B. */
 export interface BifacialCompareRow {
   site: string;
   a: BifacialResult;
   b: BifacialResult;
+  diff: BifacialDifference;
 }
 
-/** Benefit of A over B in front + rear charge, 100 (Q_A/Q_B − 1), independent errors in quadrature. */
-export function totalBenefit(row: BifacialCompareRow): { pct: number; stderrPct: number } {
-  const qa = row.a.totalChargeAhM2, qb = row.b.totalChargeAhM2;
-  const ratio = qa / qb;
-  return { pct: 100 * (ratio - 1), stderrPct: 100 * ratio * Math.hypot(row.a.totalStdErrAhM2 / qa, row.b.totalStdErrAhM2 / qb) };
+/** How the comparison's errors were made: "paired", or "independent" with the reason pairing failed. */
+export interface PairingNote {
+  errorKind: "paired" | "independent";
+  reason?: string;
 }
+
+const diffJson = (d: DifferenceEstimate, unit: string, digits: number) => ({
+  [`delta${unit}`]: r(d.delta, digits), [`stdErr${unit}`]: r(d.stdErr, digits + 1), [`independentStdErr${unit}`]: r(d.independentStdErr, digits + 1),
+});
 
 /**
  * `compare --rear-matrix …` as kind "lightfold.compare" (basis "front+rear"): the charge fields hold
  * each stack's front + rear total, so readers of comparisons show the bifacial benefit; the rear
- * charge and bifacial gain of each stack and the pitch come with every row.
+ * charge and bifacial gain of each stack and the pitch come with every row, and "differences" holds
+ * A − B of front, rear and total charge and of the gain, each with its error and the independent one.
  */
 export function bifacialCompareJson(args: {
   toolVersion: string; matrices: Record<string, unknown>[]; skyModel: SkyModel; sites: Record<string, unknown>[]; weather: Record<string, unknown>[];
-  mounting: Omit<Mounting, "pitchM">; rows: BifacialCompareRow[];
+  mounting: Omit<Mounting, "pitchM">; pairing: PairingNote; rows: BifacialCompareRow[];
 }): Record<string, unknown> {
   return {
     kind: "lightfold.compare",
@@ -100,9 +106,10 @@ export function bifacialCompareJson(args: {
     sites: args.sites,
     weather: args.weather,
     mounting: { slantLengthM: args.mounting.slantLengthM, centreHeightM: args.mounting.centreHeightM },
-    units: { charge: "A·h/m²", benefit: "%", gain: "%" },
+    pairing: args.pairing,
+    units: { charge: "A·h/m²", benefit: "%", gain: "%", gainDifference: "percentage points" },
     rows: args.rows.map((row) => {
-      const t = totalBenefit(row);
+      const d = row.diff;
       return {
         site: row.site,
         tiltDeg: row.a.plane.tiltDeg,
@@ -116,23 +123,44 @@ export function bifacialCompareJson(args: {
         rearBAhM2: r(row.b.rear.chargeAhM2, 2),
         bifacialGainAPct: r(100 * row.a.bifacialGain, 4),
         bifacialGainBPct: r(100 * row.b.bifacialGain, 4),
-        benefitPct: r(t.pct, 4),
-        benefitStdErrPct: r(t.stderrPct, 4),
+        benefitPct: r(d.benefitPct.delta, 4),
+        benefitStdErrPct: r(d.benefitPct.stdErr, 4),
+        benefitErrorKind: d.errorKind,
+        benefitIndependentStdErrPct: r(d.benefitPct.independentStdErr, 4),
+        differences: {
+          front: diffJson(d.front, "AhM2", 2),
+          rear: diffJson(d.rear, "AhM2", 2),
+          total: diffJson(d.total, "AhM2", 2),
+          bifacialGain: diffJson(d.gainPts, "Pts", 4),
+        },
       };
     }),
   };
 }
 
-export function formatBifacialCompareTable(labelA: string, labelB: string, rows: BifacialCompareRow[]): string {
+export function formatBifacialCompareTable(labelA: string, labelB: string, pairing: PairingNote, rows: BifacialCompareRow[]): string {
   const lines = [`benefit of A = ${labelA} over B = ${labelB} (yearly front + rear absorbed charge)`, ""];
-  lines.push(`${"site".padEnd(16)} ${pad("tilt°", 6)} ${pad("pitch m", 8)} ${pad("A total", 9)} ${pad("B total", 9)} ${pad("A gain %", 9)} ${pad("B gain %", 9)} ${pad("benefit %", 10)} ${pad("± %", 6)}`);
+  lines.push(`${"site".padEnd(16)} ${pad("tilt°", 6)} ${pad("pitch m", 8)} ${pad("A total", 9)} ${pad("B total", 9)} ${pad("A − B", 8)} ${pad("±", 5)} ${pad("A gain %", 9)} ${pad("B gain %", 9)} ${pad("Δgain pts", 10)} ${pad("±", 6)} ${pad("benefit %", 10)} ${pad("± %", 6)}`);
   for (const row of rows) {
-    const t = totalBenefit(row);
+    const d = row.diff;
     const p = row.a.geometry.pitchM;
     lines.push(
-      `${row.site.slice(0, 16).padEnd(16)} ${pad(row.a.plane.tiltDeg.toFixed(1), 6)} ${pad(p === null ? "isolated" : p.toFixed(2), 8)} ${pad(row.a.totalChargeAhM2.toFixed(0), 9)} ${pad(row.b.totalChargeAhM2.toFixed(0), 9)} ${pad((100 * row.a.bifacialGain).toFixed(2), 9)} ${pad((100 * row.b.bifacialGain).toFixed(2), 9)} ${pad(t.pct.toFixed(3), 10)} ${pad(t.stderrPct.toFixed(3), 6)}`,
+      `${row.site.slice(0, 16).padEnd(16)} ${pad(row.a.plane.tiltDeg.toFixed(1), 6)} ${pad(p === null ? "isolated" : p.toFixed(2), 8)} ${pad(row.a.totalChargeAhM2.toFixed(0), 9)} ${pad(row.b.totalChargeAhM2.toFixed(0), 9)} ${pad(d.total.delta.toFixed(0), 8)} ${pad(d.total.stdErr.toFixed(0), 5)} ${pad((100 * row.a.bifacialGain).toFixed(2), 9)} ${pad((100 * row.b.bifacialGain).toFixed(2), 9)} ${pad(d.gainPts.delta.toFixed(3), 10)} ${pad(d.gainPts.stdErr.toFixed(3), 6)} ${pad(d.benefitPct.delta.toFixed(3), 10)} ${pad(d.benefitPct.stdErr.toFixed(3), 6)}`,
     );
   }
-  lines.push("", "totals in A·h/m²; gain = rear / front; ± = Monte Carlo standard error from all four matrices (independent, linear propagation)");
+  lines.push("", "totals and A − B in A·h/m²; gain = rear / front; Δgain = gain A − gain B in percentage points");
+  if (pairing.errorKind === "paired") {
+    const ind = (f: (d: BifacialDifference) => DifferenceEstimate, digits: number): string => rows.map((row) => f(row.diff).independentStdErr.toFixed(digits)).join(", ");
+    lines.push(
+      "± = paired Monte Carlo standard error: front A vs B and rear A vs B from their pairing groups (common random numbers);",
+      "    front and rear light are traced on separate streams, so their errors add as independent",
+      `    as if A and B were independent: A − B ± ${ind((d) => d.total, 0)}; Δgain ± ${ind((d) => d.gainPts, 3)}; benefit ± ${ind((d) => d.benefitPct, 3)}`,
+    );
+  } else {
+    lines.push(
+      "± = Monte Carlo standard error of each stack in quadrature (A and B as independent runs: an overestimate when both were traced on the same streams)",
+      `    paired errors unavailable: ${pairing.reason ?? "no pairing groups"}`,
+    );
+  }
   return lines.join("\n") + "\n";
 }

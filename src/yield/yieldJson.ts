@@ -102,7 +102,9 @@ export interface CompareRow {
 /** `<out>/yield/compare.json`. */
 export function compareJson(args: {
   toolVersion: string; matrices: Record<string, unknown>[]; skyModel: SkyModel; sites: Record<string, unknown>[]; weather: Record<string, unknown>[]; rows: CompareRow[];
+  pairingReason?: string;
 }): Record<string, unknown> {
+  const paired = args.rows.length > 0 && args.rows.every((row) => row.benefit.errorKind === "paired");
   return {
     kind: COMPARE_KIND,
     formatVersion: YIELD_FORMAT_VERSION,
@@ -111,6 +113,7 @@ export function compareJson(args: {
     matrices: args.matrices,
     sites: args.sites,
     weather: args.weather,
+    pairing: paired ? { errorKind: "paired" } : { errorKind: "independent", ...(args.pairingReason !== undefined ? { reason: args.pairingReason } : {}) },
     units: { charge: "A·h/m²", benefit: "%", insolation: "kWh/m²" },
     rows: args.rows.map((row) => ({
       site: row.site,
@@ -159,7 +162,8 @@ export function formatYieldTable(siteName: string, skyModel: SkyModel, results: 
   return lines.join("\n") + "\n";
 }
 
-export function formatCompareTable(labelA: string, labelB: string, rows: CompareRow[]): string {
+/** pairingReason: why the matrices could not be paired (pairingProblem), printed under an independent ±. */
+export function formatCompareTable(labelA: string, labelB: string, rows: CompareRow[], pairingReason?: string): string {
   const lines = [`texture benefit of A = ${labelA} over B = ${labelB} (yearly absorbed charge)`, ""];
   lines.push(`${"site".padEnd(16)} ${pad("tilt°", 6)} ${pad("POA kWh/m²", 11)} ${pad("A A·h/m²", 10)} ${pad("B A·h/m²", 10)} ${pad("benefit %", 10)} ${pad("± %", 7)}`);
   for (const row of rows) {
@@ -174,6 +178,7 @@ export function formatCompareTable(labelA: string, labelB: string, rows: Compare
       ? `± = paired Monte Carlo standard error (both matrices traced on the same streams, pairing groups); as if independent: ${rows.map((row) => row.benefit.independentStdErrPct.toFixed(3)).join(", ")}`
       : "± = Monte Carlo standard error from both matrices' stderr (independent, linear propagation)",
   );
+  if (!paired && pairingReason !== undefined) lines.push(`    paired errors unavailable: ${pairingReason}`);
   return lines.join("\n") + "\n";
 }
 

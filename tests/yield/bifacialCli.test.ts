@@ -49,6 +49,14 @@ describe("lightfold yield --rear-matrix", () => {
     // same front matrix: the total benefit equals A's bifacial gain (Q_A/Q_B − 1 = rear_A/front)
     expect(row.benefitPct).toBeCloseTo(row.bifacialGainAPct, 3);
     expect(row.pitchM).toBeCloseTo(5, 12);
+    // the fixture matrices carry no pairing groups: independent errors, and the file says why
+    expect(doc.pairing.errorKind).toBe("independent");
+    expect(doc.pairing.reason).toMatch(/^front: .*front\.matrix\.json has no pairing groups/);
+    expect(row.benefitErrorKind).toBe("independent");
+    expect(row.differences.total.deltaAhM2).toBeCloseTo(row.chargeAAhM2 - row.chargeBAhM2, 1);
+    expect(row.differences.bifacialGain.deltaPts).toBeCloseTo(row.bifacialGainAPct - row.bifacialGainBPct, 3);
+    const text = await runMain("compare", "--matrix", f(), "--matrix", f(), "--rear-matrix", r(), "--rear-matrix", zeroRear, "--site", SITE, "--tilt", "25", "--gcr", "0.4");
+    expect(text.out).toMatch(/paired errors unavailable: front: .* has no pairing groups/);
   });
 
   it("refuses negative pitch or height, a ground-coverage ratio outside (0, 1] and a front-lit rear matrix (exit 2, nothing written)", async () => {

@@ -61,7 +61,11 @@ describe("lightfold weather / yield / compare", () => {
     for (const r of doc.rows) {
       expect(r.benefitPct).toBeGreaterThan(0);
       expect(r.benefitStdErrPct).toBeGreaterThan(0);
+      expect(r.benefitErrorKind).toBe("independent");
     }
+    // matrices without pairing groups: the independent error, and the file says why
+    expect(doc.pairing.errorKind).toBe("independent");
+    expect(doc.pairing.reason).toMatch(/a\.matrix\.json has no pairing groups/);
   });
 
   it("exits 2 and writes nothing on bad input: short θ grid, tilt > 180, latitude > 90, unknown time zone, weather gaps", async () => {

@@ -1,6 +1,9 @@
+import { mkdtempSync } from "node:fs";
 import { tmpdir } from "node:os";
+import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { matrixFromTallies } from "../../src/response/fromTallies.js";
+import { writeResponseMatrix } from "../../src/response/matrixFile.js";
 import { pairedStderrMatrix } from "../../src/response/pairedDifference.js";
 import { pairedMoments } from "../../src/response/pairedMoments.js";
 import type { ResponseMatrix } from "../../src/response/responseMatrix.js";
@@ -15,6 +18,7 @@ import { bifacialDifference, type BifacialDifference } from "../../src/yield/bif
 import { bifacialYield } from "../../src/yield/bifacialYield.js";
 import { yearContext, type YearContext } from "../../src/yield/yearContext.js";
 import { prepareMatrix } from "../../src/yield/yieldRun.js";
+import { runMain } from "../helpers/cli.js";
 
 const THETA = [0, 40, 80];
 const LAMBDA = [600, 1050];
@@ -164,4 +168,32 @@ describe("paired errors of a bifacial comparison (front, rear, total, gain)", ()
       expect(y.front.model).toBe(pitchM === null ? "transposition" : "view-factors");
     }
   }, 60_000);
+
+  it("compare --rear-matrix on sweep matrices reports paired errors of the total, gain and benefit, with the independent ones beside them", async () => {
+    const ms = (await traceReplica(8))(91);
+    const dir = mkdtempSync(join(tmpdir(), "lightfold-paired-bifacial-"));
+    const files = ["a", "b", "a-rear", "b-rear"].map((n, i) => {
+      const path = join(dir, `${n}.matrix.json`);
+      writeResponseMatrix(path, ms[i]!);
+      return path;
+    });
+    const args = ["compare", "--matrix", files[0]!, "--matrix", files[1]!, "--rear-matrix", files[2]!, "--rear-matrix", files[3]!, "--site", "configs/sites/saltmere-plain.site.json", "--tilt", "30", "--pitch", "6", "--height", "1.2", "--module-width", "2.2"];
+    const res = await runMain(...args, "--json");
+    expect(res.code).toBe(0);
+    const doc = JSON.parse(res.out);
+    expect(doc.pairing).toEqual({ errorKind: "paired" });
+    const row = doc.rows[0];
+    expect(row.benefitErrorKind).toBe("paired");
+    expect(row.benefitStdErrPct).toBeLessThan(row.benefitIndependentStdErrPct / 1.5);
+    const t = row.differences.total, g = row.differences.bifacialGain;
+    expect(t.stdErrAhM2).toBeLessThan(t.independentStdErrAhM2 / 1.5);
+    expect(g.stdErrPts).toBeLessThan(g.independentStdErrPts / 1.5);
+    expect(t.deltaAhM2).toBeCloseTo(row.chargeAAhM2 - row.chargeBAhM2, 1);
+    // the total's paired variance is the sum of the faces' (front and rear on separate streams)
+    expect(t.stdErrAhM2).toBeCloseTo(Math.hypot(row.differences.front.stdErrAhM2, row.differences.rear.stdErrAhM2), 1);
+    const text = await runMain(...args);
+    expect(text.out).toMatch(/± = paired Monte Carlo standard error/);
+    expect(text.out).toMatch(/as if A and B were independent: A − B ± \d+; Δgain ± [\d.]+; benefit ± [\d.]+/);
+  }, 60_000);
 });
+

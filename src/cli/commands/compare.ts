@@ -15,7 +15,9 @@ import type { Plane, Site } from "../../site/site.js";
 import { checkRowGeometry } from "../../sky/rowGeometry.js";
 import type { SkyModel } from "../../sky/transposition.js";
 import { bifacialSweep } from "../../yield/bifacialYield.js";
-import { bifacialCompareJson, formatBifacialCompareTable, type BifacialCompareRow } from "../../yield/bifacialJson.js";
+import { bifacialCompareJson, formatBifacialCompareTable, type BifacialCompareRow, type PairingNote } from "../../yield/bifacialJson.js";
+import { bifacialDifference, type BifacialPairing } from "../../yield/bifacialDifference.js";
+import { pairedMoments, pairingProblem } from "../../response/pairedMoments.js";
 import type { PreparedMatrix } from "../../yield/yieldRun.js";
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
@@ -47,11 +49,13 @@ Examples:
 
 benefit % = 100 (Q_A/Q_B − 1); its ± is the Monte Carlo standard error propagated linearly. Two
 matrices with pairing groups on one grid (lightfold sweeps with the same seed and batches: common
-random numbers) get the paired error of the difference, else (and with --rear-matrix) the quadrature
-of both matrices' errors. Both use the same weather, sky model and planes.
+random numbers) get the paired error of the difference; else the quadrature of both matrices'
+errors, and the output says why pairing failed. Both use the same weather, sky model and planes.
 With --rear-matrix twice (the rear-lit matrices of A and B): Q is the front + rear yearly charge of
-each bifacial stack (as yield --rear-matrix, per tilt and --pitch/--gcr), and each row also gives
-both stacks' rear charge and bifacial gain.`,
+each bifacial stack (as yield --rear-matrix, per tilt and --pitch/--gcr); each row also gives both
+stacks' rear charge and bifacial gain, and A − B of the total charge and of the gain. Front A is
+paired with front B and rear A with rear B; front and rear light run on separate streams, so their
+errors add as independent.`,
     )
     .action((opts: CompareOpts) => {
       if (opts.matrix.length !== 2) throw new InputError(
@@ -72,6 +76,7 @@ both stacks' rear charge and bifacial gain.`,
       if (opts.rearMatrix !== undefined) return bifacialCompare(opts, matrices, prepared, weatherSpecs, sites, year, seed, planes, sky);
       const rows: CompareRow[] = [];
       const weatherInfos: Record<string, unknown>[] = [];
+      const pairingReason = pairingProblem(matrices[0]!, matrices[1]!, opts.channel, [opts.matrix[0]!, opts.matrix[1]!]);
       sites.forEach((site, i) => {
         const ctx = yearContext(site, loadWeather(weatherSpecs[i]!, site, year, seed));
         weatherInfos.push(weatherInfo(ctx));
@@ -88,13 +93,14 @@ both stacks' rear charge and bifacial gain.`,
         sites: sites.map(siteInfo),
         weather: weatherInfos,
         rows,
+        ...(pairingReason !== undefined ? { pairingReason } : {}),
       });
       const text = JSON.stringify(doc, null, 2) + "\n";
       const report = writeResult(opts, "compare.json", text);
       if (opts.json) process.stdout.write(text);
       else {
         const label = (i: number): string => `${matrices[i]!.studyName} (${opts.matrix[i]!})`;
-        process.stdout.write(formatCompareTable(label(0), label(1), rows));
+        process.stdout.write(formatCompareTable(label(0), label(1), rows, pairingReason));
         if (report) process.stdout.write(`report: ${report}\n`);
       }
     });
@@ -113,6 +119,7 @@ function bifacialCompare(
     if (m.lightFrom !== "rear") throw new InputError(`--rear-matrix ${rearFiles[i]}: this matrix was traced with light from the front`, 'sweep the study with "illumination": "both" and pass <label>-rear/matrix.json');
   });
   const rearPrepared = rears.map((m, i) => prepareMatrix(m, rearFiles[i]!, opts.channel));
+  const pairing = bifacialPairing(opts, matrices, rears, prepared, rearPrepared);
   for (const p of planes) {
     for (const pitchM of mount.pitchesM) checkRowGeometry({ tiltDeg: p.tiltDeg, slantLengthM: mount.slantLengthM, centreHeightM: mount.centreHeightM, ...(pitchM === null ? {} : { pitchM }) }, "--tilt/--height/--module-width/--pitch");
   }
@@ -123,18 +130,31 @@ function bifacialCompare(
     weatherInfos.push(weatherInfo(ctx));
     const a = bifacialSweep(ctx, planes, mount.pitchesM, mount, prepared[0]!, rearPrepared[0]!, sky);
     const b = bifacialSweep(ctx, planes, mount.pitchesM, mount, prepared[1]!, rearPrepared[1]!, sky);
-    a.forEach((ya, k) => rows.push({ site: site.name, a: ya, b: b[k]! }));
+    a.forEach((ya, k) => rows.push({ site: site.name, a: ya, b: b[k]!, diff: bifacialDifference(ya, b[k]!, typeof pairing === "string" ? undefined : pairing) }));
   });
+  const note: PairingNote = typeof pairing === "string" ? { errorKind: "independent", reason: pairing } : { errorKind: "paired" };
   const doc = bifacialCompareJson({
     toolVersion: toolVersion(),
     matrices: matrices.map((m, i) => ({ label: i === 0 ? "A" : "B", ...matrixInfo(m, opts.matrix[i]!, opts.channel), rear: matrixInfo(rears[i]!, rearFiles[i]!, opts.channel) })),
-    skyModel: sky, sites: sites.map(siteInfo), weather: weatherInfos, mounting: mount, rows,
+    skyModel: sky, sites: sites.map(siteInfo), weather: weatherInfos, mounting: mount, pairing: note, rows,
   });
   const text = JSON.stringify(doc, null, 2) + "\n";
   const report = writeResult(opts, "compare.json", text);
   if (opts.json) process.stdout.write(text);
   else {
-    process.stdout.write(formatBifacialCompareTable(`${matrices[0]!.studyName} (${opts.matrix[0]!})`, `${matrices[1]!.studyName} (${opts.matrix[1]!})`, rows));
+    process.stdout.write(formatBifacialCompareTable(`${matrices[0]!.studyName} (${opts.matrix[0]!})`, `${matrices[1]!.studyName} (${opts.matrix[1]!})`, note, rows));
     if (report) process.stdout.write(`report: ${report}\n`);
   }
+}
+
+/**
+ * Pairing groups of both faces (front A with front B, rear A with rear B), or why they cannot be
+ * paired (then every ± is the quadrature of independent errors, and the output says so).
+ */
+function bifacialPairing(opts: CompareOpts, fronts: ResponseMatrix[], rears: ResponseMatrix[], prepared: PreparedMatrix[], rearPrepared: PreparedMatrix[]): BifacialPairing | string {
+  const front = pairedMoments(fronts[0]!, fronts[1]!, opts.channel, [opts.matrix[0]!, opts.matrix[1]!]);
+  if (typeof front === "string") return `front: ${front}`;
+  const rear = pairedMoments(rears[0]!, rears[1]!, opts.channel, [opts.rearMatrix![0]!, opts.rearMatrix![1]!]);
+  if (typeof rear === "string") return `rear: ${rear}`;
+  return { front, rear, frontWeights: prepared[0]!.tables.weights, rearWeights: rearPrepared[0]!.tables.weights };
 }
