@@ -35,8 +35,12 @@ export interface BestCombo {
   thetaDeg: number;
   phiDeg: number | "averaged";
   deltaJscMaCm2: number;
+  /** Paired (pairing groups); NaN (null in run.json) when the two cannot be paired. */
   deltaStderrMaCm2: number;
   independentStderrMaCm2: number;
+  /** Which error the summary quotes: "paired", or "independent" with the reason pairing failed. */
+  errorKind?: "paired" | "independent";
+  pairingReason?: string;
 }
 
 /** One combination in run.json. */

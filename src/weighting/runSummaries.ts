@@ -2,6 +2,7 @@ import { dirname, relative } from "node:path";
 import type { ResponseMatrix } from "../response/responseMatrix.js";
 import { photocurrentWeights, spectrumFromSpec, type Spectrum } from "../spectrum/index.js";
 import { pairedWeightedDifference } from "../response/pairedDifference.js";
+import { pairingProblem } from "../response/pairedMoments.js";
 import { pointIndex } from "../response/responseMatrix.js";
 import type { SweepPlan } from "../sweep/plan.js";
 import { writeRunJson, type BestCombo, type RunCombo, type RunRecord } from "../sweep/runFiles.js";
@@ -73,6 +74,8 @@ export function bestComboOf(combos: RunCombo[], matrices: ResponseMatrix[], spec
   const points = a.wavelengthNm.map((_, il) => pointIndex(a, 0, 0, il));
   const d = pairedWeightedDifference(a, b, "A_absorber", points, photocurrentWeights(a.wavelengthNm, spectrum));
   const dir = first.c.jscFirstDirection;
+  const paired = Number.isFinite(d.pairedStderr);
+  const reason = paired ? undefined : pairingProblem(a, b, "A_absorber", [first.c.label, second.c.label]);
   return {
     label: first.c.label,
     runnerUp: second.c.label,
@@ -81,5 +84,7 @@ export function bestComboOf(combos: RunCombo[], matrices: ResponseMatrix[], spec
     deltaJscMaCm2: d.delta,
     deltaStderrMaCm2: d.pairedStderr,
     independentStderrMaCm2: d.independentStderr,
+    errorKind: paired ? "paired" : "independent",
+    ...(reason !== undefined ? { pairingReason: reason } : {}),
   };
 }

@@ -5,6 +5,8 @@ import { pairedPointVariance, pairedStderrMatrix, pairedWeightedDifference } fro
 import { siteFromObject } from "../../src/site/site.js";
 import { syntheticWeather } from "../../src/weather/synthetic.js";
 import { textureBenefit } from "../../src/yield/compare.js";
+import { bestComboOf } from "../../src/weighting/runSummaries.js";
+import type { RunCombo } from "../../src/sweep/runFiles.js";
 import { yearContext } from "../../src/yield/yearContext.js";
 import { prepareMatrix, yieldSweep } from "../../src/yield/yieldRun.js";
 import type { ResponseMatrix } from "../../src/response/responseMatrix.js";
@@ -65,6 +67,28 @@ describe("paired standard error of a difference", () => {
   it("is unavailable with fewer than two groups with rays, or groups of different sizes", () => {
     expect(pairedPointVariance(groupMatrix([10, 0], [1, 0]), 0, groupMatrix([10, 0], [0, 0]), 0, 0)).toBeNaN();
     expect(pairedPointVariance(groupMatrix([10, 10], [1, 2]), 0, groupMatrix([10, 9], [0, 0]), 0, 0)).toBeNaN();
+  });
+
+  it("the sweep summary's best combination says which error it quotes: paired, or independent with the reason", () => {
+    const am15 = spectrumFromSpec("AM1.5G", tmpdir());
+    const combo = (label: string, jsc: number): RunCombo => ({ label, values: {}, studyHash: label, matrix: `${label}/matrix.json`, rays: 40, jscFirstDirection: { thetaDeg: 0, phiDeg: 0, jscMaCm2: jsc, jscStderrMaCm2: 0.1 } });
+    // two wavelengths (500, 600 nm) at one direction, the same groups at both
+    const twoWavelengths = (rays: number[], means: number[]): ResponseMatrix => {
+      const m = groupMatrix(rays, means);
+      const dup = (x: Float64Array): Float64Array => Float64Array.from([...x, ...x]);
+      return { ...m, wavelengthNm: [500, 600], mean: dup(m.mean), stderr: dup(m.stderr), nRays: dup(m.nRays), pathRatio: dup(m.pathRatio), groupMean: dup(m.groupMean!), groupRays: dup(m.groupRays!) };
+    };
+    const a = twoWavelengths([10, 10, 10, 10], [0.9, 0.8, 0.85, 0.95]);
+    const b = twoWavelengths([10, 10, 10, 10], [0.88, 0.79, 0.84, 0.92]);
+    const paired = bestComboOf([combo("p0", 2), combo("p1", 1)], [a, b], am15)!;
+    expect(paired.errorKind).toBe("paired");
+    expect(paired.pairingReason).toBeUndefined();
+    // groups of different sizes (e.g. target-error rays stopping at different batches): no pairing
+    const c = twoWavelengths([10, 10, 10, 5], [0.88, 0.79, 0.84, 0.92]);
+    const unpaired = bestComboOf([combo("p0", 2), combo("p1", 1)], [a, c], am15)!;
+    expect(unpaired.errorKind).toBe("independent");
+    expect(unpaired.deltaStderrMaCm2).toBeNaN();
+    expect(unpaired.pairingReason).toMatch(/p0 and p1 differ in rays per pairing group at \(θ 0°, φ 0°, λ 500 nm\)/);
   });
 
   it("compare's yearly benefit gets the paired error from the pairing groups, below the quadrature figure", async () => {

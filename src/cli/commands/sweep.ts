@@ -224,8 +224,14 @@ function frontSplit(path: string): [number, number] | undefined {
   return a === undefined || b === undefined ? undefined : [a.currentMaCm2, b.currentMaCm2];
 }
 
-/** "+0.0610 ± 0.0061 paired over p1 (± 0.0318 if independent)" (mA/cm²). */
+/**
+ * "+0.0610 ± 0.0061 paired over p1 (± 0.0318 if independent)" (mA/cm²); without a paired error
+ * "+0.0610 ± 0.0318 independent over p1 (not paired: <reason>)".
+ */
 function bestNote(b: BestCombo): string {
-  const paired = Number.isFinite(b.deltaStderrMaCm2) ? `± ${b.deltaStderrMaCm2.toFixed(4)} paired` : "paired error unavailable";
-  return `+${b.deltaJscMaCm2.toFixed(4)} ${paired} over ${b.runnerUp} (± ${b.independentStderrMaCm2.toFixed(4)} if independent)`;
+  const delta = `+${b.deltaJscMaCm2.toFixed(4)}`;
+  if (typeof b.deltaStderrMaCm2 === "number" && Number.isFinite(b.deltaStderrMaCm2)) {
+    return `${delta} ± ${b.deltaStderrMaCm2.toFixed(4)} paired over ${b.runnerUp} (± ${b.independentStderrMaCm2.toFixed(4)} if independent)`;
+  }
+  return `${delta} ± ${b.independentStderrMaCm2.toFixed(4)} independent over ${b.runnerUp} (not paired: ${b.pairingReason ?? "no pairing groups"})`;
 }
