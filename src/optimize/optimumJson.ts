@@ -25,7 +25,11 @@ export interface OptimumDocument {
   study: { name: string; file: string; seed: number; raysPerPoint: number; batch: number; grid: { nTheta: number; nPhi: number; nWavelength: number } };
   objective: ObjectiveInfo & { details: Record<string, unknown> };
   parameters: ParameterSpec[];
-  settings: { replicas: number; level: number; tolerance: number[] };
+  /**
+   * errorMethod "replicas": every ± and interval comes from the spread of the replicas' fits (Student
+   * t), never from a per-evaluation error or an independence assumption between evaluations.
+   */
+  settings: { replicas: number; level: number; tolerance: number[]; errorMethod?: "replicas" };
   result: OptimumResult;
   cost: OptimumCost;
 }
@@ -70,6 +74,7 @@ export function formatOptimum(doc: OptimumDocument): string {
   lines.push(
     `  ${r.replicas} independent replicas of a ${r.design.points.length}-point local fit; ${c.evaluations} evaluations × ${c.raysPerEvaluation.toExponential(2)} rays` +
       ` = ${c.raysTraced.toExponential(3)} rays traced${c.raysResumed > 0 ? ` (+${c.raysResumed.toExponential(3)} from journals)` : ""} in ${c.wallS.toFixed(1)} s on ${c.workers} worker(s)`,
+    `  ± and intervals: spread of the ${r.replicas} replicas' fits (Student t, ${r.replicas - 1} degrees of freedom); each replica traces its whole design on one seed (paired), the replicas on independent seeds`,
   );
   return lines.join("\n") + "\n";
 }

@@ -96,7 +96,7 @@ export async function runOptimization(req: OptimizationRequest): Promise<Optimiz
       },
       objective: { ...info, details: req.objectiveDetails },
       parameters: req.params,
-      settings: { replicas: result.replicas, level: result.level, tolerance },
+      settings: { replicas: result.replicas, level: result.level, tolerance, errorMethod: "replicas" },
       result,
       cost: { evaluations: stats.evaluations, raysTraced: stats.raysTraced, raysResumed: stats.raysResumed, raysPerEvaluation, wallS: (Date.now() - t0) / 1000, workers },
     };

@@ -34,8 +34,11 @@ describe("lightfold optimize", () => {
     expect(r.out).toMatch(/parameter\s+bounds\s+optimum\s+95 % interval/);
     expect(r.out).toMatch(/front\.films\[0\]\.thicknessNm\s+50–110 nm\s+\d+\.\d+ nm\s+\[/);
     expect(r.out).toMatch(/Jsc at 0°\s+\d+\.\d+ mA\/cm²/);
+    // the output says which error the intervals use
+    expect(r.out).toMatch(/± and intervals: spread of the 3 replicas' fits \(Student t, 2 degrees of freedom\)/);
     const doc = JSON.parse(readFileSync(join(out, "optimum.json"), "utf8")) as OptimumDocument;
     expect(doc.kind).toBe("lightfold.optimum");
+    expect(doc.settings.errorMethod).toBe("replicas");
     expect(doc.result.locationInterval[0][0]).toBeLessThanOrEqual(doc.result.location[0]);
     expect(doc.cost.raysTraced).toBe(doc.cost.evaluations * 4 * 400);
     expect(readdirSync(join(out, "report")).some((f) => /^optimum-1-.*\.svg$/.test(f))).toBe(true);
