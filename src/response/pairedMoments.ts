@@ -14,12 +14,12 @@ export interface PairedMoments {
 
 const sameList = (x: readonly number[], y: readonly number[]): boolean => x.length === y.length && x.every((v, i) => v === y[i]);
 
-/** "(θ 30°, φ averaged, λ 900 nm)" for point q of a matrix. */
+/** "θ 30°, φ averaged, λ 900 nm" for point q of a matrix. */
 function pointText(m: ResponseMatrix, q: number): string {
   const nL = m.wavelengthNm.length, nP = m.phiDeg.length;
   const il = q % nL, ip = Math.floor(q / nL) % nP, it = Math.floor(q / (nL * nP));
   const phi = m.phiMode === "averaged" ? "φ averaged" : `φ ${m.phiDeg[ip]}°`;
-  return `(θ ${m.thetaDeg[it]}°, ${phi}, λ ${m.wavelengthNm[il]} nm)`;
+  return `θ ${m.thetaDeg[it]}°, ${phi}, λ ${m.wavelengthNm[il]} nm`;
 }
 
 /**

@@ -88,7 +88,7 @@ describe("paired standard error of a difference", () => {
     const unpaired = bestComboOf([combo("p0", 2), combo("p1", 1)], [a, c], am15)!;
     expect(unpaired.errorKind).toBe("independent");
     expect(unpaired.deltaStderrMaCm2).toBeNaN();
-    expect(unpaired.pairingReason).toMatch(/p0 and p1 differ in rays per pairing group at \(θ 0°, φ 0°, λ 500 nm\)/);
+    expect(unpaired.pairingReason).toMatch(/p0 and p1 differ in rays per pairing group at θ 0°, φ 0°, λ 500 nm \(different batches/);
   });
 
   it("compare's yearly benefit gets the paired error from the pairing groups, below the quadrature figure", async () => {
