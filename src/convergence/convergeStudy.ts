@@ -17,6 +17,8 @@ import {
   type Estimator,
 } from "./runConvergence.js";
 import { inThreadEstimator, poolEstimator, type TraceSubject } from "./traceEstimators.js";
+import { REPLICA_GROUPS } from "../random/replicaGroups.js";
+import type { LaunchSampling } from "../random/sobol.js";
 
 export interface ConvergeRequest {
   comboLabel?: string;
@@ -36,6 +38,8 @@ export interface ConvergeRequest {
   targetError?: number;
   /** Absorption sampling of the tracer (default: the tracer's default, "expected"); in-thread only. */
   estimator?: TraceEstimatorKind;
+  /** Launch sampling (default: the study's rays.sampling, else "random"). */
+  sampling?: LaunchSampling;
 }
 
 interface Prepared {
@@ -46,6 +50,7 @@ interface Prepared {
   weights: Float64Array | null;
   options: ConvergenceOptions;
   tracerEstimator: TraceEstimatorKind;
+  sampling: LaunchSampling;
 }
 
 /** Reduces the study to the one direction (and wavelengths) converged; collects the options. */
@@ -57,8 +62,17 @@ function prepare(loaded: LoadedStudy, req: ConvergeRequest): Prepared {
   const study = combo.study;
   const phiDeg = req.phiDeg ?? (study.grid.phiMode === "averaged" ? null : study.grid.phiDeg[0]);
   const wavelengths = req.wavelengthNm !== undefined ? [req.wavelengthNm] : study.grid.wavelengthNm;
+  const sampling = req.sampling ?? study.rays.sampling ?? "random";
+  if (sampling === "sobol" && req.startRays < REPLICA_GROUPS) {
+    throw new InputError(
+      `--start ${req.startRays}: Sobol' sampling splits every run into ${REPLICA_GROUPS} independent replicas and takes the standard error from their spread; it needs at least ${REPLICA_GROUPS} rays per run`,
+      `e.g. --start ${16 * REPLICA_GROUPS}`,
+    );
+  }
+  const { sampling: _studySampling, ...rays } = study.rays;
   const reduced = withOverrides(loaded, {
     grid: { thetaDeg: [req.thetaDeg], phiDeg: [phiDeg ?? 0], phiMode: phiDeg === null ? "averaged" : "list", wavelengthNm: wavelengths },
+    rays: sampling === "sobol" ? { ...rays, sampling } : rays,
   });
   const subject: TraceSubject = { study: reduced, combo: combo.index };
   const options: ConvergenceOptions = {
@@ -77,6 +91,7 @@ function prepare(loaded: LoadedStudy, req: ConvergeRequest): Prepared {
       weights: null,
       options,
       tracerEstimator,
+      sampling,
       described: {
         mode: "point",
         quantity: req.channel,
@@ -98,6 +113,7 @@ function prepare(loaded: LoadedStudy, req: ConvergeRequest): Prepared {
     weights: photocurrentWeights(wavelengths, spectrum),
     options,
     tracerEstimator,
+    sampling,
     described: {
       mode: "spectral",
       quantity: "Jsc",
@@ -122,6 +138,7 @@ function report(loaded: LoadedStudy, p: Prepared, result: ConvergenceResult): Co
     combo: p.combo.label,
     seed: p.combo.study.seed,
     tracerEstimator: p.tracerEstimator,
+    launchSampling: p.sampling,
     ...p.described,
     ...result,
   };

@@ -33,6 +33,11 @@ export interface ConvergenceReport extends ConvergenceResult, ConvergenceSubject
   seed: number;
   /** Absorption sampling used by the tracer: "analog" or "expected" (expected-value weights). */
   tracerEstimator: string;
+  /**
+   * Launch sampling: "random" (per-ray standard errors) or "sobol" (randomized quasi-Monte Carlo;
+   * each run is 16 independently scrambled replicas and its standard error comes from their spread).
+   */
+  launchSampling: "random" | "sobol";
 }
 
 export const CONVERGENCE_CSV_COLUMNS = [
@@ -62,6 +67,9 @@ export function formatConvergenceTable(r: ConvergenceReport): string {
       : `${r.quantity} (${r.unit}) under ${r.spectrum}, ${r.wavelengthRangeNm?.[0]}–${r.wavelengthRangeNm?.[1]} nm, at θ=${r.thetaDeg}°, φ=${r.phiDeg ?? "averaged"}`;
   const lines: string[] = [];
   lines.push(`${r.studyName} (${r.combo}): convergence of ${where}, seed ${r.seed}, ${r.tracerEstimator} absorption sampling`);
+  if (r.launchSampling === "sobol") {
+    lines.push("launch sampling: scrambled Sobol' points (randomized quasi-Monte Carlo); each run is 16 independent replicas, stderr from their spread");
+  }
   lines.push(
     `reference: ${g(r.reference.value)} ± ${g(r.reference.stderr)}` +
       (r.reference.kind === "run" ? ` (independent run, ${r.reference.nRays} rays per ${r.raysPer})` : " (given)"),
@@ -78,7 +86,7 @@ export function formatConvergenceTable(r: ConvergenceReport): string {
   lines.push("");
   lines.push(
     `log-log slope vs rays: rms error ${r.slopes.rmsError.toFixed(3)} (± ${r.slopes.rmsErrorSd.toFixed(3)} expected scatter), ` +
-      `|deviation| ${r.slopes.deviation.toFixed(3)}, reported stderr ${r.slopes.stderr.toFixed(3)} (plain Monte Carlo: -0.5)`,
+      `|deviation| ${r.slopes.deviation.toFixed(3)}, reported stderr ${r.slopes.stderr.toFixed(3)} (plain Monte Carlo: -0.5${r.launchSampling === "sobol" ? "; steeper where quasi-Monte Carlo helps" : ""})`,
   );
   if (r.targetError !== null && r.predictedRays !== null) {
     lines.push(`rays per ${r.raysPer} predicted for stderr ${r.targetError}: ${r.predictedRays} (N·(stderr/target)² from the largest step)`);

@@ -1,6 +1,9 @@
 import { lightStreamKey, RandomStream } from "../random/stream.js";
 import type { LoadedStudy } from "../study/load.js";
-import { channelMean, channelStdErr, tallyLength, tallyProblem } from "../sweep/tally.js";
+import { channelMean, fillPairGroup, pointStdErr, tallyLength, tallyProblem } from "../sweep/tally.js";
+import { REPLICA_GROUPS } from "../random/replicaGroups.js";
+import { batchLaunchPoints } from "../trace/launchPoints.js";
+import type { RaysPlan } from "../study/studyTypes.js";
 import { channelNames, compileStack, traceBatch, type CompiledStack, type CompileOptions } from "../trace/index.js";
 import type { TracePool } from "../workers/pool.js";
 import type { TraceItem } from "../workers/traceTask.js";
@@ -12,7 +15,9 @@ import type { AsyncEstimator, Estimate, Estimator } from "./runConvergence.js";
  * A convergence subject traced on a one-direction study: `study` is the loaded study with its grid
  * reduced to θ = [thetaDeg], one azimuth, and the wavelengths of interest (see convergeStudy.ts).
  * Run (namespace) traces batch b of wavelength il on streamKey(replicaSeed(seed, namespace),
- * 0, 0, il, b), in this thread or on the pool alike, so both give the same numbers.
+ * 0, 0, il, b), in this thread or on the pool alike, so both give the same numbers. Under Sobol'
+ * launch sampling a run of N rays is REPLICA_GROUPS batches of ⌈N/16⌉ rays, each batch one
+ * independently scrambled replica, and its standard error comes from their spread.
  */
 export interface TraceSubject {
   study: LoadedStudy;
@@ -25,6 +30,11 @@ interface PointResult {
   stderr: Float64Array;
 }
 
+/** Rays per batch of a run of nRays: the study's batch, or one batch per replica group under Sobol' sampling. */
+function runBatch(rays: RaysPlan, nRays: number): number {
+  return rays.sampling === "sobol" ? Math.ceil(nRays / REPLICA_GROUPS) : rays.batch;
+}
+
 /** Traces wavelength index il of the subject in this thread (compiled stacks cached). */
 function inThreadTracer(subject: TraceSubject, options?: CompileOptions): { channels: string[]; run: (il: number, nRays: number, seed: number) => PointResult } {
   const combo = subject.study.combos[subject.combo];
@@ -34,20 +44,22 @@ function inThreadTracer(subject: TraceSubject, options?: CompileOptions): { chan
   const channels = channelNames(stacks[0]);
   const nCh = channels.length;
   const len = tallyLength(nCh);
-  const batch = study.rays.batch;
   const thetaDeg = g.thetaDeg[0];
   const phiDeg = g.phiMode === "averaged" ? null : g.phiDeg[0];
   const run = (il: number, nRays: number, seed: number): PointResult => {
     const acc = new Float64Array(len);
     const t = new Float64Array(len);
+    const batch = runBatch(study.rays, nRays);
     for (let b = 0, done = 0; done < nRays; b++) {
       const n = Math.min(batch, nRays - done);
       t.fill(0);
-      traceBatch(stacks[il], thetaDeg, phiDeg, n, new RandomStream(lightStreamKey(seed, study.lightFrom, 0, 0, il, b)), t, "unpolarized", study.lightFrom ?? "front");
+      const launch = batchLaunchPoints(study.rays.sampling, seed, study.lightFrom, 0, 0, il, b, batch);
+      traceBatch(stacks[il], thetaDeg, phiDeg, n, new RandomStream(lightStreamKey(seed, study.lightFrom, 0, 0, il, b)), t, "unpolarized", study.lightFrom ?? "front", launch);
       const problem = tallyProblem(t, nCh, n);
       if (problem !== undefined) {
         throw new Error(`convergence run failed at θ=${thetaDeg}°, φ=${phiDeg ?? "averaged"}, λ=${g.wavelengthNm[il]} nm, seed ${seed}, batch ${b}: ${problem}`);
       }
+      fillPairGroup(t, nCh, b);
       for (let i = 0; i < len; i++) acc[i] += t[i];
       done += n;
     }
@@ -55,7 +67,7 @@ function inThreadTracer(subject: TraceSubject, options?: CompileOptions): { chan
     const stderr = new Float64Array(nCh);
     for (let c = 0; c < nCh; c++) {
       mean[c] = channelMean(acc, nCh, c);
-      stderr[c] = channelStdErr(acc, nCh, c);
+      stderr[c] = pointStdErr(acc, nCh, c, study.rays.sampling);
     }
     return { mean, stderr };
   };
@@ -114,10 +126,10 @@ export function poolEstimator(subject: TraceSubject, channel: string, weights: A
   const c = channelOf(channels, channel);
   const nCh = channels.length;
   const len = tallyLength(nCh);
-  const batch = study.rays.batch;
   const phiDeg = g.phiMode === "averaged" ? null : g.phiDeg[0];
   return async (nRays, namespace) => {
     const seed = replicaSeed(study.seed, namespace);
+    const batch = runBatch(study.rays, nRays);
     const nBatches = Math.ceil(nRays / batch);
     const sizes = Array.from({ length: nBatches }, (_, j) => Math.min(batch, nRays - j * batch));
     // About four messages per worker per run in total, at least one batch each.
@@ -136,6 +148,7 @@ export function poolEstimator(subject: TraceSubject, channel: string, weights: A
           wavelengthNm: g.wavelengthNm[il],
           firstBatch: j0,
           batchRays: sizes.slice(j0, j0 + per),
+          batchSize: batch,
           seed,
         };
         mine.push(pool.run({ items: [item] }));
@@ -154,7 +167,7 @@ export function poolEstimator(subject: TraceSubject, channel: string, weights: A
       const stderr = new Float64Array(nCh);
       for (let ch = 0; ch < nCh; ch++) {
         mean[ch] = channelMean(acc, nCh, ch);
-        stderr[ch] = channelStdErr(acc, nCh, ch);
+        stderr[ch] = pointStdErr(acc, nCh, ch, study.rays.sampling);
       }
       results.push({ mean, stderr });
     }

@@ -1,6 +1,6 @@
 import type { ComboPlan, SweepPlan } from "../sweep/plan.js";
 import { pointsPerCombo } from "../sweep/plan.js";
-import { channelMean, channelStdErr, groupOffset, PAIR_GROUPS, tallyLength } from "../sweep/tally.js";
+import { channelMean, groupOffset, PAIR_GROUPS, pointStdErr, tallyLength } from "../sweep/tally.js";
 import { RESPONSE_FORMAT, RESPONSE_FORMAT_VERSION, type ResponseMatrix, type TrappingArrays } from "./responseMatrix.js";
 import { ESCAPE_ANGLE_BINS, ESCAPE_ANGLE_BIN_DEG, MAX_PASSES } from "../trace/tallyLayout.js";
 import { summarizeTrapping, type TrappingSummary } from "../trace/trappingSummary.js";
@@ -28,7 +28,9 @@ function fillTrapping(a: TrappingArrays, q: number, s: TrappingSummary): void {
 
 /**
  * The response matrix of one combination from its merged point tallies (global point order, see
- * sweep/plan.ts). A missing point (partial result) has nRays 0 and zeros elsewhere.
+ * sweep/plan.ts). A missing point (partial result) has nRays 0 and zeros elsewhere. Under Sobol'
+ * launch sampling the standard errors come from the spread of the pairing groups (independent
+ * replicas); NaN for a point of a partial result with fewer than MIN_REPLICAS groups traced.
  */
 export function matrixFromTallies(
   plan: SweepPlan,
@@ -60,7 +62,7 @@ export function matrixFromTallies(
     }
     for (let c = 0; c < nCh; c++) {
       mean[q * nCh + c] = channelMean(t, nCh, c);
-      stderr[q * nCh + c] = channelStdErr(t, nCh, c);
+      stderr[q * nCh + c] = pointStdErr(t, nCh, c, plan.rays.sampling);
     }
     const n = t[2 * nCh];
     nRays[q] = n;

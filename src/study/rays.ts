@@ -1,18 +1,36 @@
 import { InputError } from "../util/errors.js";
+import { MIN_REPLICAS, REPLICA_GROUPS } from "../random/replicaGroups.js";
+import type { LaunchSampling } from "../random/sobol.js";
 import type { RaysPlan } from "./studyTypes.js";
 
 /** The "rays" section as the schema admits it (one of its two forms). */
 export type RawRays =
-  | { perPoint: number; batch: number }
-  | { targetStdErr: number; channels: string[]; maxPerPoint: number; minPerPoint?: number; batch: number };
+  | { perPoint: number; batch: number; sampling?: LaunchSampling }
+  | { targetStdErr: number; channels: string[]; maxPerPoint: number; minPerPoint?: number; batch: number; sampling?: LaunchSampling };
 
-/** Resolves the "rays" section: {perPoint, batch} or {targetStdErr, channels, maxPerPoint, batch}. */
+/**
+ * Resolves the "rays" section: {perPoint, batch} or {targetStdErr, channels, maxPerPoint, batch},
+ * with an optional launch sampling. Sobol' sampling takes its standard errors from the replica
+ * groups, so a point needs at least MIN_REPLICAS batches (by default a target-error run starts with
+ * one batch per group).
+ */
 export function parseRays(o: RawRays, path: string): RaysPlan {
-  if (!("targetStdErr" in o)) return { mode: "fixed", perPoint: o.perPoint, batch: o.batch };
+  const sobol = o.sampling === "sobol";
+  const sampling = sobol ? { sampling: "sobol" as const } : {};
+  const tooFew = (field: string, rays: number, batch: number): InputError =>
+    new InputError(
+      `${path}.${field}: Sobol' sampling takes its standard errors from independent replicas and needs at least ${MIN_REPLICAS} batches per point, got ${rays} rays in batches of ${batch} (${Math.ceil(rays / batch)} batch(es))`,
+      `raise ${path}.${field} to at least ${MIN_REPLICAS * batch} (${REPLICA_GROUPS} batches, one per replica group, is best), lower ${path}.batch, or use "sampling": "random"`,
+    );
+  if (!("targetStdErr" in o)) {
+    if (sobol && Math.ceil(o.perPoint / o.batch) < MIN_REPLICAS) throw tooFew("perPoint", o.perPoint, o.batch);
+    return { mode: "fixed", perPoint: o.perPoint, batch: o.batch, ...sampling };
+  }
   const { targetStdErr, channels, maxPerPoint, batch } = o;
-  const minPerPoint = o.minPerPoint ?? Math.min(2 * batch, maxPerPoint);
+  const minPerPoint = o.minPerPoint ?? Math.min((sobol ? REPLICA_GROUPS : 2) * batch, maxPerPoint);
   if (minPerPoint > maxPerPoint) {
     throw new InputError(`${path}.minPerPoint: expected at most maxPerPoint (${maxPerPoint}), got ${minPerPoint}`);
   }
-  return { mode: "target", targetStdErr, channels: [...channels], maxPerPoint, minPerPoint, batch };
+  if (sobol && Math.ceil(minPerPoint / batch) < MIN_REPLICAS) throw tooFew(o.minPerPoint === undefined ? "maxPerPoint" : "minPerPoint", minPerPoint, batch);
+  return { mode: "target", targetStdErr, channels: [...channels], maxPerPoint, minPerPoint, batch, ...sampling };
 }

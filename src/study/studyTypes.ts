@@ -1,5 +1,6 @@
 import type { PhiMode } from "../response/responseMatrix.js";
 import type { StackSpec } from "./stackTypes.js";
+import type { LaunchSampling } from "../random/sobol.js";
 
 /** Resolved incidence/wavelength grid of a study (ranges expanded, azimuths folded). */
 export interface StudyGrid {
@@ -15,6 +16,8 @@ export interface FixedRays {
   mode: "fixed";
   perPoint: number;
   batch: number;
+  /** Launch sampling; unset = "random" (src/trace/launchPoints.ts). */
+  sampling?: LaunchSampling;
 }
 
 /**
@@ -29,6 +32,8 @@ export interface TargetRays {
   batch: number;
   /** Rays before the first decision (at least two batches, so a standard error exists). */
   minPerPoint: number;
+  /** Launch sampling; unset = "random" (src/trace/launchPoints.ts). */
+  sampling?: LaunchSampling;
 }
 
 export type RaysPlan = FixedRays | TargetRays;

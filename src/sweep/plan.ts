@@ -1,5 +1,5 @@
 import type { StudyGrid, RaysPlan, SpectrumChoice } from "../study/studyTypes.js";
-import { channelStdErr } from "./tally.js";
+import { pointStdErr } from "./tally.js";
 
 /** A deterministic subset of the points: shard `index` (1-based) of `count`. */
 export interface ShardSpec {
@@ -103,7 +103,8 @@ export function initialBatches(rays: RaysPlan): number {
  * Target-error mode: given the merged tally of the first `planned` batches of a point, the number of
  * batches it should have in total (== planned: the point is done). Depends only on that tally, so
  * the sequence of batches of a point is the same for any worker count, order or resume. The next
- * checkpoint is the predicted need, SE ∝ 1/√N, with 10% margin, at least one more batch and at most
+ * checkpoint is the predicted need, SE ∝ 1/√N (under Sobol' sampling the error falls faster, so
+ * this overshoots a little), with 10% margin, at least one more batch and at most
  * four times the current count (an early, noisy estimate must not overshoot by much).
  * Stopping on the estimated standard error is a sequential rule, so the final mean is not exactly
  * unbiased (the decision depends on the same batches); the bias is of second order in the per-point
@@ -114,7 +115,11 @@ export function plannedBatches(rays: RaysPlan, merged: Float64Array, nChannels: 
   const cap = maxBatches(rays);
   if (planned >= cap) return planned;
   let worst = 0;
-  for (const c of channelIdx) worst = Math.max(worst, channelStdErr(merged, nChannels, c) / rays.targetStdErr);
+  // Sobol' sampling: the error of the replica groups (a group without rays yet counts as unknown).
+  for (const c of channelIdx) {
+    const se = pointStdErr(merged, nChannels, c, rays.sampling);
+    worst = Math.max(worst, Number.isFinite(se) ? se / rays.targetStdErr : Infinity);
+  }
   if (worst < 1) return planned;
   const nRays = merged[2 * nChannels];
   const needRays = nRays * worst * worst * 1.1;

@@ -8,9 +8,11 @@
  * differences gives the standard error of a difference with its correlation (src/sweep/pairing.ts).
  */
 import { baseTallyLength } from "../trace/tallyLayout.js";
+import { groupStdErr, MIN_REPLICAS, REPLICA_GROUPS } from "../random/replicaGroups.js";
+import type { LaunchSampling } from "../random/sobol.js";
 
 export const TALLY_EXTRA = 4;
-export const PAIR_GROUPS = 16;
+export const PAIR_GROUPS = REPLICA_GROUPS;
 
 /** Length of the tracer's part of a tally. */
 export function traceTallyLength(nChannels: number): number {
@@ -64,6 +66,32 @@ export function channelStdErr(t: Float64Array, nChannels: number, c: number): nu
   const mean = t[2 * c] / n;
   const variance = Math.max(0, (t[2 * c + 1] - n * mean * mean) / (n - 1));
   return Math.sqrt(variance / n);
+}
+
+/**
+ * Standard error of the mean of channel c from the spread of the pairing groups (independent
+ * replicas; random/replicaGroups.ts). NaN when fewer than MIN_REPLICAS groups have rays.
+ */
+export function replicaStdErr(t: Float64Array, nChannels: number, c: number): number {
+  const sums = new Float64Array(PAIR_GROUPS);
+  const counts = new Float64Array(PAIR_GROUPS);
+  let k = 0;
+  for (let g = 0; g < PAIR_GROUPS; g++) {
+    const o = groupOffset(nChannels, g);
+    sums[g] = t[o + c];
+    counts[g] = t[o + nChannels];
+    if (counts[g] > 0) k++;
+  }
+  return k < MIN_REPLICAS ? NaN : groupStdErr(sums, counts);
+}
+
+/**
+ * The standard error of channel c a point reports: from per-ray contributions under random launch
+ * sampling (rays independent), from the spread of the replica groups under Sobol' sampling (rays
+ * of a group are not independent, and the per-ray variance would overstate the error).
+ */
+export function pointStdErr(t: Float64Array, nChannels: number, c: number, sampling: LaunchSampling | undefined): number {
+  return sampling === "sobol" ? replicaStdErr(t, nChannels, c) : channelStdErr(t, nChannels, c);
 }
 
 /**

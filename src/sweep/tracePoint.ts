@@ -4,7 +4,7 @@ import { defaultWorkerCount, TracePool } from "../workers/pool.js";
 import type { TraceItem } from "../workers/traceTask.js";
 import { loadTracer } from "../workers/tracerModule.js";
 import { comboChannels } from "./channels.js";
-import { channelMean, channelStdErr, sumTallies, tallyLength } from "./tally.js";
+import { channelMean, pointStdErr, sumTallies, tallyLength } from "./tally.js";
 import { workerSetupOf } from "./runSweep.js";
 
 export interface TracePointOptions {
@@ -72,6 +72,7 @@ export async function tracePoint(o: TracePointOptions): Promise<TracePointResult
         wavelengthNm: g.wavelengthNm[o.il],
         firstBatch: firstBatch + j0,
         batchRays: sizes.slice(j0, j0 + per),
+        batchSize: batch,
         ...(o.seed !== undefined ? { seed: o.seed } : {}),
       };
       jobs.push(pool.run({ items: [item] }));
@@ -85,7 +86,7 @@ export async function tracePoint(o: TracePointOptions): Promise<TracePointResult
     const stderr = new Float64Array(nCh);
     for (let i = 0; i < nCh; i++) {
       mean[i] = channelMean(tally, nCh, i);
-      stderr[i] = channelStdErr(tally, nCh, i);
+      stderr[i] = pointStdErr(tally, nCh, i, c.study.rays.sampling);
     }
     return { channels, tally, nRays: tally[2 * nCh], mean, stderr, nBatches };
   } finally {

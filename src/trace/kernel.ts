@@ -6,6 +6,7 @@ import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type 
 import { BRANCH_SERIAL, BRANCHES, DIED, DZ, ENTERED, EVENTS, FACE, HIT, PATH, RAY_INDEX, REFLECT, SPLIT, T, TRANSMIT, TWO_PI, W, Z, advance, setNormal } from "./rayState.js";
 import { popBranch, setBranchMedium } from "./branches.js";
 import { launchRay, polarizationMode, setLaunchAngles, setLaunchAzimuth, type Polarization } from "./launch.js";
+import type { LaunchPoints } from "./launchPoints.js";
 import { frontSearch, outerSearch, rearSearch, rearSearchFromBehind } from "./surfaceSearch.js";
 import { absorbAlong } from "./bulkTransport.js";
 import { interfaceEvent } from "./interfaceEvent.js";
@@ -46,7 +47,8 @@ const NOT_AT_TEXTURE = -3;
  * random azimuth per ray) and adds them to the tally (docs/contracts.md, Tracer): per channel
  * [Σc, Σc²] of each ray's contribution c, then [nRays, Σp, Σp², events] with p the ray's optical
  * path in the absorber divided by its thickness. Each ray's contributions sum to 1. Ray r draws
- * from substream r of rng (RandomStream.startSubstream).
+ * from substream r of rng (RandomStream.startSubstream); with launch points (randomized
+ * quasi-Monte Carlo, launchPoints.ts) its launch x, y, ψ and φ are point r of the batch instead.
  */
 export function traceBatch(
   cs: CompiledStack,
@@ -57,6 +59,7 @@ export function traceBatch(
   tally: Float64Array,
   polarization: Polarization = "unpolarized",
   side: LightSide = "front",
+  launch: LaunchPoints | null = null,
 ): void {
   if (!Number.isInteger(nRays) || nRays < 1) throw new InputError(`rays: expected a positive whole number of rays, got ${nRays}`);
   if (!(thetaDeg >= 0 && thetaDeg < 90)) throw new InputError(`angle: expected a polar angle in [0, 90) degrees, got ${thetaDeg}`);
@@ -81,12 +84,14 @@ export function traceBatch(
   const sums = new Float64Array(3);
   setLaunchAngles(st, Math.sin(thetaDeg * DEG), Math.cos(thetaDeg * DEG));
   if (phiDeg !== null) setLaunchAzimuth(st, phiDeg * DEG);
+  const u = launch === null ? null : launch.u;
   for (let r = 0; r < nRays; r++) {
     // One substream per ray: rays stay paired across stacks traced with the same stream (CRN).
     rng.startSubstream(r);
     st[RAY_INDEX] = r;
-    if (phiDeg === null) setLaunchAzimuth(st, TWO_PI * rng.next());
-    launchRay(cs, polMode, rng, fromRear);
+    if (launch !== null) launch.load(r);
+    if (phiDeg === null) setLaunchAzimuth(st, TWO_PI * (u === null ? rng.next() : u[3]));
+    launchRay(cs, polMode, rng, fromRear, u);
     resetHistory(st, fromRear ? FACE_REAR : FACE_FRONT);
     traceRay(cs, rng, startMedium);
     sums[0] += st[EVENTS];

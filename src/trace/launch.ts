@@ -26,9 +26,10 @@ export function setLaunchAzimuth(st: Float64Array, phiRad: number): void {
  * Launches one ray: uniform over the front unit cell, above everything, travelling down along the
  * batch direction (sinθ cosφ, sinθ sinφ, −cosθ) — or, from the rear, below everything travelling up
  * along (sinθ cosφ, sinθ sinφ, +cosθ) — with its line of polarisation (s, p or a uniformly
- * random line), weight 1 and, for the analog estimator, its optical-depth budget.
+ * random line), weight 1 and, for the analog estimator, its optical-depth budget. With launch
+ * coordinates u = [x, y, ψ, φ] in [0, 1) (launchPoints.ts) x, y and ψ come from u, not from rng.
  */
-export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream, fromRear: boolean): void {
+export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream, fromRear: boolean, u: Float64Array | null = null): void {
   const st = cs.state;
   const sinT = st[L_SIN_T], cosT = st[L_COS_T];
   const cp = st[L_COS_P];
@@ -40,7 +41,7 @@ export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream,
   // s = (sinφ, −cosφ, 0) ⊥ plane of incidence; p = s × d.
   const sx = sp, sy = -cp;
   const px = sy * dz, py = -sx * dz, pz = sx * dy - sy * dx;
-  const psi = TWO_PI * rng.next();
+  const psi = TWO_PI * (u === null ? rng.next() : u[2]);
   const a = polMode === 1 ? 1 : polMode === 2 ? 0 : Math.cos(psi);
   const b = polMode === 1 ? 0 : polMode === 2 ? 1 : Math.sin(psi);
   st[EX] = a * sx + b * px;
@@ -48,8 +49,8 @@ export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream,
   st[EZ] = b * pz;
   // Uniform over the launch window (compile: the one textured tile's cell, or a large multiple of
   // the largest cell when several textures with their own periods are met).
-  st[X] = rng.next() * cs.launchLxUm;
-  st[Y] = rng.next() * cs.launchLyUm;
+  st[X] = (u === null ? rng.next() : u[0]) * cs.launchLxUm;
+  st[Y] = (u === null ? rng.next() : u[1]) * cs.launchLyUm;
   // Without layers: start 1 µm above the texture (the incidence medium does not absorb); from the
   // rear: on the last rear layer's outer plane, or 1 µm below the rear texture.
   st[Z] = fromRear ? cs.rearLaunchZUm

@@ -1,5 +1,6 @@
 import { lightStreamKey, RandomStream } from "../random/stream.js";
 import { buildMaterialRegistry } from "../study/userMaterials.js";
+import { batchLaunchPoints } from "../trace/launchPoints.js";
 import { fillPairGroup, tallyLength, tallyProblem } from "../sweep/tally.js";
 import { isIdealRear, type StackSpec, type TextureSpec } from "../study/stackTypes.js";
 import type { Study } from "../study/studyTypes.js";
@@ -69,9 +70,11 @@ export function createMessageRunner(setup: WorkerSetup, tracer: TracerModule): (
         withCoordinates(item, batch, () => {
           // Common random numbers: every combination traces batch b of (θ, φ, λ) with the same stream
           // (a rear-lit twin with its own: lightStreamKey).
-          const lightFrom = studies[item.combo].lightFrom;
+          const study = studies[item.combo];
+          const lightFrom = study.lightFrom;
           const rng = new RandomStream(lightStreamKey(seed, lightFrom, item.it, item.ip, item.il, batch));
-          traceBatch(cs, item.thetaDeg, item.phiDeg, nRays, rng, tally, "unpolarized", lightFrom ?? "front");
+          const launch = batchLaunchPoints(study.rays.sampling, seed, lightFrom, item.it, item.ip, item.il, batch, item.batchSize ?? study.rays.batch);
+          traceBatch(cs, item.thetaDeg, item.phiDeg, nRays, rng, tally, "unpolarized", lightFrom ?? "front", launch);
           const problem = tallyProblem(tally, nChannels, nRays);
           if (problem !== undefined) throw new Error(problem);
           fillPairGroup(tally, nChannels, batch);

@@ -20,6 +20,11 @@ export interface TraceItem {
   batchRays: number[];
   /** Seed instead of the combination's study seed (independent replicas, reference runs). */
   seed?: number;
+  /**
+   * Rays of a full batch of this point (default: the study's rays.batch): under Sobol' sampling
+   * batch b starts at point ⌊b/16⌋·batchSize of its replica group's sequence (launchPoints.ts).
+   */
+  batchSize?: number;
 }
 
 /** A task message: several items, traced in order. */

@@ -2,13 +2,14 @@ import { pathToFileURL } from "node:url";
 import type { MaterialRegistry } from "../materials/registry.js";
 import type { RandomStream } from "../random/stream.js";
 import type { Study } from "../study/studyTypes.js";
+import type { LaunchPoints } from "../trace/launchPoints.js";
 import * as ownTracer from "../trace/index.js";
 
 /** The tracer functions the runner uses (docs/contracts.md, Tracer). */
 export interface TracerModule {
   compileStack(study: Study, registry: MaterialRegistry, wavelengthNm: number): unknown;
   channelNames(compiled: never): string[];
-  traceBatch(cs: never, thetaDeg: number, phiDeg: number | null, nRays: number, rng: RandomStream, tally: Float64Array, polarization?: "unpolarized", side?: "front" | "rear"): void;
+  traceBatch(cs: never, thetaDeg: number, phiDeg: number | null, nRays: number, rng: RandomStream, tally: Float64Array, polarization?: "unpolarized", side?: "front" | "rear", launch?: LaunchPoints | null): void;
 }
 
 /**

@@ -14,7 +14,8 @@ describe("schema/study.schema.json", () => {
 
   it("documents the same grid, rays and stack fields the loader accepts", () => {
     expect(Object.keys(schema.$defs.grid.properties).sort()).toEqual(["phiDeg", "phiSymmetry", "thetaDeg", "wavelengthNm"]);
-    expect(Object.keys(schema.properties.rays.then.properties).sort()).toEqual(["batch", "channels", "maxPerPoint", "minPerPoint", "targetStdErr"]);
+    expect(Object.keys(schema.properties.rays.then.properties).sort()).toEqual(["batch", "channels", "maxPerPoint", "minPerPoint", "sampling", "targetStdErr"]);
+    expect(Object.keys(schema.properties.rays.else.properties).sort()).toEqual(["batch", "perPoint", "sampling"]);
     expect(Object.keys(schema.$defs.stack.properties).sort()).toEqual(["absorber", "boundary", "front", "incidence", "layers", "rear", "rearLayers", "rearOuter"]);
   });
 });

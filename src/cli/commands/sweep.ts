@@ -2,6 +2,7 @@ import { makeReport } from "../../report/makeReport.js";
 import { basename, join } from "node:path";
 import type { Command } from "commander";
 import { loadStudy, withOverrides } from "../../study/load.js";
+import { parseRays } from "../../study/rays.js";
 import { InputError } from "../../util/errors.js";
 import { createProgressReporter } from "../../sweep/progressReporter.js";
 import { runSweep } from "../../sweep/runSweep.js";
@@ -75,9 +76,9 @@ with the same study; a changed study sets the old journal aside and starts afres
         const base = study.combos[0].study.rays;
         const maxPerPoint = flags.maxRays === undefined ? 200_000 : positiveInt(flags.maxRays, "--max-rays", 1e9);
         const channels = (flags.channels ?? (base.mode === "target" ? base.channels.join(",") : "A_absorber")).split(",").map((c) => c.trim()).filter((c) => c !== "");
-        study = withOverrides(study, {
-          rays: { mode: "target", targetStdErr: se, channels, maxPerPoint, minPerPoint: Math.min(2 * base.batch, maxPerPoint), batch: base.batch },
-        });
+        // The study's launch sampling is kept; Sobol' sampling starts with one batch per replica group.
+        const rays = parseRays({ targetStdErr: se, channels, maxPerPoint, batch: base.batch, ...(base.sampling !== undefined ? { sampling: base.sampling } : {}) }, "rays");
+        study = withOverrides(study, { rays });
       } else if (flags.channels !== undefined || flags.maxRays !== undefined) {
         throw new InputError("--channels and --max-rays go with --target-error", "e.g. --target-error 0.002 --channels A_absorber,R --max-rays 200000");
       }

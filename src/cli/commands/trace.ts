@@ -5,8 +5,14 @@ import { InputError } from "../../util/errors.js";
 import { compileStack } from "../../trace/compile.js";
 import type { Estimator } from "../../trace/compiledStack.js";
 import { traceBatch, type Polarization } from "../../trace/kernel.js";
-import { createTally, summarizeTally } from "../../trace/tally.js";
-import { lambertianLimit, summarizeTrapping } from "../../trace/trappingSummary.js";
+import { createTally, summarizeTally, type TallySummary } from "../../trace/tally.js";
+import { lambertianLimit, summarizeTrapping, type TrappingSummary } from "../../trace/trappingSummary.js";
+import type { CompiledStack } from "../../trace/compiledStack.js";
+import { LaunchPoints } from "../../trace/launchPoints.js";
+import { trappingWithReplicaErrors, withReplicaErrors } from "../../trace/replicaSummary.js";
+import { ScrambledSobol } from "../../random/sobol.js";
+import { REPLICA_GROUPS } from "../../random/replicaGroups.js";
+import { samplingFlag } from "../samplingFlag.js";
 
 interface TraceOptions {
   angle: string;
@@ -16,6 +22,7 @@ interface TraceOptions {
   seed?: string;
   polarization: string;
   estimator: string;
+  sampling?: string;
   combo: string;
   json?: boolean;
 }
@@ -38,6 +45,7 @@ export function register(program: Command): void {
     .option("--seed <n>", "seed of the random stream (default: the study's seed)")
     .option("--polarization <kind>", "unpolarized, s or p (relative to the plane of incidence)", "unpolarized")
     .option("--estimator <kind>", "expected (expected-value weights) or analog", "expected")
+    .option("--sampling <kind>", "launch sampling: random or sobol (16 scrambled Sobol' replicas; default: the study's rays.sampling)")
     .option("--combo <i>", "sweep combination index (0 = first)", "0")
     .option("--json", "print the result as JSON")
     .addHelpText(
@@ -51,7 +59,8 @@ Channels: R_first (reflected before ever entering the absorber: cover layers, fi
 interface), R_escape (entered the absorber, later left through the front), T_first / T_escape
 (left through a transparent rear on the first pass / after being turned back), A_absorber,
 A_layer:<name>, A_film:<where>:<i>:<material>, A_rear (rear metal or ideal reflector),
-unresolved (bounce limit). Each mean comes with its standard error from per-ray contributions.
+unresolved (bounce limit). Each mean comes with its standard error from per-ray contributions, or
+with --sampling sobol from the spread of 16 independently scrambled replicas (at least 16 rays).
 Below the channels: the power that entered the absorber, the fraction of it still inside after
 1, 2, 3 … passes, the path enhancement with the absorber's absorption removed (α → 0) against
 4n² (Yablonovitch 1982), and the photon path per incident photon (shortened by absorption).`,
@@ -82,13 +91,16 @@ Below the channels: the power that entered the absorber, the fraction of it stil
         if (err instanceof InputError) throw new InputError(`${studyPath}: at ${wavelengthNm} nm: ${err.message}`, err.hint);
         throw err;
       }
-      const tally = createTally(cs);
-      const rng = new RandomStream(streamKey(seed, "trace", thetaDeg, phiDeg ?? "averaged", wavelengthNm));
+      const sampling = samplingFlag(opts.sampling) ?? combo.study.rays.sampling ?? "random";
+      if (sampling === "sobol" && nRays < REPLICA_GROUPS) {
+        throw new InputError(`--rays ${nRays}: Sobol' sampling traces ${REPLICA_GROUPS} independent replicas and needs at least ${REPLICA_GROUPS} rays`, "e.g. --rays 16384");
+      }
+      const key = streamKey(seed, "trace", thetaDeg, phiDeg ?? "averaged", wavelengthNm);
       const t0 = process.hrtime.bigint();
-      traceBatch(cs, thetaDeg, phiDeg, nRays, rng, tally, opts.polarization as Polarization);
+      const { s, trap } = sampling === "sobol"
+        ? traceReplicas(cs, thetaDeg, phiDeg, nRays, key, opts.polarization as Polarization)
+        : traceOnce(cs, thetaDeg, phiDeg, nRays, key, opts.polarization as Polarization);
       const seconds = Number(process.hrtime.bigint() - t0) * 1e-9;
-      const s = summarizeTally(cs.channels, tally);
-      const trap = summarizeTrapping(tally, cs.channels.length);
       const nAbs = cs.mediumN[cs.nLayers + 1];
       // The α → 0 tally divides by bulk survival; it is well behaved while 4n²αW stays small.
       const alphaW = cs.mediumAlphaPerUm[cs.nLayers + 1] * cs.thicknessUm;
@@ -109,6 +121,7 @@ Below the channels: the power that entered the absorber, the fraction of it stil
           seed,
           polarization: opts.polarization,
           estimator: cs.estimator,
+          sampling,
           channels,
           channelSum: sum,
           photonPathRatio: { mean: s.pathRatio, stderr: s.pathRatioStderr },
@@ -133,7 +146,7 @@ Below the channels: the power that entered the absorber, the fraction of it stil
       const lines = [
         `${loaded.name}${combo.label === "base" ? "" : ` (combination ${combo.label})`}`,
         `  front: ${cs.frontTile.label}; absorber ${cs.stack.absorber.material} ${cs.thicknessUm} µm; boundary ${cs.stack.boundary}`,
-        `  θ = ${thetaDeg}°, φ = ${phiDeg === null ? "averaged" : `${phiDeg}°`}, λ = ${wavelengthNm} nm, ${nRays} rays, seed ${seed}, ${opts.polarization}, ${cs.estimator === "expected" ? "expected-value" : "analog"} estimator`,
+        `  θ = ${thetaDeg}°, φ = ${phiDeg === null ? "averaged" : `${phiDeg}°`}, λ = ${wavelengthNm} nm, ${nRays} rays, seed ${seed}, ${opts.polarization}, ${cs.estimator === "expected" ? "expected-value" : "analog"} estimator${sampling === "sobol" ? `, Sobol' launch points (errors from ${REPLICA_GROUPS} replicas)` : ""}`,
         "",
         `  ${"channel".padEnd(w)}  ${"mean".padStart(9)}  ${"std.err".padStart(9)}`,
         ...cs.channels.map((name, c) => `  ${name.padEnd(w)}  ${s.mean[c].toFixed(6).padStart(9)}  ${s.stderr[c].toFixed(6).padStart(9)}`),
@@ -147,4 +160,43 @@ Below the channels: the power that entered the absorber, the fraction of it stil
       ];
       process.stdout.write(lines.join("\n") + "\n");
     });
+}
+
+interface Traced {
+  s: TallySummary;
+  trap: TrappingSummary;
+}
+
+/** All rays on one stream (ray r on substream r); errors from per-ray contributions. */
+function traceOnce(cs: CompiledStack, thetaDeg: number, phiDeg: number | null, nRays: number, key: string, polarization: Polarization): Traced {
+  const tally = createTally(cs);
+  traceBatch(cs, thetaDeg, phiDeg, nRays, new RandomStream(key), tally, polarization);
+  return { s: summarizeTally(cs.channels, tally), trap: summarizeTrapping(tally, cs.channels.length) };
+}
+
+/**
+ * Sobol' launch points: REPLICA_GROUPS replicas of about nRays/16 rays, each with its own stream and
+ * its own scramble; means from the pooled tally, standard errors from the spread of the replicas.
+ */
+function traceReplicas(cs: CompiledStack, thetaDeg: number, phiDeg: number | null, nRays: number, key: string, polarization: Polarization): Traced {
+  const pooled = createTally(cs);
+  const perReplica = Math.ceil(nRays / REPLICA_GROUPS);
+  const sums: TallySummary[] = [];
+  const traps: TrappingSummary[] = [];
+  const counts: number[] = [];
+  for (let g = 0, done = 0; done < nRays; g++) {
+    const n = Math.min(perReplica, nRays - done);
+    const tally = createTally(cs);
+    const launch = new LaunchPoints(new ScrambledSobol(`${key}/sobol/${g}`), 0);
+    traceBatch(cs, thetaDeg, phiDeg, n, new RandomStream(`${key}/replica/${g}`), tally, polarization, "front", launch);
+    for (let i = 0; i < tally.length; i++) pooled[i] += tally[i];
+    sums.push(summarizeTally(cs.channels, tally));
+    traps.push(summarizeTrapping(tally, cs.channels.length));
+    counts.push(n);
+    done += n;
+  }
+  return {
+    s: withReplicaErrors(summarizeTally(cs.channels, pooled), sums, counts),
+    trap: trappingWithReplicaErrors(summarizeTrapping(pooled, cs.channels.length), traps, counts),
+  };
 }

@@ -1,0 +1,38 @@
+import { describe, expect, it } from "vitest";
+import { loadStudyFromDocument } from "../../src/study/load.js";
+import { InputError } from "../../src/util/errors.js";
+import { baseDoc } from "./baseDoc.js";
+
+const load = (rays: Record<string, unknown>) => {
+  const doc = baseDoc();
+  doc.rays = rays;
+  return loadStudyFromDocument(doc, { baseDir: "." });
+};
+
+describe('rays.sampling ("random" | "sobol")', () => {
+  it("is unset by default and for random, so the study hash of a random-sampling study is unchanged", () => {
+    const plain = load({ perPoint: 1000, batch: 100 });
+    const random = load({ perPoint: 1000, batch: 100, sampling: "random" });
+    expect(plain.combos[0].study.rays.sampling).toBeUndefined();
+    expect(random.combos[0].study.rays.sampling).toBeUndefined();
+    expect(random.hash).toBe(plain.hash);
+    const sobol = load({ perPoint: 1000, batch: 100, sampling: "sobol" });
+    expect(sobol.combos[0].study.rays.sampling).toBe("sobol");
+    expect(sobol.hash).not.toBe(plain.hash);
+  });
+
+  it("refuses Sobol' sampling with fewer than 8 batches per point (too few replicas for an error)", () => {
+    expect(() => load({ perPoint: 700, batch: 100, sampling: "sobol" })).toThrow(InputError);
+    expect(() => load({ perPoint: 700, batch: 100, sampling: "sobol" })).toThrow(/rays\.perPoint: Sobol' sampling .* at least 8 batches per point, got 700 rays in batches of 100 \(7 batch\(es\)\)/);
+    expect(() => load({ targetStdErr: 0.01, channels: ["A_absorber"], maxPerPoint: 500, batch: 100, sampling: "sobol" })).toThrow(/rays\.maxPerPoint: Sobol' sampling/);
+    expect(() => load({ targetStdErr: 0.01, channels: ["A_absorber"], maxPerPoint: 5000, minPerPoint: 400, batch: 100, sampling: "sobol" })).toThrow(/rays\.minPerPoint: Sobol' sampling/);
+    expect(() => load({ perPoint: 700, batch: 100, sampling: "quasi" })).toThrow(/sampling/);
+  });
+
+  it("starts a target-error point with one batch per replica group (16) under Sobol' sampling", () => {
+    const rays = load({ targetStdErr: 0.01, channels: ["A_absorber"], maxPerPoint: 5000, batch: 100, sampling: "sobol" }).combos[0].study.rays;
+    expect(rays.mode === "target" && rays.minPerPoint).toBe(1600);
+    const plain = load({ targetStdErr: 0.01, channels: ["A_absorber"], maxPerPoint: 5000, batch: 100 }).combos[0].study.rays;
+    expect(plain.mode === "target" && plain.minPerPoint).toBe(200);
+  });
+});
