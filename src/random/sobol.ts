@@ -97,8 +97,20 @@ export class ScrambledSobol {
 
   /** Writes point `index` (< 2^32) into out[0…3], each coordinate in the open interval (0, 1). */
   point(index: number, out: Float64Array): void {
-    for (let d = 0; d < SOBOL_DIMENSIONS; d++) {
-      out[d] = ((owenScramble(sobolBits(index, d), this.seeds[d]) >>> 0) + 0.5) * 2.3283064365386963e-10;
+    // The four dimensions in one pass over the bits of the index (sobolBits, unrolled).
+    let x0 = 0, x1 = 0, x2 = 0, x3 = 0;
+    for (let j = 0, i = index >>> 0; i !== 0; j++, i >>>= 1) {
+      if (i & 1) {
+        x0 ^= V[j];
+        x1 ^= V[BITS + j];
+        x2 ^= V[2 * BITS + j];
+        x3 ^= V[3 * BITS + j];
+      }
     }
+    const sd = this.seeds;
+    out[0] = ((owenScramble(x0, sd[0]) >>> 0) + 0.5) * 2.3283064365386963e-10;
+    out[1] = ((owenScramble(x1, sd[1]) >>> 0) + 0.5) * 2.3283064365386963e-10;
+    out[2] = ((owenScramble(x2, sd[2]) >>> 0) + 0.5) * 2.3283064365386963e-10;
+    out[3] = ((owenScramble(x3, sd[3]) >>> 0) + 0.5) * 2.3283064365386963e-10;
   }
 }
