@@ -86,7 +86,7 @@ export function formatConvergenceTable(r: ConvergenceReport): string {
   lines.push("");
   lines.push(
     `log-log slope vs rays: rms error ${r.slopes.rmsError.toFixed(3)} (± ${r.slopes.rmsErrorSd.toFixed(3)} expected scatter), ` +
-      `|deviation| ${r.slopes.deviation.toFixed(3)}, reported stderr ${r.slopes.stderr.toFixed(3)} (plain Monte Carlo: -0.5${r.launchSampling === "sobol" ? "; steeper where quasi-Monte Carlo helps" : ""})`,
+      `|deviation| ${r.slopes.deviation.toFixed(3)}, reported stderr ${r.slopes.stderr.toFixed(3)}, mean stderr ${r.slopes.meanStderr.toFixed(3)} (plain Monte Carlo: -0.5${r.launchSampling === "sobol" ? "; steeper where quasi-Monte Carlo helps" : ""})`,
   );
   if (r.targetError !== null && r.predictedRays !== null) {
     lines.push(`rays per ${r.raysPer} predicted for stderr ${r.targetError}: ${r.predictedRays} (N·(stderr/target)² from the largest step)`);

@@ -55,6 +55,8 @@ export interface ConvergenceResult {
     rmsError: number;
     /** d ln reported stderr / d ln N (expected −1/2). */
     stderr: number;
+    /** d ln (mean reported stderr over the replicas) / d ln N: the steadier reading of the same. */
+    meanStderr: number;
     /**
      * Expected sampling sd of the RMS-error slope for plain Monte Carlo: the RMS of R Gaussian errors
      * has relative sd ≈ 1/√(2R), so sd(slope) ≈ (1/√(2R)) / √Σ(ln N − mean ln N)² (least squares).
@@ -159,6 +161,7 @@ function assemble(results: Estimate[], o: ConvergenceOptions): ConvergenceResult
       deviation: logLogSlope(n, steps.map((s) => Math.abs(s.deviation))),
       rmsError: logLogSlope(n, steps.map((s) => s.rmsError)),
       stderr: logLogSlope(n, steps.map((s) => s.stderr)),
+      meanStderr: logLogSlope(n, steps.map((s) => s.meanStderr)),
       rmsErrorSd: slopeSd(n, o.replicas),
     },
     targetError: o.targetError ?? null,
