@@ -1,6 +1,6 @@
 import { join } from "node:path";
 import { matrixFromTallies } from "../src/response/fromTallies.js";
-import { pairedWeightedDifference } from "../src/response/pairedDifference.js";
+import { pairedWeightedDifference, type PairedDifference } from "../src/response/pairedDifference.js";
 import { photocurrentWeights, spectrumFromSpec } from "../src/spectrum/index.js";
 import { loadStudyFromDocument } from "../src/study/load.js";
 import { sweepPlanOf, workerSetupOf } from "../src/sweep/runSweep.js";
@@ -18,6 +18,21 @@ import { loadTracer } from "../src/workers/tracerModule.js";
  */
 export async function runPairedBench(): Promise<void> {
   const perPoint = Number(process.env.LIGHTFOLD_BENCH_PAIRED_RAYS ?? "4000");
+  const random = await pairedRun(perPoint, "random");
+  const sobol = await pairedRun(perPoint, "sobol");
+  const d = random.d;
+  process.stdout.write(
+    `paired differences: demo random pyramids, SiNx 75 vs 80 nm, θ = 0, ${random.nWavelengths} wavelengths × ${perPoint} rays (${random.nBatches} batches), ${random.wallS.toFixed(1)} s in one thread\n` +
+      `  ΔJsc = ${d.delta.toFixed(4)} mA/cm²; SE paired (common random numbers) ${d.pairedStderr.toFixed(4)}, ` +
+      `as if independent ${d.independentStderr.toFixed(4)}; gain ${(d.independentStderr / d.pairedStderr).toFixed(2)}×\n` +
+      `  with Sobol' launch points ("sampling": "sobol", errors from the 16 replica groups, ${sobol.wallS.toFixed(1)} s): ΔJsc = ${sobol.d.delta.toFixed(4)} mA/cm²; ` +
+      `SE paired ${sobol.d.pairedStderr.toFixed(4)}, as if independent ${sobol.d.independentStderr.toFixed(4)}; ` +
+      `gain against independent random sampling ${(d.independentStderr / sobol.d.pairedStderr).toFixed(2)}×\n`,
+  );
+}
+
+/** One two-combination sweep of the paired bench in this thread, with the given launch sampling. */
+async function pairedRun(perPoint: number, sampling: "random" | "sobol"): Promise<{ d: PairedDifference; wallS: number; nBatches: number; nWavelengths: number }> {
   const study = loadStudyFromDocument(
     {
       name: "sinx-75-vs-80",
@@ -27,7 +42,7 @@ export async function runPairedBench(): Promise<void> {
         rear: { texture: { type: "planar" }, exit: "Ag" },
       },
       grid: { thetaDeg: [0], phiDeg: "averaged", wavelengthNm: { from: 300, to: 1200, step: 100 } },
-      rays: { perPoint, batch: Math.ceil(perPoint / PAIR_GROUPS) },
+      rays: { perPoint, batch: Math.ceil(perPoint / PAIR_GROUPS), sampling },
       seed: 42,
       sweep: { "front.films[0].thicknessNm": [75, 80] },
     },
@@ -55,9 +70,5 @@ export async function runPairedBench(): Promise<void> {
   const [a, b] = [0, 1].map((c) => matrixFromTallies(plan, c, (p) => tallies.get(p), false));
   const w = photocurrentWeights(g.wavelengthNm, spectrumFromSpec("AM1.5G", packageRoot()));
   const d = pairedWeightedDifference(a, b, "A_absorber", g.wavelengthNm.map((_, il) => il), w);
-  process.stdout.write(
-    `paired differences: demo random pyramids, SiNx 75 vs 80 nm, θ = 0, ${g.wavelengthNm.length} wavelengths × ${perPoint} rays (${nBatches} batches), ${wallS.toFixed(1)} s in one thread\n` +
-      `  ΔJsc = ${d.delta.toFixed(4)} mA/cm²; SE paired (common random numbers) ${d.pairedStderr.toFixed(4)}, ` +
-      `as if independent ${d.independentStderr.toFixed(4)}; gain ${(d.independentStderr / d.pairedStderr).toFixed(2)}×\n`,
-  );
+  return { d, wallS, nBatches, nWavelengths: g.wavelengthNm.length };
 }

@@ -7,8 +7,12 @@ import { traceBatch } from "../src/trace/kernel.js";
 import type { CompileOptions } from "../src/trace/compile.js";
 import { availableParallelism, loadavg } from "node:os";
 import { buildNativeTracer, type NativeTracer } from "./native.js";
-import { createTally, summarizeTally } from "../src/trace/tally.js";
-import { summarizeTrapping } from "../src/trace/trappingSummary.js";
+import { createTally, summarizeTally, type TallySummary } from "../src/trace/tally.js";
+import { summarizeTrapping, type TrappingSummary } from "../src/trace/trappingSummary.js";
+import type { CompiledStack } from "../src/trace/compiledStack.js";
+import { batchLaunchPoints, type LaunchSampling } from "../src/trace/launchPoints.js";
+import { trappingWithReplicaErrors, withReplicaErrors } from "../src/trace/replicaSummary.js";
+import { REPLICA_GROUPS } from "../src/random/replicaGroups.js";
 
 /**
  * Reference case: bare regular upright 54.74° pyramids of 10 µm base on the front of 180 µm Si
@@ -122,15 +126,17 @@ interface TimedRun {
 }
 
 /** The estimators the efficiency table compares (lightfold's own, in this thread). */
-const CONFIGS: { name: string; options: CompileOptions }[] = [
+const CONFIGS: { name: string; options: CompileOptions; sampling?: LaunchSampling }[] = [
   { name: "analog", options: { estimator: "analog" } },
   { name: "expected, no split", options: { estimator: "expected", splitMinWeight: 0 } },
   { name: "default", options: {} },
+  { name: "default, Sobol'", options: {}, sampling: "sobol" },
 ];
 
-function lightfoldRun(wavelengthNm: number, options: CompileOptions, nRays: number, seed: number): TimedRun {
+function lightfoldRun(wavelengthNm: number, options: CompileOptions, nRays: number, seed: number, sampling: LaunchSampling = "random"): TimedRun {
   const cs = compileStack(BENCH_STACK, MaterialRegistry.withBuiltins(), wavelengthNm, options);
   traceBatch(cs, 0, 0, 5000, new RandomStream(streamKey(seed, "warmup", wavelengthNm)), createTally(cs));
+  if (sampling === "sobol") return sobolRun(cs, wavelengthNm, nRays, seed);
   const tally = createTally(cs);
   const c0 = process.cpuUsage();
   traceBatch(cs, 0, 0, nRays, new RandomStream(streamKey(seed, "efficiency", wavelengthNm)), tally);
@@ -142,9 +148,44 @@ function lightfoldRun(wavelengthNm: number, options: CompileOptions, nRays: numb
   return { seconds: (c.user + c.system) * 1e-6, rays: nRays, events: s.eventsPerRay * nRays, R: [r.mean, r.stderr], A: at("A_absorber"), A_rear: at("A_rear") };
 }
 
+/**
+ * The default estimator with Sobol' launch points, as a sweep point traces them: 16 replica groups of
+ * nRays/16 rays, each its own stream and scramble; standard errors from the spread of the groups.
+ */
+function sobolRun(cs: CompiledStack, wavelengthNm: number, nRays: number, seed: number): TimedRun {
+  const groups: TallySummary[] = [];
+  const traps: TrappingSummary[] = [];
+  const counts: number[] = [];
+  const pooled = createTally(cs);
+  const per = Math.ceil(nRays / REPLICA_GROUPS);
+  let seconds = 0;
+  for (let g = 0; g < REPLICA_GROUPS; g++) {
+    const tally = createTally(cs);
+    const c0 = process.cpuUsage();
+    const launch = batchLaunchPoints("sobol", seed, undefined, 0, 0, wavelengthNm, g, per);
+    traceBatch(cs, 0, 0, per, new RandomStream(streamKey(seed, "efficiency", wavelengthNm, g)), tally, "unpolarized", "front", launch);
+    const c = process.cpuUsage(c0);
+    seconds += (c.user + c.system) * 1e-6;
+    for (let i = 0; i < tally.length; i++) pooled[i] += tally[i];
+    groups.push(summarizeTally(cs.channels, tally));
+    traps.push(summarizeTrapping(tally, cs.channels.length));
+    counts.push(per);
+  }
+  const s = withReplicaErrors(summarizeTally(cs.channels, pooled), groups, counts);
+  const r = trappingWithReplicaErrors(summarizeTrapping(pooled, cs.channels.length), traps, counts).reflectionTotal;
+  const at = (name: string): [number, number] => [s.mean[cs.channels.indexOf(name)], s.stderr[cs.channels.indexOf(name)]];
+  return { seconds, rays: per * REPLICA_GROUPS, events: s.eventsPerRay * per * REPLICA_GROUPS, R: [r.mean, r.stderr], A: at("A_absorber"), A_rear: at("A_rear") };
+}
+
 function nativeRun(native: NativeTracer, wavelengthNm: number, nRays: number, seed: number): TimedRun {
   const r = native.run(wavelengthNm, nRays, seed);
   return { seconds: r.seconds, rays: r.rays, events: r.events, R: r.channels.R, A: r.channels.A_absorber, A_rear: r.channels.A_rear };
+}
+
+/** The run with its standard errors replaced by the RMS of all rounds' errors (same rays each). */
+function withPooledErrors(r: TimedRun, runs: TimedRun[]): TimedRun {
+  const rms = (key: "R" | "A" | "A_rear"): [number, number] => [r[key][0], Math.sqrt(runs.reduce((a, x) => a + x[key][1] ** 2, 0) / runs.length)];
+  return { ...r, R: rms("R"), A: rms("A"), A_rear: rms("A_rear") };
 }
 
 /** Best (least CPU time per ray) of interleaved repetitions, and the pooled mean ± SE of the channels. */
@@ -157,6 +198,8 @@ function fastest(runs: TimedRun[]): TimedRun {
  * analog and the estimators run in alternation (LIGHTFOLD_BENCH_TRACE_REPEATS rounds, default 3,
  * LIGHTFOLD_BENCH_TRACE_RAYS rays each, default 200 000), the fastest of each counts, so a busy
  * machine slows all alike. FOM = 1/(SE² × CPU seconds); ratios are to the native analog kernel.
+ * The Sobol' row takes its SE from the spread of its 16 replica groups (rays inside a group are not
+ * independent), RMS over the rounds.
  */
 function printEfficiency(): void {
   const nRays = Number(process.env.LIGHTFOLD_BENCH_TRACE_RAYS ?? "200000");
@@ -173,13 +216,15 @@ function printEfficiency(): void {
     const add = (name: string, r: TimedRun): void => void byName.set(name, [...(byName.get(name) ?? []), r]);
     for (let k = 0; k < rounds; k++) {
       if (typeof native !== "string") add("native analog", nativeRun(native, wavelengthNm, nRays, BENCH_SEED + k));
-      for (const c of CONFIGS) add(c.name, lightfoldRun(wavelengthNm, c.options, nRays, BENCH_SEED + k));
+      for (const c of CONFIGS) add(c.name, lightfoldRun(wavelengthNm, c.options, nRays, BENCH_SEED + k, c.sampling));
     }
     const nat = byName.has("native analog") ? fastest(byName.get("native analog") as TimedRun[]) : undefined;
     const fom = (r: TimedRun, v: [number, number]): number => 1 / (v[1] * v[1] * r.seconds);
     process.stdout.write(`  ${wavelengthNm} nm   estimator            rays/s     ×native  events/ray  ns/event    R ± SE              A_absorber ± SE     FOM R      ×native  FOM A      ×native\n`);
     for (const [name, runs] of byName) {
-      const r = fastest(runs);
+      // Sobol' rows: the fastest round's time, and the errors pooled over the rounds (each round's
+      // replica error has only 15 degrees of freedom).
+      const r = name.includes("Sobol") ? withPooledErrors(fastest(runs), runs) : fastest(runs);
       const rate = r.rays / r.seconds;
       const xs = (x: number | undefined): string => (x === undefined ? "–" : x.toFixed(2)).padStart(8);
       process.stdout.write(
