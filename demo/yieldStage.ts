@@ -9,6 +9,7 @@ import { writeFileAtomic } from "../src/util/atomicWrite.js";
 import { toolVersion } from "../src/util/version.js";
 import { syntheticWeather } from "../src/weather/synthetic.js";
 import { pairedDeltaStdErrs, textureBenefit } from "../src/yield/compare.js";
+import { pairingProblem } from "../src/response/pairedMoments.js";
 import { yearContext } from "../src/yield/yearContext.js";
 import { compareJson, formatCompareTable, matrixInfo, siteInfo, weatherInfo, yieldJson, type CompareRow } from "../src/yield/yieldJson.js";
 import { bestPlane, planeList, prepareMatrix, yieldSweep } from "../src/yield/yieldRun.js";
@@ -67,6 +68,7 @@ export function runDemoYield(input: DemoYieldInput): DemoYieldSummary {
   // Both demo studies share seed, grid and batches: the benefit gets the paired error.
   const d = pairedDeltaStdErrs(ctx, input.stacks[0]!.matrix, input.stacks[1]!.matrix, input.stacks[0]!.matrixPath, few, SKY);
   const rows: CompareRow[] = A!.atTilts.map((ya, k) => ({ site: site.name, a: ya, b: B!.atTilts[k]!, benefit: textureBenefit(ya, B!.atTilts[k]!, d?.[k]) }));
+  const pairingReason = pairingProblem(input.stacks[0]!.matrix, input.stacks[1]!.matrix, "A_absorber", [input.stacks[0]!.matrixPath, input.stacks[1]!.matrixPath]);
   const doc = compareJson({
     toolVersion: toolVersion(),
     matrices: fewResults.map((r, i) => ({ label: i === 0 ? "A" : "B", ...r.info })),
@@ -74,6 +76,7 @@ export function runDemoYield(input: DemoYieldInput): DemoYieldSummary {
     sites: [siteInfo(site)],
     weather: [weatherInfo(ctx)],
     rows,
+    ...(pairingReason !== undefined ? { pairingReason } : {}),
   });
   const c = join(input.stacks[0]!.dir, "yield", "compare.json");
   writeFileAtomic(c, JSON.stringify(doc, null, 2) + "\n");
@@ -82,7 +85,7 @@ export function runDemoYield(input: DemoYieldInput): DemoYieldSummary {
     siteName: site.name,
     annualAhM2: annual,
     bestTiltDeg: bestTilt,
-    benefitText: formatCompareTable(input.stacks[0]!.label, input.stacks[1]!.label, rows),
+    benefitText: formatCompareTable(input.stacks[0]!.label, input.stacks[1]!.label, rows, pairingReason),
     files,
   };
 }

@@ -4,6 +4,7 @@
  */
 import type { BenefitRow, TiltSweep, YieldEntry } from "./inputs.js";
 import { numberArrayAt, numberAt, objectAt, objectsAt, optNumberAt, stringAt, type Json } from "./fields.js";
+import { InputError } from "../util/errors.js";
 
 export interface YieldParts {
   yields: YieldEntry[];
@@ -83,6 +84,15 @@ function readYield(raw: Json, source: string): YieldParts {
   return parts;
 }
 
+/** The optional benefitErrorKind of a compare row ("paired" | "independent"; older files have none). */
+function errorKindAt(item: Json, source: string, path: string): { errorKind?: "paired" | "independent" } {
+  const v = item.benefitErrorKind;
+  if (v === undefined) return {};
+  const kind = stringAt(item, "benefitErrorKind", source, path);
+  if (kind !== "paired" && kind !== "independent") throw new InputError(`${source}: field "${path}" must be "paired" or "independent" (found "${kind.slice(0, 40)}")`);
+  return { errorKind: kind };
+}
+
 function readCompare(raw: Json, source: string): YieldParts {
   const matrices = objectsAt(raw, "matrices", source);
   const label = (i: number) => (matrices[i] ? matrixLabel(matrices[i]!.item, source, matrices[i]!.path) : i === 0 ? "A" : "B");
@@ -98,6 +108,7 @@ function readCompare(raw: Json, source: string): YieldParts {
     annualAhM2B: numberAt(item, "chargeBAhM2", source, `${path}.chargeBAhM2`),
     benefitPct: numberAt(item, "benefitPct", source, `${path}.benefitPct`),
     stderrPct: numberAt(item, "benefitStdErrPct", source, `${path}.benefitStdErrPct`),
+    ...errorKindAt(item, source, `${path}.benefitErrorKind`),
   }));
   return { yields: [], tiltSweeps: [], benefit };
 }

@@ -110,6 +110,8 @@ export interface BenefitRow {
   benefitPct: number;
   /** Monte Carlo standard error of benefitPct. */
   stderrPct: number;
+  /** How stderrPct was made: "paired" (pairing groups) or "independent" (quadrature); absent in older files. */
+  errorKind?: "paired" | "independent";
 }
 
 /** One design optimisation (optimum.json from `lightfold optimize`). */

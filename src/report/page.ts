@@ -77,9 +77,9 @@ function benefitTable(rows: BenefitRow[]): string {
   let body = "";
   for (const r of rows) {
     body += html`<tr><td class="text">${r.siteName}</td><td>${fmt(r.tiltDeg, 0)}</td><td>${fmt(r.azimuthDeg, 0)}</td><td class="text">${r.stackA}</td><td class="text">${r.stackB}</td><td>${fmtCharge(r.annualAhM2A)}</td><td>${fmtCharge(r.annualAhM2B)}</td>`;
-    body += `<td><strong>${r.benefitPct >= 0 ? "+" : ""}${fmt(r.benefitPct)}</strong></td><td>${fmt(r.stderrPct, 2)}</td></tr>`;
+    body += `<td><strong>${r.benefitPct >= 0 ? "+" : ""}${fmt(r.benefitPct)}</strong></td><td>${fmt(r.stderrPct, 2)}</td><td class="text">${r.errorKind ?? "–"}</td></tr>`;
   }
-  return `<table class="benefit"><thead><tr><th class="text">site</th><th>tilt (°)</th><th>azimuth (°)</th><th class="text">stack A</th><th class="text">stack B</th><th>A (A·h/m²)</th><th>B (A·h/m²)</th><th>A vs B (%)</th><th>± s.e. (%)</th></tr></thead><tbody>${body}</tbody></table>`;
+  return `<table class="benefit"><thead><tr><th class="text">site</th><th>tilt (°)</th><th>azimuth (°)</th><th class="text">stack A</th><th class="text">stack B</th><th>A (A·h/m²)</th><th>B (A·h/m²)</th><th>A vs B (%)</th><th>± s.e. (%)</th><th class="text">s.e. from</th></tr></thead><tbody>${body}</tbody></table>`;
 }
 
 function bifacialTable(rows: BifacialRow[]): string {

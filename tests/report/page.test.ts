@@ -111,6 +111,10 @@ describe("renderReport(input) with user text that looks like markup", () => {
     expect(rendered.html).toMatch(/Skipped [^<]*notes\.json: not a yield/);
     const benefit = /<table class="benefit">(.*?)<\/table>/s.exec(rendered.html)![1]!;
     expect(benefit.match(/<tr>/g)!.length).toBe(3); // header + two tilts
+    // which error each ± is: paired where the file says so, a dash for files without the field
+    expect(input.benefit.map((b) => b.errorKind)).toEqual(["paired", undefined]);
+    expect(benefit).toMatch(/<th class="text">s\.e\. from<\/th>/);
+    expect(benefit).toMatch(/<td class="text">paired<\/td><\/tr>.*<td class="text">–<\/td><\/tr>/s);
   });
 });
 
@@ -147,6 +151,14 @@ describe("loadReportInput errors", () => {
     } finally {
       writeFileSync(p, good);
     }
+  });
+  it("names the file and field of a comparison row whose error kind is neither paired nor independent", () => {
+    const full = writeTinyRun(join(tmp, "errs-kind"));
+    const p = join(full, "yield", "compare.json");
+    const doc = JSON.parse(readFileSync(p, "utf8"));
+    doc.rows[1].benefitErrorKind = "guessed";
+    writeFileSync(p, JSON.stringify(doc));
+    expect(() => loadReportInput([full], { angleDeg: 0 })).toThrow(/compare\.json: field "rows\[1\]\.benefitErrorKind" must be "paired" or "independent" \(found "guessed"\)/);
   });
   it("refuses a folder with no results", () => {
     const empty = join(tmp, "empty");
