@@ -8,8 +8,9 @@ import { readSiteFile } from "../src/site/siteFile.js";
 import { writeFileAtomic } from "../src/util/atomicWrite.js";
 import { toolVersion } from "../src/util/version.js";
 import { syntheticWeather } from "../src/weather/synthetic.js";
-import { pairedDeltaStdErrs, textureBenefit } from "../src/yield/compare.js";
-import { pairingProblem } from "../src/response/pairedMoments.js";
+import { pairedDeltaStdErr, textureBenefit } from "../src/yield/compare.js";
+import { pairedMoments } from "../src/response/pairedMoments.js";
+import { g173SpectralWeights } from "../src/yield/spectralTables.js";
 import { yearContext } from "../src/yield/yearContext.js";
 import { compareJson, formatCompareTable, matrixInfo, siteInfo, weatherInfo, yieldJson, type CompareRow } from "../src/yield/yieldJson.js";
 import { bestPlane, planeList, prepareMatrix, yieldSweep } from "../src/yield/yieldRun.js";
@@ -66,9 +67,13 @@ export function runDemoYield(input: DemoYieldInput): DemoYieldSummary {
   // texture benefit of A over B at the two tilts (same weather, sky model and planes)
   const [A, B] = fewResults;
   // Both demo studies share seed, grid and batches: the benefit gets the paired error.
-  const d = pairedDeltaStdErrs(ctx, input.stacks[0]!.matrix, input.stacks[1]!.matrix, input.stacks[0]!.matrixPath, few, SKY);
-  const rows: CompareRow[] = A!.atTilts.map((ya, k) => ({ site: site.name, a: ya, b: B!.atTilts[k]!, benefit: textureBenefit(ya, B!.atTilts[k]!, d?.[k]) }));
-  const pairingReason = pairingProblem(input.stacks[0]!.matrix, input.stacks[1]!.matrix, "A_absorber", [input.stacks[0]!.matrixPath, input.stacks[1]!.matrixPath]);
+  const moments = pairedMoments(input.stacks[0]!.matrix, input.stacks[1]!.matrix, "A_absorber", [input.stacks[0]!.matrixPath, input.stacks[1]!.matrixPath]);
+  const pairingReason = typeof moments === "string" ? moments : undefined;
+  const weights = g173SpectralWeights(input.stacks[0]!.matrix.wavelengthNm);
+  const rows: CompareRow[] = A!.atTilts.map((ya, k) => {
+    const d = typeof moments === "string" ? undefined : pairedDeltaStdErr(ya, B!.atTilts[k]!, weights, moments);
+    return { site: site.name, a: ya, b: B!.atTilts[k]!, benefit: textureBenefit(ya, B!.atTilts[k]!, d) };
+  });
   const doc = compareJson({
     toolVersion: toolVersion(),
     matrices: fewResults.map((r, i) => ({ label: i === 0 ? "A" : "B", ...r.info })),

@@ -1,21 +1,16 @@
 import type { YieldResult } from "./annualYield.js";
-import { pairedStderrMatrix } from "../response/pairedDifference.js";
-import type { ResponseMatrix } from "../response/responseMatrix.js";
-import type { Plane } from "../site/site.js";
-import type { SkyModel } from "../sky/transposition.js";
-import type { YearContext } from "./yearContext.js";
-import { prepareMatrix, yieldSweep } from "./yieldRun.js";
+import type { PairedMoments } from "../response/pairedMoments.js";
+import { chargeMoments, combinationVariance } from "./pairedCharge.js";
+import type { SpectralWeights } from "./spectralTables.js";
 
 /**
- * Standard error of Q_A − Q_B per plane from the matrices' pairing groups: the yield's linear error
- * propagation run on the paired errors (pairedStderrMatrix). Undefined when the matrices cannot be
- * paired (no pairing groups, different grids or batches); then textureBenefit falls back to the
- * quadrature of both errors.
+ * Standard error of Q_A − Q_B at one plane from the matrices' pairing groups: their per-point moments
+ * (pairedMoments) carried through both yields' node weights (chargeMoments; the yearly charge is
+ * linear in the matrix). For yields under the fixed G173 shapes (compare, the demo), where the node
+ * weights hold the whole error propagation.
  */
-export function pairedDeltaStdErrs(ctx: YearContext, a: ResponseMatrix, b: ResponseMatrix, src: string, planes: Plane[], sky: SkyModel, channel = "A_absorber"): number[] | undefined {
-  const paired = pairedStderrMatrix(a, b, channel);
-  if (paired === undefined) return undefined;
-  return yieldSweep(ctx, prepareMatrix(paired, src, channel), planes, sky).map((y) => y.chargeStdErrAhM2);
+export function pairedDeltaStdErr(a: YieldResult, b: YieldResult, weights: SpectralWeights, moments: PairedMoments): number {
+  return Math.sqrt(combinationVariance(chargeMoments(a.nodeWeights, b.nodeWeights, weights, moments), 1, 1));
 }
 
 /** Texture benefit of A over B at one site and plane, in %, with its Monte Carlo standard error. */
@@ -30,7 +25,7 @@ export interface Benefit {
 
 /**
  * 100 (Q_A/Q_B − 1). With the standard error of Q_A − Q_B from the matrices' pairing groups
- * (deltaStdErrAhM2: the yield of pairedStderrMatrix), the error accounts for the correlation of two
+ * (deltaStdErrAhM2: pairedDeltaStdErr), the error accounts for the correlation of two
  * studies traced on the same streams (common random numbers). Without it the relative errors add in
  * quadrature as for independent runs: se = 100 (Q_A/Q_B) sqrt((se_A/Q_A)² + (se_B/Q_B)²), which
  * overstates the error of correlated results.

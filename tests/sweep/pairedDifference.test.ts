@@ -4,7 +4,8 @@ import { matrixFromTallies } from "../../src/response/fromTallies.js";
 import { pairedPointVariance, pairedStderrMatrix, pairedWeightedDifference } from "../../src/response/pairedDifference.js";
 import { siteFromObject } from "../../src/site/site.js";
 import { syntheticWeather } from "../../src/weather/synthetic.js";
-import { textureBenefit } from "../../src/yield/compare.js";
+import { pairedDeltaStdErr, textureBenefit } from "../../src/yield/compare.js";
+import { pairedMoments } from "../../src/response/pairedMoments.js";
 import { bestComboOf } from "../../src/weighting/runSummaries.js";
 import type { RunCombo } from "../../src/sweep/runFiles.js";
 import { yearContext } from "../../src/yield/yearContext.js";
@@ -116,6 +117,10 @@ describe("paired standard error of a difference", () => {
     const [ya] = yieldSweep(ctx, prepareMatrix(a, "a"), plane, "perez");
     const [yb] = yieldSweep(ctx, prepareMatrix(b, "b"), plane, "perez");
     const [yd] = yieldSweep(ctx, prepareMatrix(paired as ResponseMatrix, "a−b"), plane, "perez");
+    // compare's route: the group moments through both yields' node weights, the same figure
+    const moments = pairedMoments(a, b, "A_absorber");
+    if (typeof moments === "string") throw new Error(moments);
+    expect(pairedDeltaStdErr(ya!, yb!, prepareMatrix(a, "a").tables.weights, moments)).toBeCloseTo(yd!.chargeStdErrAhM2, 6);
     const benefit = textureBenefit(ya!, yb!, yd!.chargeStdErrAhM2);
     process.stdout.write(`paired yearly benefit: ${benefit.benefitPct.toFixed(3)} ± ${benefit.benefitStdErrPct.toFixed(3)} % (independent ± ${benefit.independentStdErrPct.toFixed(3)})\n`);
     expect(benefit.errorKind).toBe("paired");

@@ -4,7 +4,7 @@ import { readResponseMatrix } from "../../response/matrixFile.js";
 import { readSiteFile } from "../../site/siteFile.js";
 import { InputError } from "../../util/errors.js";
 import { toolVersion } from "../../util/version.js";
-import { pairedDeltaStdErrs, textureBenefit } from "../../yield/compare.js";
+import { pairedDeltaStdErr, textureBenefit } from "../../yield/compare.js";
 import { yearContext } from "../../yield/yearContext.js";
 import { compareJson, formatCompareTable, matrixInfo, siteInfo, weatherInfo, type CompareRow } from "../../yield/yieldJson.js";
 import { prepareMatrix, yieldSweep } from "../../yield/yieldRun.js";
@@ -17,7 +17,7 @@ import type { SkyModel } from "../../sky/transposition.js";
 import { bifacialSweep } from "../../yield/bifacialYield.js";
 import { bifacialCompareJson, formatBifacialCompareTable, type BifacialCompareRow, type PairingNote } from "../../yield/bifacialJson.js";
 import { bifacialDifference, type BifacialPairing } from "../../yield/bifacialDifference.js";
-import { pairedMoments, pairingProblem } from "../../response/pairedMoments.js";
+import { pairedMoments } from "../../response/pairedMoments.js";
 import type { PreparedMatrix } from "../../yield/yieldRun.js";
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
@@ -76,15 +76,18 @@ errors add as independent.`,
       if (opts.rearMatrix !== undefined) return bifacialCompare(opts, matrices, prepared, weatherSpecs, sites, year, seed, planes, sky);
       const rows: CompareRow[] = [];
       const weatherInfos: Record<string, unknown>[] = [];
-      const pairingReason = pairingProblem(matrices[0]!, matrices[1]!, opts.channel, [opts.matrix[0]!, opts.matrix[1]!]);
+      // Paired errors where both matrices carry pairing groups on one grid (common random numbers).
+      const moments = pairedMoments(matrices[0]!, matrices[1]!, opts.channel, [opts.matrix[0]!, opts.matrix[1]!]);
+      const pairingReason = typeof moments === "string" ? moments : undefined;
       sites.forEach((site, i) => {
         const ctx = yearContext(site, loadWeather(weatherSpecs[i]!, site, year, seed));
         weatherInfos.push(weatherInfo(ctx));
         const a = yieldSweep(ctx, prepared[0]!, planes, sky);
         const b = yieldSweep(ctx, prepared[1]!, planes, sky);
-        // Paired errors where both matrices carry pairing groups on one grid (common random numbers).
-        const d = pairedDeltaStdErrs(ctx, matrices[0]!, matrices[1]!, opts.matrix[0]!, planes, sky, opts.channel);
-        a.forEach((ya, k) => rows.push({ site: site.name, a: ya, b: b[k]!, benefit: textureBenefit(ya, b[k]!, d?.[k]) }));
+        a.forEach((ya, k) => {
+          const d = typeof moments === "string" ? undefined : pairedDeltaStdErr(ya, b[k]!, prepared[0]!.tables.weights, moments);
+          rows.push({ site: site.name, a: ya, b: b[k]!, benefit: textureBenefit(ya, b[k]!, d) });
+        });
       });
       const doc = compareJson({
         toolVersion: toolVersion(),
