@@ -37,6 +37,24 @@ describe("sweeps with Sobol' launch sampling", () => {
     }
   });
 
+  it("stop on a target error measured from the replica groups, the same batches for 1 and 2 workers", async () => {
+    // Target-error mode under Sobol' sampling: 16 batches first (one per group), then batches until
+    // the replica error of A_absorber is below the target or maxPerPoint is reached.
+    const study = tinyStudy({ rays: { targetStdErr: 0.004, channels: ["A_absorber"], maxPerPoint: 3200, batch: 40, sampling: "sobol" } });
+    const one = await runSweep({ study, workers: 1 });
+    const two = await runSweep({ study, workers: 2, raysPerMessage: 80, shuffleSeed: 7 });
+    expectSameMatrices(one.matrices, two.matrices);
+    const m = one.matrices[0];
+    const nC = m.channels.length;
+    const ia = m.channels.indexOf("A_absorber");
+    for (let q = 0; q < 6; q++) {
+      expect(m.nRays[q]).toBeGreaterThanOrEqual(16 * 40);
+      expect(m.stderr[q * nC + ia] < 0.004 || m.nRays[q] === 3200).toBe(true);
+    }
+    // The weakly absorbing 1100 nm points needed more than the first 16 batches.
+    expect(Math.max(...m.nRays)).toBeGreaterThan(16 * 40);
+  });
+
   it("tracePoint reproduces a sweep point and its replica error", async () => {
     const study = sobolStudy();
     const sweep = (await runSweep({ study, workers: 1 })).matrices[0];
