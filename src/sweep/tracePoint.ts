@@ -5,6 +5,7 @@ import type { TraceItem } from "../workers/traceTask.js";
 import { loadTracer } from "../workers/tracerModule.js";
 import { comboChannels } from "./channels.js";
 import { channelMean, pointStdErr, sumTallies, tallyLength } from "./tally.js";
+import { MIN_REPLICAS, REPLICA_GROUPS } from "../random/replicaGroups.js";
 import { workerSetupOf } from "./runSweep.js";
 
 export interface TracePointOptions {
@@ -42,6 +43,9 @@ export interface TracePointResult {
  * Traces one grid point with nRays in batches spread over the pool. Batch b uses
  * streamKey(seed, it, ip, il, b), exactly as a sweep does, so with firstBatch 0, the same
  * batch size and nRays = the study's perPoint, the tally equals that point's tally in a sweep.
+ * Under Sobol' launch sampling the standard errors come from the replica groups (batch b → group
+ * b mod 16), and fewer than MIN_REPLICAS batches are refused. (A call with firstBatch > 0 reports the
+ * error of its own batches only.)
  */
 export async function tracePoint(o: TracePointOptions): Promise<TracePointResult> {
   const combo = o.combo ?? 0;
@@ -55,6 +59,12 @@ export async function tracePoint(o: TracePointOptions): Promise<TracePointResult
   const batch = o.batch ?? c.study.rays.batch;
   const firstBatch = o.firstBatch ?? 0;
   const nBatches = Math.ceil(o.nRays / batch);
+  if (c.study.rays.sampling === "sobol" && Math.min(nBatches, REPLICA_GROUPS) < MIN_REPLICAS) {
+    throw new InputError(
+      `nRays: Sobol' sampling takes the standard error from independent replica groups and needs at least ${MIN_REPLICAS} batches, got ${o.nRays} rays in batches of ${batch} (${nBatches})`,
+      `trace at least ${MIN_REPLICAS * batch} rays, or smaller batches`,
+    );
+  }
   const sizes = Array.from({ length: nBatches }, (_, j) => Math.min(batch, o.nRays - j * batch));
   const channels = comboChannels(c.study, o.study.registry, await loadTracer(o.tracerModule));
   const len = tallyLength(channels.length);

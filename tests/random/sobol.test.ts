@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { owenScramble, ScrambledSobol, sobolBits, SOBOL_DIMENSIONS } from "../../src/random/sobol.js";
 import { groupStdErr } from "../../src/random/replicaGroups.js";
+import { batchLaunchPoints } from "../../src/trace/launchPoints.js";
 
 const unit = (bits: number): number => (bits >>> 0) / 2 ** 32;
 
@@ -123,5 +124,27 @@ describe("groupStdErr", () => {
     const s2 = means.reduce((a, x) => a + (x - m) ** 2, 0) / 3;
     expect(groupStdErr(means.map((x) => 10 * x), [10, 10, 10, 10])).toBeCloseTo(Math.sqrt(s2 / 4), 14);
     expect(groupStdErr([1, 2], [1, 0])).toBeNaN();
+  });
+});
+
+describe("batchLaunchPoints (src/trace/launchPoints.ts)", () => {
+  const pointsOf = (batch: number, batchSize: number, seed = 9, n = 4): number[][] => {
+    const lp = batchLaunchPoints("sobol", seed, undefined, 1, 0, 2, batch, batchSize)!;
+    return Array.from({ length: n }, (_, r) => (lp.load(r), Array.from(lp.u)));
+  };
+
+  it("gives two stacks traced with one seed the same points (common random numbers), other groups and seeds others", () => {
+    expect(pointsOf(3, 100)).toEqual(pointsOf(3, 100));
+    expect(pointsOf(3, 100)).not.toEqual(pointsOf(4, 100));
+    expect(pointsOf(3, 100, 10)).not.toEqual(pointsOf(3, 100));
+    expect(batchLaunchPoints("random", 9, undefined, 0, 0, 0, 0, 100)).toBeNull();
+    expect(batchLaunchPoints(undefined, 9, undefined, 0, 0, 0, 0, 100)).toBeNull();
+  });
+
+  it("continues a group's sequence batch after batch: batch b + 16 starts where batch b ends", () => {
+    // Group 3 holds batches 3, 19, 35 …; with batches of 4 rays, batch 19 takes points 4…7 of the
+    // sequence batch 3 starts (so a group is one scrambled Sobol' set however it was scheduled).
+    const first = pointsOf(3, 4, 9, 8);
+    expect(pointsOf(19, 4)).toEqual(first.slice(4, 8));
   });
 });

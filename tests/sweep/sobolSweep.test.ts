@@ -60,6 +60,8 @@ describe("sweeps with Sobol' launch sampling", () => {
     const sweep = (await runSweep({ study, workers: 1 })).matrices[0];
     const nC = sweep.channels.length;
     const p = await tracePoint({ study, workers: 1, it: 1, ip: 0, il: 2, nRays: 790 });
+    // 200 rays are 5 batches of 40: too few replicas for an error, refused.
+    await expect(tracePoint({ study, workers: 1, it: 0, ip: 0, il: 0, nRays: 200 })).rejects.toThrow(/at least 8 batches/);
     const q = 1 * 3 + 2;
     for (let c = 0; c < nC; c++) {
       expect(p.mean[c]).toBe(sweep.mean[q * nC + c]);
