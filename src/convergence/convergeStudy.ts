@@ -1,7 +1,7 @@
 import { withOverrides, type LoadedStudy } from "../study/load.js";
 import type { StudyCombo } from "../study/studyTypes.js";
 import { photocurrentWeights, spectrumFromSpec, type Spectrum } from "../spectrum/index.js";
-import { DEFAULT_ESTIMATOR, type Estimator as TraceEstimatorKind } from "../trace/index.js";
+import type { Estimator as TraceEstimatorKind } from "../trace/index.js";
 import { InputError } from "../util/errors.js";
 import { toolVersion } from "../util/version.js";
 import { TracePool } from "../workers/pool.js";
@@ -49,7 +49,8 @@ interface Prepared {
   channel: string;
   weights: Float64Array | null;
   options: ConvergenceOptions;
-  tracerEstimator: TraceEstimatorKind;
+  /** "default": the tracer's per-wavelength choice (src/trace/estimatorChoice.ts). */
+  tracerEstimator: TraceEstimatorKind | "default";
   sampling: LaunchSampling;
 }
 
@@ -82,7 +83,7 @@ function prepare(loaded: LoadedStudy, req: ConvergeRequest): Prepared {
     referenceRays: req.referenceRays ?? 16 * req.startRays * 2 ** (req.steps - 1),
     targetError: req.targetError,
   };
-  const tracerEstimator = req.estimator ?? DEFAULT_ESTIMATOR;
+  const tracerEstimator = req.estimator ?? "default";
   if (req.wavelengthNm !== undefined) {
     return {
       combo,
@@ -151,13 +152,13 @@ function progressLine(ns: string, nRays: number, raysPer: string, e: Estimate, t
 /** The in-thread estimator of a request (what buildConvergenceReport runs), for custom studies and tests. */
 export function convergenceEstimator(loaded: LoadedStudy, req: ConvergeRequest): Estimator {
   const p = prepare(loaded, req);
-  return inThreadEstimator(p.subject, p.channel, p.weights, { estimator: p.tracerEstimator });
+  return inThreadEstimator(p.subject, p.channel, p.weights, { estimator: p.tracerEstimator === "default" ? undefined : p.tracerEstimator });
 }
 
 /** Runs a convergence study with the real tracer in this thread. */
 export function buildConvergenceReport(loaded: LoadedStudy, req: ConvergeRequest, onStep?: (message: string) => void): ConvergenceReport {
   const p = prepare(loaded, req);
-  const est = inThreadEstimator(p.subject, p.channel, p.weights, { estimator: p.tracerEstimator });
+  const est = inThreadEstimator(p.subject, p.channel, p.weights, { estimator: p.tracerEstimator === "default" ? undefined : p.tracerEstimator });
   const reporting: Estimator = (nRays, ns) => {
     const t0 = Date.now();
     const e = est(nRays, ns);
@@ -179,7 +180,7 @@ export async function buildConvergenceReportOnPool(
 ): Promise<ConvergenceReport> {
   if (workers <= 1) return buildConvergenceReport(loaded, req, onStep);
   const p = prepare(loaded, req);
-  if (p.tracerEstimator !== DEFAULT_ESTIMATOR) {
+  if (p.tracerEstimator !== "default") {
     throw new InputError(`--estimator ${p.tracerEstimator}: runs in one thread only; add --workers 1`);
   }
   const pool = new TracePool(workerSetupOf(p.subject.study), workers);

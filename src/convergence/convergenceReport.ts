@@ -66,7 +66,7 @@ export function formatConvergenceTable(r: ConvergenceReport): string {
       ? `${r.quantity} at θ=${r.thetaDeg}°, φ=${r.phiDeg ?? "averaged"}, λ=${r.wavelengthNm} nm`
       : `${r.quantity} (${r.unit}) under ${r.spectrum}, ${r.wavelengthRangeNm?.[0]}–${r.wavelengthRangeNm?.[1]} nm, at θ=${r.thetaDeg}°, φ=${r.phiDeg ?? "averaged"}`;
   const lines: string[] = [];
-  lines.push(`${r.studyName} (${r.combo}): convergence of ${where}, seed ${r.seed}, ${r.tracerEstimator} absorption sampling`);
+  lines.push(`${r.studyName} (${r.combo}): convergence of ${where}, seed ${r.seed}, ${r.tracerEstimator === "default" ? "default estimator (chosen per wavelength)" : `${r.tracerEstimator} estimator`}`);
   if (r.launchSampling === "sobol") {
     lines.push("launch sampling: scrambled Sobol' points (randomized quasi-Monte Carlo); each run is 16 independent replicas, stderr from their spread");
   }

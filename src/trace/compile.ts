@@ -4,13 +4,14 @@ import type { FilmLayer, NK } from "../optics/types.js";
 import type { Material } from "../materials/types.js";
 import { buildSurface } from "../geometry/textures.js";
 import { Q_LENGTH } from "../geometry/surfaceHit.js";
-import { planarTile, SURFACE_LAMBERTIAN, SURFACE_MESH, type SurfaceTile } from "../geometry/surfaceTile.js";
+import { planarTile, SURFACE_LAMBERTIAN, SURFACE_MESH, SURFACE_PLANAR, type SurfaceTile } from "../geometry/surfaceTile.js";
 import { isBacksheet, isIdealRear, type BacksheetSpec, type BoundaryKind, type FilmSpec, type StackSpec, type TextureSpec } from "../study/stackTypes.js";
 import { reflectanceAt } from "../study/reflectanceCsv.js";
 import { DIAG_LENGTH, ESCAPE_ANGLE_BINS, MAX_PASSES } from "./tallyLayout.js";
 import { CH_R_ESCAPE, CH_R_FIRST, CH_T_ESCAPE, CH_T_FIRST, channelNamesOfStack } from "./channels.js";
 import { BRANCH_SLOTS, MAX_BRANCHES } from "./branches.js";
 import { STATE_LENGTH } from "./rayState.js";
+import { chooseEstimator } from "./estimatorChoice.js";
 import {
   REAR_IDEAL_LAMBERTIAN,
   REAR_IDEAL_MIRROR,
@@ -26,16 +27,16 @@ export interface MaterialSource {
 }
 
 export interface CompileOptions {
-  /** Default "expected" (chosen by measured variance per unit time, see trace-DEVELOPERS.md). */
+  /** Default: chosen per wavelength from the absorber's αW and the stack (estimatorChoice.ts). */
   estimator?: Estimator;
   /** Interface events per ray before the rest of its weight goes to `unresolved` (default 10000). */
   maxEvents?: number;
-  /** Expected-value mode: weight below which absorption turns analog (default 0.02 where the absorber's αW ≥ 0.5, else 0.2). */
+  /** Expected-value mode: weight below which absorption turns analog (default per wavelength, estimatorChoice.ts). */
   rouletteWeight?: number;
   /**
    * Expected-value mode: an interface event on the way in splits the ray into its reflected and
    * transmitted parts when both weigh at least this much (0 = never split, sample the branch).
-   * Default 0.01 where the absorber's single-pass optical depth αW ≥ 0.1, else 0.
+   * Default per wavelength and front (estimatorChoice.ts).
    */
   splitMinWeight?: number;
   /** Rows of the interface tables over cosθ (default 1024). */
@@ -47,35 +48,7 @@ export interface CompileOptions {
   depthEdgesUm?: Float64Array | number[];
 }
 
-export const DEFAULT_ESTIMATOR: Estimator = "expected";
 export const DEFAULT_MAX_EVENTS = 10000;
-export const DEFAULT_SPLIT_MIN_WEIGHT = 0.01;
-/** Single-pass optical depth αW of the absorber from which the first pass is split by default. */
-export const SPLIT_MIN_OPTICAL_DEPTH = 0.1;
-/** Roulette weight where one pass through the absorber is optically thick (αW ≥ ROULETTE_OPAQUE_DEPTH). */
-export const OPAQUE_ROULETTE_WEIGHT = 0.02;
-export const ROULETTE_OPAQUE_DEPTH = 0.5;
-
-/**
- * Roulette weight per wavelength: where a pass through the absorber takes most of the light, the few
- * passes a ray makes are cheap to follow with expected weights down to 0.02 (at 1000 nm on the bench
- * case the merit grows about 5× against 0.2); in the light-trapping tail long weighted paths cost
- * more than they save, and 0.2 is best (measured in `npm run bench`, DEVELOPERS.md "Tracer efficiency").
- */
-function defaultRouletteWeight(singlePassDepth: number): number {
-  return singlePassDepth >= ROULETTE_OPAQUE_DEPTH ? OPAQUE_ROULETTE_WEIGHT : DEFAULT_ROULETTE_WEIGHT;
-}
-
-/**
- * The per-wavelength estimator choice: first-pass splitting where one pass through the absorber
- * takes a fair share of the light (αW ≥ 0.1), so the first reflection dominates the variance;
- * not in the weakly absorbing tail, where each split branch would run the whole light trap
- * (measured in `npm run bench`, DEVELOPERS.md "Tracer efficiency").
- */
-function defaultSplitMinWeight(singlePassDepth: number): number {
-  return singlePassDepth >= SPLIT_MIN_OPTICAL_DEPTH ? DEFAULT_SPLIT_MIN_WEIGHT : 0;
-}
-export const DEFAULT_ROULETTE_WEIGHT = 0.2;
 
 /**
  * Prepares a stack for tracing at one wavelength: n, k, α per medium, interface tables for every
@@ -172,6 +145,7 @@ export function compileStack(
   const rearOpaque = isIdealRear(stack.rear) || (metalExit && nRear === 0) || rl.backsheetReflectance >= 0;
 
   const depthEdges = options.depthEdgesUm === undefined ? null : checkDepthEdges(options.depthEdgesUm);
+  const choice = chooseEstimator(mediumAlphaPerUm[ABS] * thicknessUm, frontTile.kind === SURFACE_PLANAR && outerTile === null, nLayers > 0 || nRear > 0);
   return {
     stack,
     wavelengthNm,
@@ -205,10 +179,10 @@ export function compileStack(
     chAbsorber: ch("A_absorber"),
     chRear: ch("A_rear"),
     chUnresolved: ch("unresolved"),
-    estimator: options.estimator ?? DEFAULT_ESTIMATOR,
-    rouletteWeight: options.rouletteWeight ?? defaultRouletteWeight(mediumAlphaPerUm[nLayers + 1] * thicknessUm),
+    estimator: options.estimator ?? choice.estimator,
+    rouletteWeight: options.rouletteWeight ?? choice.rouletteWeight,
     maxEvents: options.maxEvents ?? DEFAULT_MAX_EVENTS,
-    splitMinWeight: options.splitMinWeight ?? defaultSplitMinWeight(mediumAlphaPerUm[nLayers + 1] * thicknessUm),
+    splitMinWeight: options.splitMinWeight ?? choice.splitMinWeight,
     branches: new Float64Array(MAX_BRANCHES * BRANCH_SLOTS),
     scratchRow: new Float64Array(4 + 2 * 64),
     contrib: new Float64Array(channels.length),

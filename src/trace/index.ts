@@ -1,4 +1,5 @@
-export { compileStack, DEFAULT_ESTIMATOR, DEFAULT_MAX_EVENTS, DEFAULT_ROULETTE_WEIGHT, DEFAULT_SPLIT_MIN_WEIGHT, OPAQUE_ROULETTE_WEIGHT, ROULETTE_OPAQUE_DEPTH, SPLIT_MIN_OPTICAL_DEPTH, type CompileOptions, type MaterialSource } from "./compile.js";
+export { compileStack, DEFAULT_MAX_EVENTS, type CompileOptions, type MaterialSource } from "./compile.js";
+export { chooseEstimator, DEFAULT_SPLIT_MIN_WEIGHT, OPAQUE_DEPTH, OPAQUE_ROULETTE_WEIGHT, TRAP_ROULETTE_WEIGHT, type EstimatorChoice } from "./estimatorChoice.js";
 export type { CompiledStack, CompiledInterface, Estimator } from "./compiledStack.js";
 export { channelNames, channelNamesOfStack } from "./channels.js";
 export { traceBatch, type Polarization } from "./kernel.js";

@@ -3,8 +3,8 @@ import { lookupInterface } from "../optics/interfaceTable.js";
 import type { CompiledInterface, CompiledStack } from "./compiledStack.js";
 import { rouletteCheck } from "./bulkTransport.js";
 import { canBranch, pushBranch } from "./branches.js";
-import { ANALOG, DIED, ENTERED, EP, ES, SPLIT, DX, DY, DZ, EX, EY, EZ, NX, NY, NZ, PA, PB, REFLECT, SX, SY, SZ, TRANSMIT, W } from "./rayState.js";
-import { rearExitChannel } from "./history.js";
+import { ANALOG, DIED, ENTERED, EP, ES, INCIDENT, SPLIT, DX, DY, DZ, EX, EY, EZ, NX, NY, NZ, PA, PB, REFLECT, SX, SY, SZ, TRANSMIT, W } from "./rayState.js";
+import { FACE_REAR, rearExitChannel } from "./history.js";
 
 /**
  * Scattering at an interface with films, normal N (state NX..NZ) pointing into the upper medium.
@@ -107,11 +107,12 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
       return DIED;
     }
     const pR = Rpow / (Rpow + pT);
-    // Split on the way in (events from above before the ray first reaches the absorber): the
-    // reflected part waits as a branch, the transmitted part goes on now. The light's first
-    // reflection, the largest loss at most wavelengths, is then an expected value instead of a
-    // coin toss; later events stay sampled, where splitting would grow trees of little weight.
-    if (!up && st[ENTERED] === 0 && wNew * (pR < 0.5 ? pR : 1 - pR) >= cs.splitMinWeight && cs.splitMinWeight > 0 && canBranch(st)) {
+    // Split on the way in (events met travelling away from the side the light came from, before the
+    // ray first reaches the absorber): the reflected part waits as a branch, the transmitted part
+    // goes on now. The light's first reflection, the largest loss at most wavelengths, is then an
+    // expected value instead of a coin toss; later events stay sampled, where splitting would grow
+    // trees of little weight.
+    if (up === (st[INCIDENT] === FACE_REAR) && st[ENTERED] === 0 && wNew * (pR < 0.5 ? pR : 1 - pR) >= cs.splitMinWeight && cs.splitMinWeight > 0 && canBranch(st)) {
       reflectInto(st, row);
       st[W] = wNew * pR;
       pushBranch(cs, st);

@@ -44,7 +44,7 @@ describe("lightfold converge", () => {
     expect(rep.format).toBe("lightfold.convergence");
     expect(rep.mode).toBe("spectral");
     expect(rep.thetaDeg).toBe(30);
-    expect(rep.tracerEstimator).toBe("expected");
+    expect(rep.tracerEstimator).toBe("default");
     expect(JSON.parse(readFileSync(join(out, "convergence.json"), "utf8"))).toEqual(rep);
     const lines = readFileSync(csv, "utf8").trim().split("\n");
     expect(lines[0]).toBe(CONVERGENCE_CSV_COLUMNS.join(","));

@@ -98,6 +98,22 @@ describe("rear layers and light from the rear", () => {
     }
   });
 
+  it("splits light from the rear on its way in, as light from the front: the first reflection is an expected value", () => {
+    // Mirror symmetry (as above): T_first lit from the rear equals R_first lit from the front. At
+    // 600 nm one pass through the wafer takes everything (αW ≫ 0.5), so the default estimator splits
+    // the way in from either side (src/trace/estimatorChoice.ts) and the first reflection carries
+    // almost no sampling error: far below the analog error √(p(1 − p)/n).
+    const stack = symmetricStack({ type: "planar" });
+    const n = 4000;
+    const front = trace(stack, "front", { wavelengthNm: 600, nRays: n }).get("R_first");
+    const rear = trace(stack, "rear", { wavelengthNm: 600, nRays: n }).get("T_first");
+    expect(front.mean).toBeGreaterThan(0.01);
+    expectWithin4Sigma("T_first from the rear vs R_first from the front", { mean: rear.mean - front.mean, se: Math.hypot(rear.se, front.se) + 1e-9 }, 0);
+    const analogSe = Math.sqrt((rear.mean * (1 - rear.mean)) / n);
+    expect(rear.se).toBeLessThan(0.1 * analogSe);
+    expect(front.se).toBeLessThan(0.1 * analogSe);
+  });
+
   it("conserves energy with rear layers, films on their outer faces and every rear boundary", () => {
     // Σ channels = 1 per ray (energy conservation; docs/contracts.md "Channels sum to 1 per point")
     const base = symmetricStack({ type: "upright-pyramids", baseUm: 8, facetAngleDeg: 54.74 });

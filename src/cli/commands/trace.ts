@@ -44,7 +44,7 @@ export function register(program: Command): void {
     .option("--rays <n>", "number of rays", "100000")
     .option("--seed <n>", "seed of the random stream (default: the study's seed)")
     .option("--polarization <kind>", "unpolarized, s or p (relative to the plane of incidence)", "unpolarized")
-    .option("--estimator <kind>", "expected (expected-value weights) or analog", "expected")
+    .option("--estimator <kind>", "default (chosen per wavelength), expected (expected-value weights) or analog", "default")
     .option("--sampling <kind>", "launch sampling: random or sobol (16 scrambled Sobol' replicas; default: the study's rays.sampling)")
     .option("--combo <i>", "sweep combination index (0 = first)", "0")
     .option("--json", "print the result as JSON")
@@ -73,10 +73,10 @@ Below the channels: the power that entered the absorber, the fraction of it stil
       if (!["unpolarized", "s", "p"].includes(opts.polarization)) {
         throw new InputError(`--polarization: expected unpolarized, s or p, got "${opts.polarization}"`, "e.g. --polarization s");
       }
-      if (opts.estimator !== "expected" && opts.estimator !== "analog") {
+      if (opts.estimator !== "default" && opts.estimator !== "expected" && opts.estimator !== "analog") {
         throw new InputError(
-          `--estimator: expected "expected" or "analog", got "${opts.estimator}"`,
-          "expected (expected-value weights, the default) or analog, e.g. --estimator analog",
+          `--estimator: expected "default", "expected" or "analog", got "${opts.estimator}"`,
+          "default (the tracer's choice at this wavelength), expected (expected-value weights) or analog, e.g. --estimator analog",
         );
       }
       const loaded = loadStudy(studyPath);
@@ -86,7 +86,7 @@ Below the channels: the power that entered the absorber, the fraction of it stil
 
       let cs;
       try {
-        cs = compileStack(combo.study, loaded.registry, wavelengthNm, { estimator: opts.estimator as Estimator });
+        cs = compileStack(combo.study, loaded.registry, wavelengthNm, { estimator: opts.estimator === "default" ? undefined : (opts.estimator as Estimator) });
       } catch (err) {
         if (err instanceof InputError) throw new InputError(`${studyPath}: at ${wavelengthNm} nm: ${err.message}`, err.hint);
         throw err;

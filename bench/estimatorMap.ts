@@ -1,0 +1,141 @@
+import { join } from "node:path";
+import { loadStudy } from "../src/study/load.js";
+import type { Study } from "../src/study/studyTypes.js";
+import { RandomStream, streamKey } from "../src/random/stream.js";
+import { compileStack, type CompileOptions } from "../src/trace/compile.js";
+import type { CompiledStack } from "../src/trace/compiledStack.js";
+import { traceBatch } from "../src/trace/kernel.js";
+import { createTally, summarizeTally } from "../src/trace/tally.js";
+import { summarizeTrapping } from "../src/trace/trappingSummary.js";
+import { packageRoot } from "../src/util/packageRoot.js";
+import { loadavg } from "node:os";
+
+/** The studies the demo traces (demo/main.ts), each combination and light side. */
+export const DEMO_STUDY_FILES = ["configs/demo-random-pyramids.study.json", "configs/demo-planar.study.json", "configs/glass-glass-bifacial.study.json"];
+
+/** Per-ray mean and variance of the exit channel (R from the front, the rear exit from the rear) and of A_absorber, and CPU µs per ray. */
+interface PointRun {
+  usPerRay: number;
+  exit: number;
+  varExit: number;
+  a: number;
+  varA: number;
+}
+
+/** Merit of the default estimator over the analog one at one grid point: FOM_default / FOM_analog per channel. */
+export interface PointMerit {
+  thetaDeg: number;
+  wavelengthNm: number;
+  exit: number;
+  absorber: number;
+}
+
+const ANALOG: CompileOptions = { estimator: "analog" };
+const DEFAULT: CompileOptions = {};
+
+function runPoint(cs: CompiledStack, study: Study, thetaDeg: number, wavelengthNm: number, nRays: number, rounds: number): PointRun {
+  const side = study.lightFrom ?? "front";
+  const phi = study.grid.phiMode === "averaged" ? null : study.grid.phiDeg[0];
+  let us = Infinity;
+  let run: PointRun = { usPerRay: 0, exit: 0, varExit: 0, a: 0, varA: 0 };
+  for (let k = 0; k < rounds; k++) {
+    const t = createTally(cs);
+    const c0 = process.cpuUsage();
+    traceBatch(cs, thetaDeg, phi, nRays, new RandomStream(streamKey(study.seed, "merit", thetaDeg, wavelengthNm)), t, "unpolarized", side);
+    const c = process.cpuUsage(c0);
+    us = Math.min(us, (c.user + c.system) / nRays);
+    const s = summarizeTally(cs.channels, t);
+    const tr = summarizeTrapping(t, cs.channels.length);
+    const exit = side === "rear" ? tr.transmissionTotal : tr.reflectionTotal;
+    const ia = cs.channels.indexOf("A_absorber");
+    run = { usPerRay: us, exit: exit.mean, varExit: exit.stderr ** 2 * nRays, a: s.mean[ia], varA: s.stderr[ia] ** 2 * nRays };
+  }
+  return run;
+}
+
+function bernoulli(p: number): number {
+  return p > 0 && p < 1 ? p * (1 - p) : 0;
+}
+
+/** FOM ratio default/analog = (var_a·t_a)/(var_d·t_d); equal variances of zero count as 1. */
+function meritRatio(analogVar: number, analogUs: number, defaultVar: number, defaultUs: number): number {
+  if (analogVar === 0 && defaultVar === 0) return 1;
+  if (defaultVar === 0) return Infinity;
+  return (analogVar * analogUs) / (defaultVar * defaultUs);
+}
+
+/** Default-over-analog merit at every (θ, λ) of one study combination (the first azimuth, or random azimuths). */
+export function studyMerits(study: Study, registry: Parameters<typeof compileStack>[1], nRays: number, rounds: number): PointMerit[] {
+  const out: PointMerit[] = [];
+  const only = (process.env.LIGHTFOLD_BENCH_MERIT_WAVELENGTHS ?? "").split(",").filter((x) => x.trim() !== "").map(Number);
+  for (const wavelengthNm of study.grid.wavelengthNm) {
+    if (only.length > 0 && !only.includes(wavelengthNm)) continue;
+    const analog = compileStack(study.stack, registry, wavelengthNm, ANALOG);
+    const dflt = compileStack(study.stack, registry, wavelengthNm, DEFAULT);
+    for (const thetaDeg of study.grid.thetaDeg) {
+      if (dflt.estimator === "analog") {
+        // the default is the analog estimator here: the same rays, the same merit
+        out.push({ thetaDeg, wavelengthNm, exit: 1, absorber: 1 });
+        continue;
+      }
+      // interleaved, so a change of machine load hits both alike
+      const a = runPoint(analog, study, thetaDeg, wavelengthNm, nRays, 1);
+      const d = runPoint(dflt, study, thetaDeg, wavelengthNm, nRays, 1);
+      const a2 = runPoint(analog, study, thetaDeg, wavelengthNm, nRays, rounds);
+      const d2 = runPoint(dflt, study, thetaDeg, wavelengthNm, nRays, rounds);
+      const aUs = Math.min(a.usPerRay, a2.usPerRay);
+      const dUs = Math.min(d.usPerRay, d2.usPerRay);
+      // An analog ray puts its whole power in one channel, so a channel's per-ray variance is p(1 − p);
+      // p from the default run's sharper mean (a rare channel may show no analog ray at all).
+      out.push({
+        thetaDeg,
+        wavelengthNm,
+        exit: meritRatio(bernoulli(d.exit), aUs, d.varExit, dUs),
+        absorber: meritRatio(bernoulli(d.a), aUs, d.varA, dUs),
+      });
+    }
+  }
+  return out;
+}
+
+function worst(m: PointMerit[], key: "exit" | "absorber"): PointMerit {
+  return m.reduce((a, b) => (b[key] < a[key] ? b : a));
+}
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+/**
+ * Default estimator against lightfold's analog one at every grid point of the demo studies (front,
+ * and rear for the bifacial study): FOM ratio per point for the exit channel (R, or the rear exit
+ * when lit from the rear) and A_absorber. LIGHTFOLD_BENCH_MERIT_RAYS rays per run (default 4000),
+ * CPU time the least of interleaved runs; LIGHTFOLD_BENCH_MERIT_WAVELENGTHS=1050,1100 keeps only those
+ * grid wavelengths.
+ */
+export async function runEstimatorMapBench(): Promise<void> {
+  const nRays = Number(process.env.LIGHTFOLD_BENCH_MERIT_RAYS ?? "4000");
+  process.stdout.write(
+    `estimators at every point of the demo studies: FOM(default)/FOM(analog), ${nRays} rays per run; load average ${loadavg()[0].toFixed(1)}\n`,
+  );
+  process.stdout.write("  study / light                  points   exit: min (θ, λ)        median   A_absorber: min (θ, λ)  median   points < 1\n");
+  for (const file of DEMO_STUDY_FILES) {
+    const loaded = loadStudy(join(packageRoot(), file));
+    for (const combo of loaded.combos) {
+      const study = combo.study;
+      const m = studyMerits(study, loaded.registry, nRays, 2);
+      const we = worst(m, "exit");
+      const wa = worst(m, "absorber");
+      const below = m.filter((p) => p.exit < 1 || p.absorber < 1);
+      const where = (p: PointMerit): string => `(${p.thetaDeg}°, ${p.wavelengthNm} nm)`.padEnd(16);
+      process.stdout.write(
+        `  ${`${loaded.name} / ${study.lightFrom ?? "front"}`.padEnd(30)} ${String(m.length).padStart(6)}   ${we.exit.toFixed(2).padStart(5)} ${where(we)} ${median(m.map((p) => p.exit)).toFixed(2).padStart(6)}` +
+          `   ${wa.absorber.toFixed(2).padStart(5)} ${where(wa)} ${median(m.map((p) => p.absorber)).toFixed(2).padStart(6)}   ${below.length}\n`,
+      );
+      for (const p of below.slice(0, 8)) {
+        process.stdout.write(`      below 1 at θ ${p.thetaDeg}°, λ ${p.wavelengthNm} nm: exit ${p.exit.toFixed(2)}, A_absorber ${p.absorber.toFixed(2)}\n`);
+      }
+    }
+  }
+}

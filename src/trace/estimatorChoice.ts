@@ -1,0 +1,44 @@
+import type { Estimator } from "./compiledStack.js";
+
+/**
+ * The default estimator of one grid point, chosen from the absorber's single-pass optical depth αW
+ * and the shape of the stack. Every rule was measured with `npm run bench` (parts "trace" and
+ * "merit": the figure of merit 1/(SE² × CPU time) of R and A_absorber against the analog estimator
+ * at every point of the demo studies; DEVELOPERS.md "Tracer efficiency").
+ */
+export interface EstimatorChoice {
+  estimator: Estimator;
+  /** Expected-value mode: below this weight a ray continues with analog absorption. */
+  rouletteWeight: number;
+  /** Expected-value mode: least weight of both parts for a split on the way in (0 = never split). */
+  splitMinWeight: number;
+}
+
+/** From this αW on one pass takes most of the light; below it lies the light-trapping tail. */
+export const OPAQUE_DEPTH = 0.5;
+export const OPAQUE_ROULETTE_WEIGHT = 0.02;
+export const TRAP_ROULETTE_WEIGHT = 0.5;
+/** Both parts of a split on the way in weigh at least this much (a first reflection of 0.3 % still splits). */
+export const DEFAULT_SPLIT_MIN_WEIGHT = 0.001;
+
+/**
+ * - Where αW ≥ 0.5: expected value, roulette at weight 0.02 (the few passes are cheap to follow), and
+ *   splitting on the way in, so the first reflection, the largest variance there, is an expected value.
+ * - In the trapping tail (αW < 0.5) rays run long and weighted paths cost more than they save:
+ *   roulette at weight 0.5 already, and splitting only when the light meets a planar front (its
+ *   reflected part just leaves; on a texture it re-enters through the next facet and runs the whole
+ *   light trap a second time).
+ * - Analog in the trapping tail of a module (thick layers in front of or behind the absorber): light
+ *   leaving the cell is partly sent back by the glass, the escape stays a long chain of sampled
+ *   events, and weighted absorption lost R up to 40 % of its merit at 1050–1150 nm on the glass–glass
+ *   demo stack.
+ * The weights are set in every case, for a caller who asks for expected value where analog is the default.
+ */
+export function chooseEstimator(singlePassDepth: number, plainFront: boolean, hasThickLayers: boolean): EstimatorChoice {
+  const opaque = singlePassDepth >= OPAQUE_DEPTH;
+  return {
+    estimator: !opaque && hasThickLayers ? "analog" : "expected",
+    rouletteWeight: opaque ? OPAQUE_ROULETTE_WEIGHT : TRAP_ROULETTE_WEIGHT,
+    splitMinWeight: opaque || plainFront ? DEFAULT_SPLIT_MIN_WEIGHT : 0,
+  };
+}
