@@ -14,7 +14,7 @@ const FEW_NM = [400, 500, 600, 700, 800];
 const THICKNESS_UM = 180;
 
 /** Planar single-layer ARC of constant n = 2.0 on bare Si; the rear absorbs everything (ideal mirror, R = 0). */
-function arcDocument(perPoint: number, seed = 11, wavelengthNm = WAVELENGTHS_NM): StudyDocument {
+function arcDocument(perPoint: number, seed = 11, wavelengthNm = WAVELENGTHS_NM, thetaDeg = 0): StudyDocument {
   return {
     doc: {
       name: "arc-n2",
@@ -25,7 +25,7 @@ function arcDocument(perPoint: number, seed = 11, wavelengthNm = WAVELENGTHS_NM)
         absorber: { material: "Si", thicknessUm: THICKNESS_UM },
         rear: { ideal: { kind: "mirror", reflectance: 0 } },
       },
-      grid: { thetaDeg: [0], phiDeg: [0], wavelengthNm },
+      grid: { thetaDeg: [thetaDeg], phiDeg: [0], wavelengthNm },
       rays: { perPoint, batch: 50 },
       seed,
     },
@@ -36,29 +36,32 @@ function arcDocument(perPoint: number, seed = 11, wavelengthNm = WAVELENGTHS_NM)
 
 /**
  * Deterministic reference: the same discretised objective from the transfer-matrix method (Macleod,
- * Thin-Film Optical Filters, ch. 2; src/optics), J(d) = Σ w_λ T(d, λ) (1 − e^{−α W}) with the same
- * photocurrent bin weights; light entering the wafer is absorbed by Beer–Lambert on one pass.
+ * Thin-Film Optical Filters, ch. 2; src/optics), J(d) = Σ w_λ T(d, λ) (1 − e^{−α W / cos θt}) with
+ * the same photocurrent bin weights, T unpolarised (mean of s and p); light entering the wafer is
+ * absorbed by Beer–Lambert on one pass along the refracted direction (Snell, real index).
  */
-function referenceJsc(thicknessNm: number, grid = WAVELENGTHS_NM): number {
+function referenceJsc(thicknessNm: number, grid = WAVELENGTHS_NM, thetaDeg = 0): number {
   const si = MaterialRegistry.withBuiltins().get("Si");
   const w = photocurrentWeights(grid, astmG173("global"));
+  const sinT = Math.sin((thetaDeg * Math.PI) / 180);
   let j = 0;
   grid.forEach((l, i) => {
     const nk = si.nk(l);
-    const r = filmStack(1, [{ n: 2, k: 0, thicknessNm }], nk, l, 1);
+    const r = filmStack(1, [{ n: 2, k: 0, thicknessNm }], nk, l, Math.cos((thetaDeg * Math.PI) / 180));
     const t = 0.5 * (r.Ts + r.Tp);
     const alphaPerUm = (4 * Math.PI * nk.k) / (l * 1e-3);
-    j += w[i] * t * (1 - Math.exp(-alphaPerUm * THICKNESS_UM));
+    const cosT = Math.sqrt(1 - (sinT / nk.n) ** 2);
+    j += w[i] * t * (1 - Math.exp((-alphaPerUm * THICKNESS_UM) / cosT));
   });
   return j;
 }
 
 /** Golden-section maximum of the smooth deterministic reference on [a, b]. */
-function referenceOptimum(a: number, b: number, grid = WAVELENGTHS_NM): number {
+function referenceOptimum(a: number, b: number, grid = WAVELENGTHS_NM, thetaDeg = 0): number {
   const g = (Math.sqrt(5) - 1) / 2;
   while (b - a > 1e-6) {
     const c = b - g * (b - a), d = a + g * (b - a);
-    if (referenceJsc(c, grid) >= referenceJsc(d, grid)) b = d;
+    if (referenceJsc(c, grid, thetaDeg) >= referenceJsc(d, grid, thetaDeg)) b = d;
     else a = c;
   }
   return (a + b) / 2;
@@ -109,14 +112,17 @@ describe("optimize over a study (planar ARC, n = 2.0, on Si; AM1.5G; normal inci
   });
 });
 
-describe("replica study (planar ARC, few rays)", () => {
+describe("replica study (planar ARC, few rays, 45°)", () => {
   it("the 90 % interval of independent optimisations covers the transfer-matrix optimum at its nominal rate (binomial error)", async () => {
-    const dStar = referenceOptimum(40, 120, FEW_NM);
+    // At 45° s and p differ, so each ray's random line of polarisation makes the (split, expected-value)
+    // objective noisy; at normal incidence it would be exact up to the interface table.
+    const dStar = referenceOptimum(40, 120, FEW_NM, 45);
+    const jsc45: ObjectiveSpec = { ...JSC, thetaDeg: 45 };
     const K = 20;
     const level = 0.9;
     let covered = 0;
     for (let k = 0; k < K; k++) {
-      const { objective } = studyObjective({ base: arcDocument(300, 1000 + k, FEW_NM), params: [ARC], objective: JSC, pool });
+      const { objective } = studyObjective({ base: arcDocument(300, 1000 + k, FEW_NM, 45), params: [ARC], objective: jsc45, pool });
       const r = await optimize(objective, { lower: [40], upper: [120], replicas: 4, level });
       if (r.locationInterval[0][0] <= dStar && dStar <= r.locationInterval[0][1]) covered++;
     }
