@@ -74,5 +74,6 @@ export function formatStudySummary(s: LoadedStudy, sum: StudySummary): string[] 
     lines.push(`rays       until SE(${r.channels.join(", ")}) < ${r.targetStdErr}, ${r.minPerPoint}–${r.maxPerPoint} per point in batches of ${r.batch}`);
     lines.push(`work       ${sum.points} points, ${sum.tasksMin}–${sum.tasksMax} tasks, ${sum.raysMin.toExponential(3)}–${sum.raysMax.toExponential(3)} rays`);
   }
+  if (r.sampling === "sobol") lines.push("sampling   Sobol' launch points (randomized quasi-Monte Carlo); standard errors from 16 replica groups");
   return lines;
 }

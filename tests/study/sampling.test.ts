@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { loadStudyFromDocument } from "../../src/study/load.js";
+import { formatStudySummary, summarizeStudy } from "../../src/study/summary.js";
 import { InputError } from "../../src/util/errors.js";
 import { baseDoc } from "./baseDoc.js";
 
@@ -34,5 +35,14 @@ describe('rays.sampling ("random" | "sobol")', () => {
     expect(rays.mode === "target" && rays.minPerPoint).toBe(1600);
     const plain = load({ targetStdErr: 0.01, channels: ["A_absorber"], maxPerPoint: 5000, batch: 100 }).combos[0].study.rays;
     expect(plain.mode === "target" && plain.minPerPoint).toBe(200);
+  });
+
+  it("is named in the check summary when it is Sobol'", () => {
+    const text = (rays: Record<string, unknown>): string => {
+      const l = load(rays);
+      return formatStudySummary(l, summarizeStudy(l)).join("\n");
+    };
+    expect(text({ perPoint: 1600, batch: 100, sampling: "sobol" })).toMatch(/sampling +Sobol' launch points .* 16 replica groups/);
+    expect(text({ perPoint: 1600, batch: 100 })).not.toMatch(/Sobol/);
   });
 });
