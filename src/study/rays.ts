@@ -34,3 +34,16 @@ export function parseRays(o: RawRays, path: string): RaysPlan {
   if (sobol && Math.ceil(minPerPoint / batch) < MIN_REPLICAS) throw tooFew(o.minPerPoint === undefined ? "maxPerPoint" : "minPerPoint", minPerPoint, batch);
   return { mode: "target", targetStdErr, channels: [...channels], maxPerPoint, minPerPoint, batch, ...sampling };
 }
+
+/**
+ * The rays plan with another launch sampling, checked as the study file would be (at least
+ * MIN_REPLICAS batches for Sobol'); a target-error plan whose minPerPoint was the default of its
+ * sampling gets the default of the new one.
+ */
+export function withSampling(rays: RaysPlan, sampling: LaunchSampling, path: string): RaysPlan {
+  const s = sampling === "sobol" ? { sampling } : {};
+  if (rays.mode === "fixed") return parseRays({ perPoint: rays.perPoint, batch: rays.batch, ...s }, path);
+  const defaultMin = Math.min((rays.sampling === "sobol" ? REPLICA_GROUPS : 2) * rays.batch, rays.maxPerPoint);
+  const minPerPoint = rays.minPerPoint === defaultMin ? {} : { minPerPoint: rays.minPerPoint };
+  return parseRays({ targetStdErr: rays.targetStdErr, channels: rays.channels, maxPerPoint: rays.maxPerPoint, batch: rays.batch, ...minPerPoint, ...s }, path);
+}

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { loadStudyFromDocument } from "../../src/study/load.js";
 import { formatStudySummary, summarizeStudy } from "../../src/study/summary.js";
+import { withSampling } from "../../src/study/rays.js";
 import { InputError } from "../../src/util/errors.js";
 import { baseDoc } from "./baseDoc.js";
 
@@ -44,5 +45,16 @@ describe('rays.sampling ("random" | "sobol")', () => {
     };
     expect(text({ perPoint: 1600, batch: 100, sampling: "sobol" })).toMatch(/sampling +Sobol' launch points .* 16 replica groups/);
     expect(text({ perPoint: 1600, batch: 100 })).not.toMatch(/Sobol/);
+  });
+
+  it("withSampling (sweep --sampling) switches a plan the way the study file would, defaults included", () => {
+    const fixed = load({ perPoint: 1600, batch: 100 }).combos[0].study.rays;
+    expect(withSampling(fixed, "sobol", "rays")).toEqual({ mode: "fixed", perPoint: 1600, batch: 100, sampling: "sobol" });
+    expect(withSampling(withSampling(fixed, "sobol", "rays"), "random", "rays")).toEqual(fixed);
+    const target = load({ targetStdErr: 0.01, channels: ["A_absorber"], maxPerPoint: 5000, batch: 100 }).combos[0].study.rays;
+    const sobol = withSampling(target, "sobol", "rays");
+    expect(sobol.mode === "target" && sobol.minPerPoint).toBe(1600);
+    expect(withSampling(sobol, "random", "rays")).toEqual(target);
+    expect(() => withSampling(load({ perPoint: 400, batch: 100 }).combos[0].study.rays, "sobol", "rays")).toThrow(/at least 8 batches/);
   });
 });

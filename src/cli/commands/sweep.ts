@@ -2,7 +2,9 @@ import { makeReport } from "../../report/makeReport.js";
 import { basename, join } from "node:path";
 import type { Command } from "commander";
 import { loadStudy, withOverrides } from "../../study/load.js";
-import { parseRays } from "../../study/rays.js";
+import { parseRays, withSampling } from "../../study/rays.js";
+import { samplingFlag } from "../samplingFlag.js";
+import type { RaysPlan } from "../../study/studyTypes.js";
 import { InputError } from "../../util/errors.js";
 import { createProgressReporter } from "../../sweep/progressReporter.js";
 import { runSweep } from "../../sweep/runSweep.js";
@@ -26,6 +28,17 @@ interface SweepFlags {
   targetError?: string;
   channels?: string;
   maxRays?: string;
+  sampling?: string;
+}
+
+/** A rays plan built from flags; a refusal names the flag that caused it. */
+function flagRays(build: () => RaysPlan, flag: string): RaysPlan {
+  try {
+    return build();
+  } catch (err) {
+    if (err instanceof InputError) throw new InputError(`${flag}: ${err.message}`, err.hint);
+    throw err;
+  }
 }
 
 /** Default run directory: runs/<study file name without .study.json>. */
@@ -50,6 +63,7 @@ export function register(program: Command): void {
     .option("--target-error <se>", "per point, add batches until the standard error of each --channels entry is below <se>")
     .option("--channels <list>", "channels for --target-error, comma-separated (default: A_absorber)")
     .option("--max-rays <n>", "most rays per point with --target-error (default: 200000)")
+    .option("--sampling <kind>", "launch sampling, random or sobol, instead of the study's rays.sampling (part of the run hash)")
     .option("--no-report", "do not write <out>/report/index.html at the end")
     .option("--quiet", "no progress output")
     .option("--json", "print the final summary as JSON")
@@ -61,12 +75,18 @@ Examples:
   lightfold sweep configs/bench-pyramids.study.json --out runs/bench --workers 8
   lightfold sweep my.study.json --out /scratch/run1 --shard 3/16     then: lightfold merge /scratch/run1 --out /scratch/run1/merged
   lightfold sweep my.study.json --target-error 0.002 --channels A_absorber,R
+  lightfold sweep my.study.json --sampling sobol     (randomized quasi-Monte Carlo launch; needs ≥ 8 batches per point)
 
 Interrupted runs (Ctrl-C, kill -9, a pre-empted job) resume from <out>/journal.jsonl when started again
 with the same study; a changed study sets the old journal aside and starts afresh.`,
     )
     .action(async (studyPath: string, flags: SweepFlags) => {
       let study = loadStudy(studyPath);
+      const sampling = samplingFlag(flags.sampling);
+      if (sampling !== undefined) {
+        const rays = flagRays(() => withSampling(study.combos[0].study.rays, sampling, "rays"), `--sampling ${sampling}`);
+        study = withOverrides(study, { rays });
+      }
       if (flags.targetError !== undefined) {
         const se = Number(flags.targetError);
         if (!(se > 0 && se < 0.5)) throw new InputError(
@@ -77,7 +97,10 @@ with the same study; a changed study sets the old journal aside and starts afres
         const maxPerPoint = flags.maxRays === undefined ? 200_000 : positiveInt(flags.maxRays, "--max-rays", 1e9);
         const channels = (flags.channels ?? (base.mode === "target" ? base.channels.join(",") : "A_absorber")).split(",").map((c) => c.trim()).filter((c) => c !== "");
         // The study's launch sampling is kept; Sobol' sampling starts with one batch per replica group.
-        const rays = parseRays({ targetStdErr: se, channels, maxPerPoint, batch: base.batch, ...(base.sampling !== undefined ? { sampling: base.sampling } : {}) }, "rays");
+        const rays = flagRays(
+          () => parseRays({ targetStdErr: se, channels, maxPerPoint, batch: base.batch, ...(base.sampling !== undefined ? { sampling: base.sampling } : {}) }, "rays"),
+          "--target-error",
+        );
         study = withOverrides(study, { rays });
       } else if (flags.channels !== undefined || flags.maxRays !== undefined) {
         throw new InputError("--channels and --max-rays go with --target-error", "e.g. --target-error 0.002 --channels A_absorber,R --max-rays 200000");
