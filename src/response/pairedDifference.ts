@@ -13,20 +13,19 @@ export interface PairedDifference {
 /**
  * Paired variance of the difference of the means of channel ca of A and cb of B at matrix point q
  * (both traced with the same streams per batch; docs/contracts.md, Run directory): Var(Ā) + Var(B̄)
- * − 2 Cov(Ā, B̄) from the pairing groups (pointMoments: the cluster-sampling estimate over groups,
- * K/(K − 1) · Σ f_g² (d_g − D̄)² for the group differences d_g). NaN when fewer than two groups
- * have rays or A and B differ in them.
+ * − 2 Cov(Ā, B̄) from the pairing groups (pointMoments: the cluster-sampling estimate over groups;
+ * with equal groups K/(K − 1) · Σ f_g² (d_g − D̄)² for the group differences d_g). NaN when either
+ * matrix lacks groups or has fewer than two groups with rays at q.
  */
 export function pairedPointVariance(a: ResponseMatrix, ca: number, b: ResponseMatrix, cb: number, q: number): number {
   const G = a.pairGroups;
   if (G === undefined || b.pairGroups !== G || a.groupMean === undefined || b.groupMean === undefined || a.groupRays === undefined || b.groupRays === undefined) return NaN;
-  let K = 0;
+  let kA = 0, kB = 0;
   for (let g = 0; g < G; g++) {
-    const n = a.groupRays[q * G + g];
-    if (n !== b.groupRays[q * G + g]) return NaN;
-    if (n > 0) K++;
+    if (a.groupRays[q * G + g] > 0) kA++;
+    if (b.groupRays[q * G + g] > 0) kB++;
   }
-  if (K < 2) return NaN;
+  if (kA < 2 || kB < 2) return NaN;
   const m = new Float64Array(3);
   pointMoments(a, ca, b, cb, q, m);
   return Math.max(0, m[0] + m[1] - 2 * m[2]);
@@ -61,7 +60,7 @@ export function pairedWeightedDifference(a: ResponseMatrix, b: ResponseMatrix, c
  * yield): run on this matrix, its error is the error of the difference of the functional of A and
  * B. Valid whatever the streams (groups are independent replicas either way); small when both were
  * traced with the same seed and batches (common random numbers). Undefined when the grids differ or
- * a point has no paired error (matrices without pairing groups, or with different batch sizes).
+ * a point has no paired error (matrices without pairing groups, or fewer than two groups with rays).
  */
 export function pairedStderrMatrix(a: ResponseMatrix, b: ResponseMatrix, channel: string): ResponseMatrix | undefined {
   const same = (x: number[], y: number[]): boolean => x.length === y.length && x.every((v, i) => v === y[i]);
