@@ -2,7 +2,10 @@ import { describe, expect, it } from "vitest";
 import { groupStdErr } from "../../src/random/replicaGroups.js";
 import { runSweep } from "../../src/sweep/runSweep.js";
 import { tracePoint } from "../../src/sweep/tracePoint.js";
-import { expectSameMatrices, tinyStudy } from "./helpers.js";
+import { readFileSync, writeFileSync } from "node:fs";
+import { join } from "node:path";
+import { mergeShards } from "../../src/sweep/mergeShards.js";
+import { expectSameMatrices, tempDir, tinyStudy } from "./helpers.js";
 
 // 2 angles × 3 wavelengths, 20 batches of 40 rays per point (groups 0–3 get two batches, 4–15 one).
 const sobolStudy = () => tinyStudy({ rays: { perPoint: 790, batch: 40, sampling: "sobol" } });
@@ -53,6 +56,24 @@ describe("sweeps with Sobol' launch sampling", () => {
     }
     // The weakly absorbing 1100 nm points needed more than the first 16 batches.
     expect(Math.max(...m.nRays)).toBeGreaterThan(16 * 40);
+  });
+
+  it("shards merged and a resumed run equal the full run bit for bit", async () => {
+    // Launch points depend on the batch's coordinates alone (launchPoints.ts), not on who traced it.
+    const study = sobolStudy();
+    const full = await runSweep({ study, workers: 2 });
+    const out = tempDir("sobol-shards");
+    for (let k = 1; k <= 2; k++) await runSweep({ study, outDir: out, workers: 1, shard: { index: k, count: 2 } });
+    expectSameMatrices(full.matrices, mergeShards({ inputs: [out], outDir: join(out, "merged") }).matrices);
+    // A run cut short after its first message, then resumed from its journal.
+    const run = tempDir("sobol-resume");
+    await runSweep({ study, outDir: run, workers: 1, raysPerMessage: 80 });
+    const jPath = join(run, "journal.jsonl");
+    const lines = readFileSync(jPath, "utf8").split("\n").filter((l) => l !== "");
+    writeFileSync(jPath, lines.slice(0, 2).join("\n") + "\n");
+    const resumed = await runSweep({ study, outDir: run, workers: 2 });
+    expect(resumed.raysResumed).toBeGreaterThan(0);
+    expectSameMatrices(full.matrices, resumed.matrices);
   });
 
   it("tracePoint reproduces a sweep point and its replica error", async () => {
