@@ -180,6 +180,7 @@ export function compileStack(
     chRear: ch("A_rear"),
     chUnresolved: ch("unresolved"),
     estimator: options.estimator ?? choice.estimator,
+    analogFromThetaDeg: options.estimator === undefined ? choice.analogFromThetaDeg : Infinity,
     rouletteWeight: options.rouletteWeight ?? choice.rouletteWeight,
     maxEvents: options.maxEvents ?? DEFAULT_MAX_EVENTS,
     splitMinWeight: options.splitMinWeight ?? choice.splitMinWeight,

@@ -81,6 +81,8 @@ export interface CompiledStack {
   chRear: number;
   chUnresolved: number;
   estimator: Estimator;
+  /** From this polar angle of incidence on, an expected-value stack's default traces analog (estimatorChoice.ts); Infinity = never. */
+  analogFromThetaDeg: number;
   /** Expected-value mode: below this weight a ray continues with analog absorption. */
   rouletteWeight: number;
   maxEvents: number;

@@ -1,8 +1,8 @@
 export { compileStack, DEFAULT_MAX_EVENTS, type CompileOptions, type MaterialSource } from "./compile.js";
-export { chooseEstimator, DEFAULT_SPLIT_MIN_WEIGHT, OPAQUE_DEPTH, OPAQUE_ROULETTE_WEIGHT, TRAP_ROULETTE_WEIGHT, type EstimatorChoice } from "./estimatorChoice.js";
+export { chooseEstimator, DEFAULT_SPLIT_MIN_WEIGHT, GRAZING_ANALOG_DEG, OPAQUE_DEPTH, OPAQUE_ROULETTE_WEIGHT, TRAP_ROULETTE_WEIGHT, type EstimatorChoice } from "./estimatorChoice.js";
 export type { CompiledStack, CompiledInterface, Estimator } from "./compiledStack.js";
 export { channelNames, channelNamesOfStack } from "./channels.js";
-export { traceBatch, type Polarization } from "./kernel.js";
+export { estimatorAt, traceBatch, type Polarization } from "./kernel.js";
 export { createTally, summarizeTally, TALLY_EXTRA_ENTRIES, type TallySummary } from "./tally.js";
 export { summarizeTrapping, summarizeDepthBins, lambertianLimit, type TrappingSummary, type Estimate } from "./trappingSummary.js";
 export { MAX_PASSES, ESCAPE_ANGLE_BINS, ESCAPE_ANGLE_BIN_DEG, baseTallyLength } from "./tallyLayout.js";

@@ -2,8 +2,8 @@ import { InputError } from "../util/errors.js";
 import type { RandomStream } from "../random/stream.js";
 import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
 import { SURFACE_LAMBERTIAN } from "../geometry/surfaceTile.js";
-import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
-import { BRANCH_SERIAL, BRANCHES, DIED, DZ, ENTERED, EVENTS, FACE, HIT, PATH, RAY_INDEX, REFLECT, SPLIT, T, TRANSMIT, TWO_PI, W, Z, advance, setNormal } from "./rayState.js";
+import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack, type Estimator } from "./compiledStack.js";
+import { BATCH_ANALOG, BRANCH_SERIAL, BRANCHES, DIED, DZ, ENTERED, EVENTS, FACE, HIT, PATH, RAY_INDEX, REFLECT, SPLIT, T, TRANSMIT, TWO_PI, W, Z, advance, setNormal } from "./rayState.js";
 import { popBranch, setBranchMedium } from "./branches.js";
 import { launchRay, polarizationMode, setLaunchAngles, setLaunchAzimuth, type Polarization } from "./launch.js";
 import type { LaunchPoints } from "./launchPoints.js";
@@ -28,6 +28,11 @@ import {
 import { foldDepth } from "./depthTally.js";
 
 export type { Polarization } from "./launch.js";
+
+/** The estimator a batch at polar angle θ is traced with (the stack's, analog from cs.analogFromThetaDeg on). */
+export function estimatorAt(cs: CompiledStack, thetaDeg: number): Estimator {
+  return thetaDeg >= cs.analogFromThetaDeg ? "analog" : cs.estimator;
+}
 
 /** Where the light comes from: the incidence medium (front) or the medium behind the rear. */
 export type LightSide = "front" | "rear";
@@ -82,6 +87,7 @@ export function traceBatch(
   // Batch sums [events, Σp, Σp²] in a typed array: doubles carried from ray to ray in locals across
   // the calls below were boxed (two numbers allocated per ray).
   const sums = new Float64Array(3);
+  st[BATCH_ANALOG] = estimatorAt(cs, thetaDeg) === "analog" ? 1 : 0;
   setLaunchAngles(st, Math.sin(thetaDeg * DEG), Math.cos(thetaDeg * DEG));
   if (phiDeg !== null) setLaunchAzimuth(st, phiDeg * DEG);
   const u = launch === null ? null : launch.u;

@@ -1,6 +1,6 @@
 import type { RandomStream } from "../random/stream.js";
 import type { CompiledStack } from "./compiledStack.js";
-import { ANALOG, DX, DY, DZ, EX, EY, EZ, L_COS_P, L_COS_T, L_SIN_P, L_SIN_T, PATH, TAU, TWO_PI, W, X, Y, Z } from "./rayState.js";
+import { BATCH_ANALOG, ANALOG, DX, DY, DZ, EX, EY, EZ, L_COS_P, L_COS_T, L_SIN_P, L_SIN_T, PATH, TAU, TWO_PI, W, X, Y, Z } from "./rayState.js";
 
 /** Polarisation of the incident light: s/p relative to the macroscopic plane of incidence (z, d). */
 export type Polarization = "unpolarized" | "s" | "p";
@@ -62,7 +62,7 @@ export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream,
   // The optical-depth budget is drawn for every ray (same random stream in both estimators) but
   // only the analog one reads it: expected-value rays draw a fresh one when they turn analog.
   const uTau = rng.next();
-  const analog = cs.estimator === "analog";
+  const analog = st[BATCH_ANALOG] !== 0;
   st[TAU] = analog ? -Math.log(uTau) : 0;
   st[ANALOG] = analog ? 1 : 0;
 }

@@ -26,8 +26,10 @@ export const ES = 31, EP = 32;
  * pass bin touched by the ray, whether it escaped through the front after entering.
  */
 export const PASSES = 33, FACE = 34, ENTERED_W = 35, FREE_PATH = 36, BULK = 37, TAIL = 38, PENDING = 39, INCIDENT = 40, MAX_PASS = 41, ESCAPED = 42;
+/** 1 when the batch in flight is traced with the analog estimator (estimatorAt). */
+export const BATCH_ANALOG = 43;
 /** Number of state slots. */
-export const STATE_LENGTH = 43;
+export const STATE_LENGTH = 44;
 
 /** Search result: a hit, its distance in st[T] (NO_HIT and LOST come from the geometry). */
 export const HIT = 0;

@@ -2,17 +2,20 @@ import { describe, expect, it } from "vitest";
 import { join } from "node:path";
 import { loadStudy } from "../../src/study/load.js";
 import { compileStack } from "../../src/trace/compile.js";
-import { chooseEstimator, DEFAULT_SPLIT_MIN_WEIGHT, OPAQUE_ROULETTE_WEIGHT, TRAP_ROULETTE_WEIGHT } from "../../src/trace/estimatorChoice.js";
+import { chooseEstimator, DEFAULT_SPLIT_MIN_WEIGHT, GRAZING_ANALOG_DEG, OPAQUE_ROULETTE_WEIGHT, TRAP_ROULETTE_WEIGHT } from "../../src/trace/estimatorChoice.js";
+import { estimatorAt, traceBatch } from "../../src/trace/kernel.js";
+import { RandomStream, streamKey } from "../../src/random/stream.js";
+import { createTally, summarizeTally } from "../../src/trace/tally.js";
 
 // The per-wavelength default (src/trace/estimatorChoice.ts); its merit against the analog estimator
 // at every demo point is measured by `npm run bench` (part "merit"), never asserted in a test.
 describe("default estimator per wavelength", () => {
   it("splits the way in and roulettes late where one pass takes most of the light", () => {
-    expect(chooseEstimator(2, false, true)).toEqual({ estimator: "expected", rouletteWeight: OPAQUE_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT });
+    expect(chooseEstimator(2, false, true)).toEqual({ estimator: "expected", rouletteWeight: OPAQUE_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: Infinity });
   });
-  it("in the trapping tail: early roulette, splitting only at a planar front, analog in a module", () => {
-    expect(chooseEstimator(0.05, false, false)).toEqual({ estimator: "expected", rouletteWeight: TRAP_ROULETTE_WEIGHT, splitMinWeight: 0 });
-    expect(chooseEstimator(0.05, true, false)).toEqual({ estimator: "expected", rouletteWeight: TRAP_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT });
+  it("in the trapping tail: early roulette, splitting only at a planar front, analog in a module and at grazing incidence on a texture", () => {
+    expect(chooseEstimator(0.05, false, false)).toEqual({ estimator: "expected", rouletteWeight: TRAP_ROULETTE_WEIGHT, splitMinWeight: 0, analogFromThetaDeg: GRAZING_ANALOG_DEG });
+    expect(chooseEstimator(0.05, true, false)).toEqual({ estimator: "expected", rouletteWeight: TRAP_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: Infinity });
     expect(chooseEstimator(0.05, false, true).estimator).toBe("analog");
   });
   it("applies to the demo stacks: the glass–glass module is traced analog at 1150 nm, expected value at 800 nm", () => {
@@ -22,7 +25,25 @@ describe("default estimator per wavelength", () => {
     const rp = loadStudy(join(import.meta.dirname, "../../configs/demo-random-pyramids.study.json"));
     const tail = compileStack(rp.combos[0]!.study, rp.registry, 1150);
     expect([tail.estimator, tail.rouletteWeight, tail.splitMinWeight]).toEqual(["expected", TRAP_ROULETTE_WEIGHT, 0]);
-    // an explicit choice wins
+    expect([estimatorAt(tail, 60), estimatorAt(tail, 70), estimatorAt(tail, 80)]).toEqual(["expected", "analog", "analog"]);
+    // an explicit choice wins, at every angle
     expect(compileStack(gg.combos[0]!.study, gg.registry, 1150, { estimator: "expected" }).estimator).toBe("expected");
+    expect(estimatorAt(compileStack(rp.combos[0]!.study, rp.registry, 1150, { estimator: "expected" }), 80)).toBe("expected");
+  });
+  it("a batch at grazing incidence in the tail runs analog: every ray's contribution is 0 or 1", () => {
+    // all-or-nothing rays: Σc² = Σc per channel, so s² = n·m(1 − m)/(n − 1) exactly (sampling theory)
+    const rp = loadStudy(join(import.meta.dirname, "../../configs/demo-random-pyramids.study.json"));
+    const cs = compileStack(rp.combos[0]!.study, rp.registry, 1150);
+    const allOrNothing = (thetaDeg: number): boolean => {
+      const t = createTally(cs);
+      const n = 400;
+      traceBatch(cs, thetaDeg, null, n, new RandomStream(streamKey(3, "grazing", thetaDeg)), t);
+      const s = summarizeTally(cs.channels, t);
+      const i = cs.channels.indexOf("A_absorber");
+      const m = s.mean[i]!;
+      return Math.abs(s.stderr[i]! ** 2 - (m * (1 - m)) / (n - 1)) < 1e-12;
+    };
+    expect(allOrNothing(80)).toBe(true);
+    expect(allOrNothing(40)).toBe(false);
   });
 });

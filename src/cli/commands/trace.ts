@@ -4,7 +4,7 @@ import { RandomStream, streamKey } from "../../random/stream.js";
 import { InputError } from "../../util/errors.js";
 import { compileStack } from "../../trace/compile.js";
 import type { Estimator } from "../../trace/compiledStack.js";
-import { traceBatch, type Polarization } from "../../trace/kernel.js";
+import { estimatorAt, traceBatch, type Polarization } from "../../trace/kernel.js";
 import { createTally, summarizeTally, type TallySummary } from "../../trace/tally.js";
 import { lambertianLimit, summarizeTrapping, type TrappingSummary } from "../../trace/trappingSummary.js";
 import type { CompiledStack } from "../../trace/compiledStack.js";
@@ -120,7 +120,7 @@ Below the channels: the power that entered the absorber, the fraction of it stil
           nRays,
           seed,
           polarization: opts.polarization,
-          estimator: cs.estimator,
+          estimator: estimatorAt(cs, thetaDeg),
           sampling,
           channels,
           channelSum: sum,
@@ -146,7 +146,7 @@ Below the channels: the power that entered the absorber, the fraction of it stil
       const lines = [
         `${loaded.name}${combo.label === "base" ? "" : ` (combination ${combo.label})`}`,
         `  front: ${cs.frontTile.label}; absorber ${cs.stack.absorber.material} ${cs.thicknessUm} µm; boundary ${cs.stack.boundary}`,
-        `  θ = ${thetaDeg}°, φ = ${phiDeg === null ? "averaged" : `${phiDeg}°`}, λ = ${wavelengthNm} nm, ${nRays} rays, seed ${seed}, ${opts.polarization}, ${cs.estimator === "expected" ? "expected-value" : "analog"} estimator${sampling === "sobol" ? `, Sobol' launch points (errors from ${REPLICA_GROUPS} replicas)` : ""}`,
+        `  θ = ${thetaDeg}°, φ = ${phiDeg === null ? "averaged" : `${phiDeg}°`}, λ = ${wavelengthNm} nm, ${nRays} rays, seed ${seed}, ${opts.polarization}, ${estimatorAt(cs, thetaDeg) === "expected" ? "expected-value" : "analog"} estimator${sampling === "sobol" ? `, Sobol' launch points (errors from ${REPLICA_GROUPS} replicas)` : ""}`,
         "",
         `  ${"channel".padEnd(w)}  ${"mean".padStart(9)}  ${"std.err".padStart(9)}`,
         ...cs.channels.map((name, c) => `  ${name.padEnd(w)}  ${s.mean[c].toFixed(6).padStart(9)}  ${s.stderr[c].toFixed(6).padStart(9)}`),
