@@ -1,6 +1,6 @@
 import type { RandomStream } from "../random/stream.js";
 import type { CompiledStack } from "./compiledStack.js";
-import { ANALOG, BULK, DZ, FREE_PATH, PATH, T, TAU, W, Z } from "./rayState.js";
+import { ANALOG, ANALOG_PATH, BULK, DZ, FREE_PATH, PATH, T, TAU, W, Z } from "./rayState.js";
 import { depositPoint, depositSegment } from "./depthTally.js";
 
 /**
@@ -9,54 +9,77 @@ import { depositPoint, depositSegment } from "./depthTally.js";
  * the weight falls by exp(−αL) and the difference is tallied. Roulette: once the weight would fall
  * below the roulette weight the ray turns analog (its remaining weight survives or is absorbed
  * whole: unbiased, and each ray's channels still sum to 1, unlike classic Russian roulette that
- * discards weight). Returns true when the ray was absorbed.
+ * discards weight). Returns true when the ray was absorbed. Only expected-value stretches need an
+ * exponential.
  */
 export function absorbAlong(cs: CompiledStack, st: Float64Array, m: number, rng: RandomStream): boolean {
   const lenUm = st[T];
   const alpha = cs.mediumAlphaPerUm[m];
   const inAbsorber = m === cs.nLayers + 1;
   const w = st[W];
-  if (inAbsorber) {
-    // Path with the absorber's absorption removed (α → 0): every stretch at the weight the ray would
-    // carry without it, w / BULK, where BULK is the product of the bulk survival factors so far
-    // (expected value: the factors w already carries; analog: the survival probability, which the
-    // division undoes: an importance weight, unbiased, whose spread grows with αW).
-    st[FREE_PATH] += (w / st[BULK]) * lenUm;
-  }
   if (!(alpha > 0)) {
-    if (inAbsorber) st[PATH] += w * lenUm;
+    if (inAbsorber) {
+      st[FREE_PATH] += (w / st[BULK]) * lenUm;
+      st[PATH] += w * lenUm;
+    }
     return false;
   }
-  // Expected value, unless this stretch would take the weight below the roulette weight: then the
-  // ray turns analog before it (the same expectation, and no work spent on negligible weights).
-  // Analog rays need no exponential outside the absorber; inside it the survival factor feeds the
-  // α → 0 path (BULK).
-  const att = st[ANALOG] === 0 || inAbsorber ? Math.exp(-alpha * lenUm) : 0;
-  if (inAbsorber) st[BULK] *= att;
-  if (st[ANALOG] === 0 && w * att < cs.rouletteWeight) {
+  if (st[ANALOG] === 0) {
+    // Expected value, unless this stretch would take the weight below the roulette weight: then the
+    // ray turns analog before it (the same expectation, and no work spent on negligible weights).
+    const att = Math.exp(-alpha * lenUm);
+    if (w * att >= cs.rouletteWeight) {
+      const dep = w - w * att;
+      cs.contrib[cs.mediumChan[m]] += dep;
+      st[W] = w - dep;
+      if (inAbsorber) {
+        // Path with the absorber's absorption removed (α → 0): every stretch at the weight the ray
+        // would carry without it, w / BULK, BULK the product of the bulk survival factors so far.
+        st[FREE_PATH] += (w / st[BULK]) * lenUm;
+        st[BULK] *= att;
+        if (cs.depthEdgesUm !== null) depositSegment(cs, w, st[Z], lenUm, st[DZ], alpha);
+        // Expected path length of the analog ray over this stretch: w(1 − e^−αL)/α.
+        st[PATH] += dep / alpha;
+      }
+      return false;
+    }
     st[ANALOG] = 1;
     st[TAU] = -Math.log(rng.next());
   }
-  const depth = inAbsorber && cs.depthEdgesUm !== null;
-  if (st[ANALOG] !== 0) {
-    const tau = alpha * lenUm;
-    if (tau >= st[TAU]) {
-      if (inAbsorber) st[PATH] += (w * st[TAU]) / alpha;
-      if (depth) depositPoint(cs, w, st[Z], st[TAU] / alpha, st[DZ]);
-      cs.contrib[cs.mediumChan[m]] += w;
-      return true;
+  // Analog: no exponential; the absorber path feeds the α → 0 path when the branch ends (endAnalogPath).
+  const tau = alpha * lenUm;
+  if (tau >= st[TAU]) {
+    if (inAbsorber) {
+      const s = st[TAU] / alpha;
+      st[PATH] += w * s;
+      st[ANALOG_PATH] += s;
+      if (cs.depthEdgesUm !== null) depositPoint(cs, w, st[Z], s, st[DZ]);
     }
-    st[TAU] -= tau;
-    if (inAbsorber) st[PATH] += w * lenUm;
-    return false;
+    cs.contrib[cs.mediumChan[m]] += w;
+    return true;
   }
-  const dep = w - w * att;
-  cs.contrib[cs.mediumChan[m]] += dep;
-  if (depth) depositSegment(cs, w, st[Z], lenUm, st[DZ], alpha);
-  // Expected path length of the analog ray over this stretch: w(1 − e^−αL)/α.
-  if (inAbsorber) st[PATH] += dep / alpha;
-  st[W] = w - dep;
+  st[TAU] -= tau;
+  if (inAbsorber) {
+    st[PATH] += w * lenUm;
+    st[ANALOG_PATH] += lenUm;
+  }
   return false;
+}
+
+/**
+ * The branch in flight ends: the absorber path L it travelled in analog mode enters the α → 0 path
+ * as (w / BULK)·(e^{αL} − 1)/α (BULK: the survival factors of the expected-value stretches before
+ * it, whose weights w carries). In an analog stretch the weight is constant and the ray dies after
+ * an exponential path D (rate α in the absorber); the α → 0 ray would go on to the stretch's end S.
+ * E[∫₀^{min(D,S)} e^{αs} ds] = ∫₀^S e^{−αs} e^{αs} ds = S, so the term is unbiased, one exponential
+ * per branch instead of one per stretch. (Absorption in other media acts on both rays alike.)
+ */
+export function endAnalogPath(cs: CompiledStack, st: Float64Array): void {
+  const lenUm = st[ANALOG_PATH];
+  if (lenUm === 0) return;
+  st[ANALOG_PATH] = 0;
+  const alpha = cs.mediumAlphaPerUm[cs.nLayers + 1];
+  st[FREE_PATH] += (st[W] / st[BULK]) * (Math.expm1(alpha * lenUm) / alpha);
 }
 
 /** Expected-value mode: turn analog once the weight is small (see absorbAlong). */

@@ -1,5 +1,5 @@
 import type { CompiledStack } from "./compiledStack.js";
-import { BULK, DZ, ENTERED_W, ESCAPED, FACE, FREE_PATH, INCIDENT, MAX_PASS, PASSES, PENDING, TAIL, W } from "./rayState.js";
+import { ANALOG_PATH, BULK, DZ, ENTERED_W, ESCAPED, FACE, FREE_PATH, INCIDENT, MAX_PASS, PASSES, PENDING, TAIL, W } from "./rayState.js";
 import { DIAG_ENTERED, DIAG_ESCAPE_ANGLE, DIAG_FREE_PATH, DIAG_R_TOTAL, DIAG_T_TOTAL, ESCAPE_ANGLE_BINS, MAX_PASSES, diagPassOffset } from "./tallyLayout.js";
 
 /**
@@ -43,6 +43,7 @@ export function resetBranchHistory(st: Float64Array): void {
   st[PASSES] = 0;
   st[FACE] = FACE_NONE;
   st[BULK] = 1;
+  st[ANALOG_PATH] = 0;
   st[PENDING] = 0;
 }
 

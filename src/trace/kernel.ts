@@ -8,7 +8,7 @@ import { popBranch, setBranchMedium } from "./branches.js";
 import { launchRay, polarizationMode, setLaunchAngles, setLaunchAzimuth, type Polarization } from "./launch.js";
 import type { LaunchPoints } from "./launchPoints.js";
 import { frontSearch, outerSearch, rearSearch, rearSearchFromBehind } from "./surfaceSearch.js";
-import { absorbAlong } from "./bulkTransport.js";
+import { absorbAlong, endAnalogPath } from "./bulkTransport.js";
 import { interfaceEvent } from "./interfaceEvent.js";
 import { backsheetEvent, idealRear, lambertianDirection, lambertianFrontFromBelow, randomPolarization } from "./idealSurfaces.js";
 import { foldBatchTotals, foldRayContributions, tallyLengthOf } from "./tally.js";
@@ -150,6 +150,7 @@ function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number): vo
     }
     // This branch ended: a lost one reports its weight; then the next pending branch, if any.
     if (next === RAY_LOST) cs.contrib[cs.chUnresolved] += st[W];
+    endAnalogPath(cs, st);
     m = popBranch(cs, st, rng);
     resetBranchHistory(st);
     if (m < 0) return;

@@ -28,8 +28,10 @@ export const ES = 31, EP = 32;
 export const PASSES = 33, FACE = 34, ENTERED_W = 35, FREE_PATH = 36, BULK = 37, TAIL = 38, PENDING = 39, INCIDENT = 40, MAX_PASS = 41, ESCAPED = 42;
 /** 1 when the batch in flight is traced with the analog estimator (estimatorAt). */
 export const BATCH_ANALOG = 43;
+/** Absorber path travelled in analog mode whose α → 0 share is not yet in FREE_PATH (bulkTransport.ts, endAnalogPath). */
+export const ANALOG_PATH = 44;
 /** Number of state slots. */
-export const STATE_LENGTH = 44;
+export const STATE_LENGTH = 45;
 
 /** Search result: a hit, its distance in st[T] (NO_HIT and LOST come from the geometry). */
 export const HIT = 0;
