@@ -48,6 +48,8 @@ export interface SurfaceTile {
    */
   pyramidSign: number;
   pyramidPeriodUm: number;
+  /** 1 / pyramidPeriodUm (0 when not such a texture). */
+  pyramidInvPeriod: number;
   pyramidTan: number;
   pyramidHeightUm: number;
   pyramidNormals: Float64Array;
@@ -86,6 +88,7 @@ export function planarTile(periodUm = 1, kind = SURFACE_PLANAR): SurfaceTile {
     sinRot: 0,
     pyramidSign: 0,
     pyramidPeriodUm: 0,
+    pyramidInvPeriod: 0,
     pyramidTan: 0,
     pyramidHeightUm: 0,
     pyramidNormals: new Float64Array(12),
@@ -207,6 +210,7 @@ export function meshTile(
     sinRot: Math.sin(rot),
     pyramidSign: sign,
     pyramidPeriodUm: pyramid === null ? 0 : pyramid.baseUm,
+    pyramidInvPeriod: pyramid === null ? 0 : 1 / pyramid.baseUm,
     pyramidTan: tanA,
     pyramidHeightUm: pyramid === null ? 0 : (tanA * pyramid.baseUm) / 2,
     pyramidNormals,

@@ -195,33 +195,31 @@ function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, 
   const mustHit = entry === MUST_HIT;
   const t0 = slab[0];
   const tLimit = slab[1];
-  const x = st[X];
-  const y = st[Y];
   const dx = st[DX];
   const dy = st[DY];
   const c = tile.cosRot;
   const s = tile.sinRot;
   const du = c * dx + s * dy;
   const dv = -s * dx + c * dy;
-  const lx = tile.lxUm;
-  const ly = tile.lyUm;
-  let px = c * x + s * y + t0 * du;
-  let py = -s * x + c * y + t0 * dv;
-  px -= lx * Math.floor(px / lx);
-  py -= ly * Math.floor(py / ly);
-  // The walk: inverted pyramids are upright ones with z reversed.
+  // Position in the tile frame at the slab entry, relative to the centre of its pyramid's footprint
+  // (the tile is a whole number of pyramids, so the pyramid lattice alone sets the wrap).
   const a = tile.pyramidPeriodUm;
+  const invA = tile.pyramidInvPeriod;
   const half = 0.5 * a;
+  const px = c * st[X] + s * st[Y] + t0 * du;
+  const py = -s * st[X] + c * st[Y] + t0 * dv;
+  let u0 = px - a * Math.floor(px * invA) - half;
+  let v0 = py - a * Math.floor(py * invA) - half;
+  // The walk: inverted pyramids are upright ones with z reversed.
   const tanA = tile.pyramidTan;
   const flip = tile.pyramidSign < 0;
   const below = flip ? !fromBelow : fromBelow;
   const ozl = zl + t0 * dzl;
   const oz = flip ? -ozl : ozl;
   const dz = flip ? -dzl : dzl;
-  const tol = PYRAMID_EDGE_TOL_REL * (lx + ly);
-  const tEps = 1e-12 * (lx + ly);
-  let u0 = px - a * Math.floor(px / a) - half;
-  let v0 = py - a * Math.floor(py / a) - half;
+  const lxy = tile.lxUm + tile.lyUm;
+  const tol = PYRAMID_EDGE_TOL_REL * lxy;
+  const tEps = 1e-12 * lxy;
   const invDu = du !== 0 ? 1 / Math.abs(du) : Infinity;
   const invDv = dv !== 0 ? 1 / Math.abs(dv) : Infinity;
   const stepU = du > 0 ? a : -a;
@@ -230,9 +228,12 @@ function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, 
   let tNextV = dv > 0 ? (half - v0) * invDv : dv < 0 ? (half + v0) * invDv : Infinity;
   const tDeltaU = a * invDu;
   const tDeltaV = a * invDv;
+  // Facet planes k: g_k(t) = a_k + b_k t with b_k fixed along the ray; their zeros −a_k/b_k with
+  // the inverses taken once per search, not once per footprint.
   const tdu = tanA * du;
   const tdv = tanA * dv;
   const b0 = dz + tdu, b1 = dz - tdu, b2 = dz + tdv, b3 = dz - tdv;
+  const i0 = -1 / b0, i1 = -1 / b1, i2 = -1 / b2, i3 = -1 / b3;
   const zH = oz - tile.pyramidHeightUm;
   let tA = 0;
   let k = LOST;
@@ -248,10 +249,10 @@ function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, 
     const tu = tanA * u0;
     const tv = tanA * v0;
     const a0 = zH + tu, a1 = zH - tu, a2 = zH + tv, a3 = zH - tv;
-    if (b0 > 0) { const r = -a0 / b0; if (r < tHi) { tHi = r; kHi = 0; } } else if (b0 < 0) { const r = -a0 / b0; if (r > tLo) { tLo = r; kLo = 0; } } else if (a0 > 0) empty = true;
-    if (b1 > 0) { const r = -a1 / b1; if (r < tHi) { tHi = r; kHi = 1; } } else if (b1 < 0) { const r = -a1 / b1; if (r > tLo) { tLo = r; kLo = 1; } } else if (a1 > 0) empty = true;
-    if (b2 > 0) { const r = -a2 / b2; if (r < tHi) { tHi = r; kHi = 2; } } else if (b2 < 0) { const r = -a2 / b2; if (r > tLo) { tLo = r; kLo = 2; } } else if (a2 > 0) empty = true;
-    if (b3 > 0) { const r = -a3 / b3; if (r < tHi) { tHi = r; kHi = 3; } } else if (b3 < 0) { const r = -a3 / b3; if (r > tLo) { tLo = r; kLo = 3; } } else if (a3 > 0) empty = true;
+    if (b0 > 0) { const r = a0 * i0; if (r < tHi) { tHi = r; kHi = 0; } } else if (b0 < 0) { const r = a0 * i0; if (r > tLo) { tLo = r; kLo = 0; } } else if (a0 > 0) empty = true;
+    if (b1 > 0) { const r = a1 * i1; if (r < tHi) { tHi = r; kHi = 1; } } else if (b1 < 0) { const r = a1 * i1; if (r > tLo) { tLo = r; kLo = 1; } } else if (a1 > 0) empty = true;
+    if (b2 > 0) { const r = a2 * i2; if (r < tHi) { tHi = r; kHi = 2; } } else if (b2 < 0) { const r = a2 * i2; if (r > tLo) { tLo = r; kLo = 2; } } else if (a2 > 0) empty = true;
+    if (b3 > 0) { const r = a3 * i3; if (r < tHi) { tHi = r; kHi = 3; } } else if (b3 < 0) { const r = a3 * i3; if (r > tLo) { tLo = r; kLo = 3; } } else if (a3 > 0) empty = true;
     if (!empty) {
       if (below) {
         if (kHi >= 0 && tHi > tEps && tHi >= tA - tol && tHi <= tB + tol && tHi >= tLo - tol) {
