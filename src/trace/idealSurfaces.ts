@@ -1,7 +1,8 @@
 import type { RandomStream } from "../random/stream.js";
 import { REAR_IDEAL_MIRROR, type CompiledStack } from "./compiledStack.js";
 import { rouletteCheck } from "./bulkTransport.js";
-import { ANALOG, DX, DY, DZ, EX, EY, EZ, TWO_PI, W } from "./rayState.js";
+import { ANALOG, DX, DY, DZ, EX, EY, EZ, PA, PB, W } from "./rayState.js";
+import { cosSinOfTurn } from "./turnTrig.js";
 
 /**
  * Ideal rear reflector (planar, normal +z into the absorber): reflectance r, the rest → A_rear.
@@ -77,9 +78,9 @@ export function lambertianFrontFromBelow(cs: CompiledStack, st: Float64Array, rn
 export function lambertianDirection(st: Float64Array, zSign: number, rng: RandomStream): void {
   const cosT = Math.sqrt(rng.next());
   const sinT = Math.sqrt(1 - cosT * cosT);
-  const ph = TWO_PI * rng.next();
-  st[DX] = sinT * Math.cos(ph);
-  st[DY] = sinT * Math.sin(ph);
+  cosSinOfTurn(st, rng.next(), DX, DY);
+  st[DX] *= sinT;
+  st[DY] *= sinT;
   st[DZ] = zSign * cosT;
 }
 
@@ -102,8 +103,8 @@ export function randomPolarization(st: Float64Array, rng: RandomStream): void {
   e1y /= l;
   e1z /= l;
   const e2x = dy * e1z - dz * e1y, e2y = dz * e1x - dx * e1z, e2z = dx * e1y - dy * e1x;
-  const psi = TWO_PI * rng.next();
-  const c = Math.cos(psi), s = Math.sin(psi);
+  cosSinOfTurn(st, rng.next(), PA, PB);
+  const c = st[PA], s = st[PB];
   st[EX] = c * e1x + s * e2x;
   st[EY] = c * e1y + s * e2y;
   st[EZ] = c * e1z + s * e2z;

@@ -1,6 +1,7 @@
 import type { RandomStream } from "../random/stream.js";
 import type { CompiledStack } from "./compiledStack.js";
-import { BATCH_ANALOG, ANALOG, DX, DY, DZ, EX, EY, EZ, L_COS_P, L_COS_T, L_SIN_P, L_SIN_T, PATH, TAU, TWO_PI, W, X, Y, Z } from "./rayState.js";
+import { BATCH_ANALOG, ANALOG, DX, DY, DZ, EX, EY, EZ, L_COS_P, L_COS_T, L_SIN_P, L_SIN_T, PA, PATH, PB, TAU, W, X, Y, Z } from "./rayState.js";
+import { cosSinOfTurn } from "./turnTrig.js";
 
 /** Polarisation of the incident light: s/p relative to the macroscopic plane of incidence (z, d). */
 export type Polarization = "unpolarized" | "s" | "p";
@@ -41,9 +42,11 @@ export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream,
   // s = (sinφ, −cosφ, 0) ⊥ plane of incidence; p = s × d.
   const sx = sp, sy = -cp;
   const px = sy * dz, py = -sx * dz, pz = sx * dy - sy * dx;
-  const psi = TWO_PI * (u === null ? rng.next() : u[2]);
-  const a = polMode === 1 ? 1 : polMode === 2 ? 0 : Math.cos(psi);
-  const b = polMode === 1 ? 0 : polMode === 2 ? 1 : Math.sin(psi);
+  // ψ as a fraction of a turn; cos ψ, sin ψ through the state's scratch slots PA, PB.
+  const psiTurn = u === null ? rng.next() : u[2];
+  if (polMode === 0) cosSinOfTurn(st, psiTurn, PA, PB);
+  const a = polMode === 1 ? 1 : polMode === 2 ? 0 : st[PA];
+  const b = polMode === 1 ? 0 : polMode === 2 ? 1 : st[PB];
   st[EX] = a * sx + b * px;
   st[EY] = a * sy + b * py;
   st[EZ] = b * pz;
