@@ -114,7 +114,7 @@ function fillDirection(
     interfaceRowInto(n0, stack, nExit, wavelengthNm, c, cosCrit, tmp, 0);
     storeRow(tmp, nF, reverse, band, i * stride);
   }
-  return { cosCrit, cosLo, tLo, tHi, nNeg, nPos, dtNeg, dtPos, rows: band };
+  return { cosCrit, cosLo, tLo, tHi, nNeg, nPos, dtNeg, dtPos, invDtNeg: 1 / dtNeg, invDtPos: 1 / dtPos, rows: band };
 }
 
 /**
@@ -143,11 +143,12 @@ export function buildInterfaceTable(
 }
 
 /**
- * Interpolated row at cosθ for direction dirFlag (0 = down, 1 = up) into out[off .. off+stride).
+ * Interpolated row at cosθ for direction dirFlag (0 = down, 1 = up) into out[off .. off+stride), or
+ * its first `count` entries (4: Rs, Rp, Ts, Tp without the films' absorptances).
  * Linear in cosθ on the main rows; for cosθ ≥ cosθc/2 of a direction with a critical angle,
  * linear in t on the band rows (see CritBand). No allocation.
  */
-export function lookupInterface(table: InterfaceTable, dirFlag: number, cosTheta: number, out: Float64Array, off = 0): void {
+export function lookupInterface(table: InterfaceTable, dirFlag: number, cosTheta: number, out: Float64Array, off = 0, count = table.stride): void {
   const up = dirFlag !== 0;
   const band = up ? table.critBandUp : table.critBandDown;
   const stride = table.stride;
@@ -159,7 +160,7 @@ export function lookupInterface(table: InterfaceTable, dirFlag: number, cosTheta
     rows = band.rows;
     const last = band.nNeg + band.nPos - 3; // last cell index
     const t = critVariable(c, band.cosCrit);
-    const pos = t <= 0 ? (t - band.tLo) / band.dtNeg : band.nNeg - 1 + t / band.dtPos;
+    const pos = t <= 0 ? (t - band.tLo) * band.invDtNeg : band.nNeg - 1 + t * band.invDtPos;
     i = Math.floor(pos);
     if (i < 0) i = 0;
     else if (i > last) i = last;
@@ -176,7 +177,7 @@ export function lookupInterface(table: InterfaceTable, dirFlag: number, cosTheta
   }
   const aOff = i * stride;
   const bOff = aOff + stride;
-  for (let k = 0; k < stride; k++) {
+  for (let k = 0; k < count; k++) {
     const va = rows[aOff + k]!;
     out[off + k] = va + w * (rows[bOff + k]! - va);
   }

@@ -60,6 +60,9 @@ export interface CritBand {
   nPos: number;
   dtNeg: number;
   dtPos: number;
+  /** 1/dtNeg and 1/dtPos (the lookup multiplies). */
+  invDtNeg: number;
+  invDtPos: number;
   rows: Float64Array;
 }
 

@@ -20,7 +20,8 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   const up = dn > 0;
   const cosI = up ? dn : -dn;
   const row = cs.scratchRow;
-  lookupInterface(iface.table, up ? 1 : 0, cosI, row, 0);
+  // Analog events read the films' absorptances only when the ray is absorbed in one (below).
+  lookupInterface(iface.table, up ? 1 : 0, cosI, row, 0, st[ANALOG] !== 0 ? 4 : iface.table.stride);
 
   // s = d × N (normalised), p_i = s × d.
   let sx = dy * nz - dz * ny;
@@ -29,9 +30,10 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   const sl = Math.sqrt(sx * sx + sy * sy + sz * sz);
   const ex = st[EX], ey = st[EY], ez = st[EZ];
   if (sl > 1e-12) {
-    sx /= sl;
-    sy /= sl;
-    sz /= sl;
+    const inv = 1 / sl;
+    sx *= inv;
+    sy *= inv;
+    sz *= inv;
   } else {
     // Normal incidence: any direction ⊥ d is "s"; take the polarisation itself.
     sx = ex;
@@ -71,6 +73,7 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
       reflect = false;
     } else {
       // Absorbed in a film (or, by rounding, nowhere: then transmit/reflect).
+      if (nF > 0) lookupInterface(iface.table, up ? 1 : 0, cosI, row, 0);
       let acc = Rpow + Tpow;
       for (let i = 0; i < nF; i++) {
         acc += fs * row[4 + i] + fp * row[4 + nF + i];
@@ -167,14 +170,11 @@ function transmitInto(st: Float64Array, row: Float64Array, iface: CompiledInterf
   const sin2T = eta * eta * (1 - cosI * cosI);
   const cosTr = sin2T < 1 ? Math.sqrt(1 - sin2T) : 0;
   const k = (eta * cosI - cosTr) * (up ? -1 : 1);
-  let tx = eta * dx + k * nx, ty = eta * dy + k * ny, tz = eta * dz + k * nz;
-  const tl = Math.sqrt(tx * tx + ty * ty + tz * tz);
-  tx /= tl;
-  ty /= tl;
-  tz /= tl;
-  st[DX] = tx;
-  st[DY] = ty;
-  st[DZ] = tz;
+  const tx = eta * dx + k * nx, ty = eta * dy + k * ny, tz = eta * dz + k * nz;
+  const inv = 1 / Math.sqrt(tx * tx + ty * ty + tz * tz);
+  st[DX] = tx * inv;
+  st[DY] = ty * inv;
+  st[DZ] = tz * inv;
   st[PA] = st[ES] * Math.sqrt(row[2]);
   st[PB] = st[EP] * Math.sqrt(row[3]);
   setPolarization(st);
@@ -188,9 +188,10 @@ function setPolarization(st: Float64Array): void {
   let ez = a * sz + b * (sx * dy - sy * dx);
   const l = Math.sqrt(ex * ex + ey * ey + ez * ez);
   if (l > 1e-300) {
-    ex /= l;
-    ey /= l;
-    ez /= l;
+    const inv = 1 / l;
+    ex *= inv;
+    ey *= inv;
+    ez *= inv;
   } else {
     ex = sx;
     ey = sy;
