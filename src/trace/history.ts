@@ -1,6 +1,6 @@
 import type { CompiledStack } from "./compiledStack.js";
 import { ANALOG_PATH, BULK, DZ, ENTERED_W, ESCAPED, FACE, FREE_PATH, INCIDENT, MAX_PASS, PASSES, PENDING, TAIL, W } from "./rayState.js";
-import { DIAG_ENTERED, DIAG_ESCAPE_ANGLE, DIAG_FREE_PATH, DIAG_R_TOTAL, DIAG_T_TOTAL, ESCAPE_ANGLE_BINS, MAX_PASSES, diagPassOffset } from "./tallyLayout.js";
+import { DIAG_ENTERED, DIAG_ESCAPE_ANGLE, DIAG_FREE_PATH, DIAG_R_TOTAL, DIAG_T_TOTAL, ESCAPE_ANGLE_BIN_DEG, ESCAPE_ANGLE_BINS, MAX_PASSES, diagPassOffset } from "./tallyLayout.js";
 
 /**
  * A ray's history in the absorber, kept in its state slots (rayState.ts): how many passes it has
@@ -25,7 +25,8 @@ export const FACE_NONE = 0;
 export const FACE_FRONT = 1;
 export const FACE_REAR = 2;
 
-const RAD_TO_BIN = (180 / Math.PI) * (ESCAPE_ANGLE_BINS / 90);
+/** cos of the escape-angle bin edges b·ESCAPE_ANGLE_BIN_DEG, b = 0..ESCAPE_ANGLE_BINS (falling). */
+const EDGE_COS = Float64Array.from({ length: ESCAPE_ANGLE_BINS + 1 }, (_, b) => Math.cos(b * ESCAPE_ANGLE_BIN_DEG * (Math.PI / 180)));
 
 /** A new ray arriving at `incidentFace` (FACE_FRONT or FACE_REAR): no pass, no face, nothing entered. */
 export function resetHistory(st: Float64Array, incidentFace: number): void {
@@ -114,10 +115,11 @@ export function leaveFront(cs: CompiledStack, st: Float64Array): void {
     return;
   }
   cs.contrib[cs.chREscape] += w;
-  let bin = Math.floor(Math.acos(cosTheta < 1 ? cosTheta : 1) * RAD_TO_BIN);
-  if (bin >= ESCAPE_ANGLE_BINS) bin = ESCAPE_ANGLE_BINS - 1;
+  // θ ≥ b·Δ exactly when cosθ ≤ cos(b·Δ): the bin from the edges' cosines, no arc cosine.
+  let bin = 0;
+  while (bin < ESCAPE_ANGLE_BINS - 1 && cosTheta <= EDGE_COS[bin + 1]) bin++;
   cs.rayEscape[bin] += w;
-  st[ESCAPED] = 1;
+  st[ESCAPED] = st[ESCAPED] | (1 << bin);
 }
 
 /**
@@ -159,9 +161,13 @@ export function foldHistory(cs: CompiledStack, st: Float64Array): void {
     d[o] += t;
     d[o + 1] += t * t;
   }
-  if (st[ESCAPED] !== 0) {
+  // Only the escape-angle bins the ray touched (a bit each in st[ESCAPED]).
+  let touched = st[ESCAPED] | 0;
+  if (touched !== 0) {
     const a = cs.rayEscape;
-    for (let b = 0; b < ESCAPE_ANGLE_BINS; b++) {
+    while (touched !== 0) {
+      const b = 31 - Math.clz32(touched & -touched);
+      touched &= touched - 1;
       const v = a[b];
       const o = DIAG_ESCAPE_ANGLE + 2 * b;
       d[o] += v;

@@ -23,7 +23,7 @@ export const ES = 31, EP = 32;
 /**
  * History in the absorber (see history.ts): passes, last face, entered power, α → 0 path, its
  * survival divisor, pass tail, pass end not yet recorded, face the light came in through, highest
- * pass bin touched by the ray, whether it escaped through the front after entering.
+ * pass bin touched by the ray, the escape-angle bins it touched through the front (one bit each).
  */
 export const PASSES = 33, FACE = 34, ENTERED_W = 35, FREE_PATH = 36, BULK = 37, TAIL = 38, PENDING = 39, INCIDENT = 40, MAX_PASS = 41, ESCAPED = 42;
 /** 1 when the batch in flight is traced with the analog estimator (estimatorAt). */
