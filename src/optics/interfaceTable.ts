@@ -139,7 +139,22 @@ export function buildInterfaceTable(
   const cosCritUp = tableCritCos(lower.n, upper);
   const critBandDown = fillDirection(upper.n, films, lower, wavelengthNm, nCos, false, down, cosCritDown);
   const critBandUp = fillDirection(lower.n, films, upper, wavelengthNm, nCos, true, up, cosCritUp);
-  return { nCos, nFilms: nF, stride, down, up, cosCritDown, cosCritUp, critBandDown, critBandUp };
+  const lossless = (m: NK): boolean => m.k <= WEAK_EXIT_K_RATIO * m.n;
+  return {
+    nCos,
+    nFilms: nF,
+    stride,
+    down,
+    up,
+    cosCritDown,
+    cosCritUp,
+    critBandDown,
+    critBandUp,
+    plainDown: nF === 0 && lossless(lower),
+    plainUp: nF === 0 && lossless(upper),
+    nUpper: upper.n,
+    nLower: lower.n,
+  };
 }
 
 /**
@@ -181,4 +196,40 @@ export function lookupInterface(table: InterfaceTable, dirFlag: number, cosTheta
     const va = rows[aOff + k]!;
     out[off + k] = va + w * (rows[bOff + k]! - va);
   }
+}
+
+/**
+ * Rs, Rp, Ts, Tp (and the films' absorptances; `count` entries) at cosθ for direction dirFlag into
+ * out[off …]: for a plain direction (no films, lossless exit) the Fresnel result itself, which is what
+ * the table samples there, else the interpolated row (lookupInterface). Real indices n1 → n2:
+ * rs = (n1c1 − n2c2)/(n1c1 + n2c2), rp = (n2c1 − n1c2)/(n2c1 + n1c2), R = r², T = 1 − R (Born & Wolf,
+ * Principles of Optics §1.5.2); beyond the critical angle R = 1.
+ */
+export function interfacePowers(table: InterfaceTable, dirFlag: number, cosTheta: number, out: Float64Array, off = 0, count = table.stride): void {
+  const up = dirFlag !== 0;
+  if (!(up ? table.plainUp : table.plainDown)) {
+    lookupInterface(table, dirFlag, cosTheta, out, off, count);
+    return;
+  }
+  const n1 = up ? table.nLower : table.nUpper;
+  const n2 = up ? table.nUpper : table.nLower;
+  const c1 = cosTheta < 0 ? 0 : cosTheta > 1 ? 1 : cosTheta;
+  const ratio = n1 / n2;
+  const sin2T = ratio * ratio * (1 - c1) * (1 + c1);
+  if (sin2T >= 1) {
+    out[off] = 1;
+    out[off + 1] = 1;
+    out[off + 2] = 0;
+    out[off + 3] = 0;
+    return;
+  }
+  const c2 = Math.sqrt(1 - sin2T);
+  const rs = (n1 * c1 - n2 * c2) / (n1 * c1 + n2 * c2);
+  const rp = (n2 * c1 - n1 * c2) / (n2 * c1 + n1 * c2);
+  const Rs = rs * rs;
+  const Rp = rp * rp;
+  out[off] = Rs;
+  out[off + 1] = Rp;
+  out[off + 2] = 1 - Rs;
+  out[off + 3] = 1 - Rp;
 }

@@ -42,6 +42,15 @@ export interface InterfaceTable {
   /** Extra rows near the critical angle, uniform in t (see CritBand); null when there is none. */
   critBandDown: CritBand | null;
   critBandUp: CritBand | null;
+  /**
+   * Direction without films whose exit medium counts as lossless (interfaceTable.ts): its row is the
+   * plain Fresnel result of two real indices, which interfacePowers computes instead of interpolating.
+   */
+  plainDown: boolean;
+  plainUp: boolean;
+  /** Real indices of the upper and lower media. */
+  nUpper: number;
+  nLower: number;
 }
 
 /**

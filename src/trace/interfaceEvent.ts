@@ -1,5 +1,5 @@
 import type { RandomStream } from "../random/stream.js";
-import { lookupInterface } from "../optics/interfaceTable.js";
+import { interfacePowers, lookupInterface } from "../optics/interfaceTable.js";
 import type { CompiledInterface, CompiledStack } from "./compiledStack.js";
 import { rouletteCheck } from "./bulkTransport.js";
 import { canBranch, pushBranch } from "./branches.js";
@@ -21,7 +21,7 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   const cosI = up ? dn : -dn;
   const row = cs.scratchRow;
   // Analog events read the films' absorptances only when the ray is absorbed in one (below).
-  lookupInterface(iface.table, up ? 1 : 0, cosI, row, 0, st[ANALOG] !== 0 ? 4 : iface.table.stride);
+  interfacePowers(iface.table, up ? 1 : 0, cosI, row, 0, st[ANALOG] !== 0 ? 4 : iface.table.stride);
 
   // s = d × N (normalised), p_i = s × d.
   let sx = dy * nz - dz * ny;

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import {
   buildInterfaceTable,
+  interfacePowers,
   interfaceRowInto,
   lookupInterface,
   tableCritCos,
@@ -171,5 +172,56 @@ describe("buildInterfaceTable(upper, films, lower, wavelengthNm, nCos)", () => {
 
   it("rejects a table with fewer than two rows", () => {
     expect(() => buildInterfaceTable(air, [], si600, 600, 1)).toThrow(RangeError);
+  });
+});
+
+describe("interfacePowers: plain Fresnel where the table is plain, the table elsewhere", () => {
+  // A direction without films into a lossless exit samples the plain Fresnel result (Born & Wolf,
+  // Principles of Optics §1.5.2); interfacePowers must give the row interfaceRowInto computes there
+  // (the table's exact source) at any angle, total reflection included, and the interpolated row
+  // (lookupInterface) wherever films or an absorbing exit make the row more than plain Fresnel.
+  const exactRow = (n0: number, films: FilmLayer[], exit: NK, cos: number, cosCrit: number): Float64Array => {
+    const out = new Float64Array(4 + 2 * films.length);
+    interfaceRowInto(n0, films, exit, 1000, cos, cosCrit, out, 0);
+    return out;
+  };
+  it("Si (1000 nm, k below the lossless limit) | air and glass | EVA: both directions plain, equal to the exact row", () => {
+    for (const [upper, lower] of [[air, si1000], [glass, eva]] as [NK, NK][]) {
+      const t = buildInterfaceTable(upper, [], lower, 1000, 64);
+      expect(t.plainDown && t.plainUp).toBe(true);
+      const outDown = new Float64Array(4);
+      const outUp = new Float64Array(4);
+      let worst = 0;
+      for (let i = 0; i <= 4000; i++) {
+        const c = i / 4000;
+        interfacePowers(t, DIR_DOWN, c, outDown);
+        interfacePowers(t, DIR_UP, c, outUp);
+        const dn = exactRow(upper.n, [], lower, c, tableCritCos(upper.n, lower));
+        const up = exactRow(lower.n, [], upper, c, tableCritCos(lower.n, upper));
+        for (let k = 0; k < 4; k++) worst = Math.max(worst, Math.abs(outDown[k]! - dn[k]!), Math.abs(outUp[k]! - up[k]!));
+      }
+      expect(worst).toBeLessThan(1e-12);
+    }
+    // beyond the critical angle of Si → air: total reflection
+    const t = buildInterfaceTable(air, [], si1000, 1000, 64);
+    const out = new Float64Array(4);
+    interfacePowers(t, DIR_UP, 0.5, out);
+    expect(Array.from(out)).toEqual([1, 1, 0, 0]);
+  });
+  it("films or an absorbing exit: the interpolated row", () => {
+    const coated = buildInterfaceTable(air, [sinx75], si600, 600, 256);
+    const lossy = buildInterfaceTable(air, [], si600, 600, 256);
+    expect(coated.plainDown || coated.plainUp).toBe(false);
+    expect(lossy.plainDown).toBe(false); // into Si at 600 nm, k = 0.02 > 1e-3·n
+    expect(lossy.plainUp).toBe(true); // out of it into air
+    for (const [t, dir] of [[coated, DIR_DOWN], [coated, DIR_UP], [lossy, DIR_DOWN]] as const) {
+      for (const c of [0.05, 0.3, 0.77, 0.999]) {
+        const a = new Float64Array(t.stride);
+        const b = new Float64Array(t.stride);
+        interfacePowers(t, dir, c, a);
+        lookupInterface(t, dir, c, b);
+        expect(Array.from(a)).toEqual(Array.from(b));
+      }
+    }
   });
 });
