@@ -13,6 +13,8 @@ export { runSweep, type SweepOptions, type SweepResult, type SweepProgress } fro
 export { tracePoint, type TracePointOptions, type TracePointResult } from "./sweep/tracePoint.js";
 export * from "./response/responseMatrix.js";
 export { readResponseMatrix, writeResponseMatrix, matrixToJson, matrixFromJson } from "./response/matrixFile.js";
+export { pairedMoments, pairingProblem, type PairedMoments } from "./response/pairedMoments.js";
+export { pairedWeightedDifference, type PairedDifference } from "./response/pairedDifference.js";
 export * from "./export/index.js";
 export * from "./weighting/index.js";
 export { logLogSlope, buildConvergenceReport, buildConvergenceReportOnPool, convergenceEstimator, replicaSeed, type ConvergeRequest } from "./convergence/index.js";
@@ -26,7 +28,7 @@ export { prepareMatrix, planeList, yieldSweep, bestPlane, type PreparedMatrix } 
 export { clearSkyHourlySpectra } from "./yield/clearSkyHours.js";
 export { userHourlySpectra } from "./yield/userHours.js";
 export type { HourlySpectra } from "./yield/hourlySpectra.js";
-export { textureBenefit, type Benefit } from "./yield/compare.js";
+export { textureBenefit, pairedDeltaStdErr, type Benefit } from "./yield/compare.js";
 export type { YieldResult } from "./yield/annualYield.js";
 export { optimize } from "./optimize/optimize.js";
 export type { Objective, OptimizeOptions, OptimumResult, Estimate as OptimizeEstimate } from "./optimize/types.js";
