@@ -59,7 +59,7 @@ export function pairedWeightedDifference(a: ResponseMatrix, b: ResponseMatrix, c
  * (pairedPointVariance), for any functional that propagates errors linearly from a matrix (yearly
  * yield): run on this matrix, its error is the error of the difference of the functional of A and
  * B. Valid whatever the streams (groups are independent replicas either way); small when both were
- * traced with the same seed and batches (common random numbers). Undefined when the grids differ or
+ * traced with the same seed (common random numbers). Undefined when the grids differ or
  * a point has no paired error (matrices without pairing groups, or fewer than two groups with rays).
  */
 export function pairedStderrMatrix(a: ResponseMatrix, b: ResponseMatrix, channel: string): ResponseMatrix | undefined {

@@ -48,8 +48,8 @@ Examples:
       --site configs/sites/saltmere-plain.site.json --tilt 20,30 --pitch 5,8 --height 1.2
 
 benefit % = 100 (Q_A/Q_B − 1); its ± is the Monte Carlo standard error propagated linearly. Two
-matrices with pairing groups on one grid (lightfold sweeps with the same seed and batches: common
-random numbers) get the paired error of the difference; else the quadrature of both matrices'
+matrices with pairing groups on one grid (lightfold sweeps with the same seed: common random
+numbers; the rays per point may differ) get the paired error of the difference; else the quadrature of both matrices'
 errors, and the output says why pairing failed. Both use the same weather, sky model and planes.
 With --rear-matrix twice (the rear-lit matrices of A and B): Q is the front + rear yearly charge of
 each bifacial stack (as yield --rear-matrix, per tilt and --pitch/--gcr); each row also gives both
