@@ -70,9 +70,9 @@ describe("lightfold converge", () => {
 });
 
 describe("lightfold converge --workers", () => {
-  it("gives the same numbers on a worker pool as in one thread (spectral and point mode)", async () => {
+  it("gives the same numbers on a worker pool as in one thread (spectral and point mode, Sobol' launch points)", async () => {
     // Workers load the compiled tracer from dist/ (npm test builds first).
-    for (const mode of [["--spectral", "--angle", "30"], ["--wavelength", "700", "--phi", "0"]]) {
+    for (const mode of [["--spectral", "--angle", "30"], ["--wavelength", "700", "--phi", "0"], ["--wavelength", "700", "--sampling", "sobol"]]) {
       const args = ["converge", studyPath, ...mode, "--start", "600", "--steps", "2", "--replicas", "2", "--json", "--quiet"];
       const one = await run(...args, "--workers", "1");
       const two = await run(...args, "--workers", "2");
