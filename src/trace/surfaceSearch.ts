@@ -25,6 +25,8 @@ export function frontSearch(cs: CompiledStack, st: Float64Array, fromBelow: bool
     }
     return NO_HIT;
   }
+  // Regular pyramids straight to their analytic walk (one call less per search).
+  if (tile.pyramidSign !== 0) return pyramidSearch(tile, st, fromBelow, 1, 0);
   return tileSearch(tile, st, cs.query, fromBelow, 1, 0);
 }
 
@@ -54,7 +56,7 @@ export function rearSearch(cs: CompiledStack, st: Float64Array): number {
     }
     return NO_HIT;
   }
-  const found = tileSearch(tile, st, cs.query, true, -1, -W_);
+  const found = tile.pyramidSign !== 0 ? pyramidSearch(tile, st, true, -1, -W_) : tileSearch(tile, st, cs.query, true, -1, -W_);
   if (found === HIT) {
     st[NX] = -st[NX];
     st[NY] = -st[NY];
@@ -79,7 +81,7 @@ export function rearSearchFromBehind(cs: CompiledStack, st: Float64Array): numbe
     }
     return NO_HIT;
   }
-  const found = tileSearch(tile, st, cs.query, false, -1, -W_);
+  const found = tile.pyramidSign !== 0 ? pyramidSearch(tile, st, false, -1, -W_) : tileSearch(tile, st, cs.query, false, -1, -W_);
   if (found === HIT) {
     st[NX] = -st[NX];
     st[NY] = -st[NY];
@@ -220,12 +222,15 @@ function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, 
   const lxy = tile.lxUm + tile.lyUm;
   const tol = PYRAMID_EDGE_TOL_REL * lxy;
   const tEps = 1e-12 * lxy;
-  const invDu = du !== 0 ? 1 / Math.abs(du) : Infinity;
-  const invDv = dv !== 0 ? 1 / Math.abs(dv) : Infinity;
-  const stepU = du > 0 ? a : -a;
-  const stepV = dv > 0 ? a : -a;
-  let tNextU = du > 0 ? (half - u0) * invDu : du < 0 ? (half + u0) * invDu : Infinity;
-  let tNextV = dv > 0 ? (half - v0) * invDv : dv < 0 ? (half + v0) * invDv : Infinity;
+  // One sign test per axis (a ray along an axis, du = 0, never reaches the next footprint: 1/0 = ∞).
+  const sgnU = du >= 0 ? 1 : -1;
+  const sgnV = dv >= 0 ? 1 : -1;
+  const invDu = 1 / Math.abs(du);
+  const invDv = 1 / Math.abs(dv);
+  const stepU = sgnU * a;
+  const stepV = sgnV * a;
+  let tNextU = (half - sgnU * u0) * invDu;
+  let tNextV = (half - sgnV * v0) * invDv;
   const tDeltaU = a * invDu;
   const tDeltaV = a * invDv;
   // Facet planes k: g_k(t) = a_k + b_k t with b_k fixed along the ray; their zeros −a_k/b_k with
