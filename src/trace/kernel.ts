@@ -131,7 +131,13 @@ function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number): vo
     if (st[EVENTS] >= maxEvents) {
       next = RAY_LOST;
     } else if (m === ABS) {
-      next = stepInAbsorber(cs, st, rng);
+      // Inside the absorber the ray usually stays for several events (reflections at both faces):
+      // stay in this loop while it does (as the outer loop would: entered, event budget checked there).
+      for (;;) {
+        next = stepInAbsorber(cs, st, rng);
+        if (next !== ABS || st[EVENTS] >= maxEvents) break;
+        st[ENTERED] = 1;
+      }
     } else if (m > ABS) {
       next = m === ABS + 1 ? stepOntoRear(cs, st, m, rng) : NOT_AT_TEXTURE;
       if (next === NOT_AT_TEXTURE) next = stepBehindAbsorber(cs, st, m, rng);
