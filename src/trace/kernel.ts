@@ -1,7 +1,7 @@
 import { InputError } from "../util/errors.js";
 import type { RandomStream } from "../random/stream.js";
 import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
-import { SURFACE_LAMBERTIAN } from "../geometry/surfaceTile.js";
+import { SURFACE_LAMBERTIAN, SURFACE_MESH } from "../geometry/surfaceTile.js";
 import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack, type Estimator } from "./compiledStack.js";
 import { BATCH_ANALOG, BRANCH_SERIAL, BRANCHES, DIED, DZ, ENTERED, EVENTS, FACE, HIT, L_COS_P, L_SIN_P, PATH, RAY_INDEX, REFLECT, SPLIT, T, TRANSMIT, W, Z, advance, setNormal } from "./rayState.js";
 import { popBranch, setBranchMedium } from "./branches.js";
@@ -158,9 +158,9 @@ function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number): vo
     // This branch ended: a lost one reports its weight; then the next pending branch, if any.
     if (next === RAY_LOST) cs.contrib[cs.chUnresolved] += st[W];
     endAnalogPath(cs, st);
+    if (st[BRANCHES] === 0) return;
     m = popBranch(cs, st, rng);
     resetBranchHistory(st);
-    if (m < 0) return;
   }
 }
 
@@ -173,7 +173,7 @@ function stepInAbsorber(cs: CompiledStack, st: Float64Array, rng: RandomStream):
   const ABS = cs.nLayers + 1;
   // Going up after the rear: the next pass has begun (history.ts).
   if (st[DZ] > 0 && st[FACE] === FACE_REAR) departFace(cs, st);
-  if (st[DZ] > 0 && st[Z] < -cs.thicknessUm - cs.rearTile.zMinUm) {
+  if (st[DZ] > 0 && cs.rearTile.kind === SURFACE_MESH && st[Z] < -cs.thicknessUm - cs.rearTile.zMinUm) {
     const inRear = rearSearch(cs, st);
     if (inRear === LOST) return RAY_LOST;
     if (inRear === HIT) return atRear(cs, st, rng);
