@@ -44,24 +44,7 @@ export function outerSearch(cs: CompiledStack, st: Float64Array, fromBelow: bool
  * upper medium).
  */
 export function rearSearch(cs: CompiledStack, st: Float64Array): number {
-  const tile = cs.rearTile;
-  const W_ = cs.thicknessUm;
-  const dz = st[DZ];
-  if (tile.kind !== SURFACE_MESH) {
-    if (dz < 0) {
-      setNormal(st, 0, 0, 1);
-      const t = (-W_ - st[Z]) / dz;
-      st[T] = t > 0 ? t : 0;
-      return HIT;
-    }
-    return NO_HIT;
-  }
-  const found = tile.pyramidSign !== 0 ? pyramidSearch(tile, st, true, -1, -W_) : tileSearch(tile, st, cs.query, true, -1, -W_);
-  if (found === HIT) {
-    st[NX] = -st[NX];
-    st[NY] = -st[NY];
-  }
-  return found;
+  return rearTileSearch(cs, st, true);
 }
 
 /**
@@ -69,11 +52,20 @@ export function rearSearch(cs: CompiledStack, st: Float64Array): number {
  * tile seen from outside. Sets the normal pointing into the absorber (the rear table's upper medium).
  */
 export function rearSearchFromBehind(cs: CompiledStack, st: Float64Array): number {
+  return rearTileSearch(cs, st, false);
+}
+
+/**
+ * The rear tile is a height field pointing away from the absorber: local z = −(z + W). A ray in the
+ * absorber meets it heading down, a ray behind it heading up; the normal found is turned to point
+ * back into the absorber.
+ */
+function rearTileSearch(cs: CompiledStack, st: Float64Array, inAbsorber: boolean): number {
   const tile = cs.rearTile;
   const W_ = cs.thicknessUm;
   const dz = st[DZ];
   if (tile.kind !== SURFACE_MESH) {
-    if (dz > 0) {
+    if (inAbsorber ? dz < 0 : dz > 0) {
       setNormal(st, 0, 0, 1);
       const t = (-W_ - st[Z]) / dz;
       st[T] = t > 0 ? t : 0;
@@ -81,7 +73,7 @@ export function rearSearchFromBehind(cs: CompiledStack, st: Float64Array): numbe
     }
     return NO_HIT;
   }
-  const found = tile.pyramidSign !== 0 ? pyramidSearch(tile, st, false, -1, -W_) : tileSearch(tile, st, cs.query, false, -1, -W_);
+  const found = tile.pyramidSign !== 0 ? pyramidSearch(tile, st, inAbsorber, -1, -W_) : tileSearch(tile, st, cs.query, inAbsorber, -1, -W_);
   if (found === HIT) {
     st[NX] = -st[NX];
     st[NY] = -st[NY];

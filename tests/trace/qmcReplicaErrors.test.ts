@@ -2,29 +2,13 @@ import { describe, expect, it } from "vitest";
 import { MaterialRegistry } from "../../src/materials/registry.js";
 import { RandomStream, streamKey } from "../../src/random/stream.js";
 import { groupStdErr, REPLICA_GROUPS } from "../../src/random/replicaGroups.js";
-import type { StackSpec } from "../../src/study/stackTypes.js";
 import { fillPairGroup, groupOffset, PAIR_GROUPS, replicaStdErr, tallyLength } from "../../src/sweep/tally.js";
 import { compileStack } from "../../src/trace/compile.js";
 import { traceBatch } from "../../src/trace/kernel.js";
 import { batchLaunchPoints } from "../../src/trace/launchPoints.js";
 import { summarizeTrapping } from "../../src/trace/trappingSummary.js";
-
-// The tracer benchmark stack (bench/trace.ts): bare upright pyramids, 180 µm Si, ideal mirror 0.95.
-const BENCH: StackSpec = {
-  incidence: "air",
-  layers: [],
-  front: { texture: { type: "upright-pyramids", baseUm: 10, facetAngleDeg: 54.74 }, films: [] },
-  absorber: { material: "Si-Green2008", thicknessUm: 180 },
-  rear: { ideal: { kind: "mirror", reflectance: 0.95 } },
-  boundary: "periodic",
-};
-const PLANAR: StackSpec = { ...BENCH, front: { texture: { type: "planar" }, films: [{ material: "SiNx-Vogt2015-n1.91", thicknessNm: 75 }] } };
-// The demo random-pyramid texture (configs/demo-random-pyramids.study.json) on a silver rear.
-const RANDOM: StackSpec = {
-  ...BENCH,
-  front: { texture: { type: "random-pyramids", meanBaseUm: 5, sizeSpread: 0.3, count: 16, tileUm: 10, facetAngleDeg: 54.74, seed: 7 }, films: [{ material: "SiNx-Vogt2015-n1.91", thicknessNm: 75 }] },
-  rear: { texture: { type: "planar" }, films: [], exit: "Ag-JohnsonChristy1972" },
-};
+import type { StackSpec } from "../../src/study/stackTypes.js";
+import { BENCH, PLANAR, RANDOM } from "./replicaStacks.js";
 
 const RUNS = 200;
 
