@@ -9,6 +9,7 @@ import { createTally, summarizeTally } from "../src/trace/tally.js";
 import { summarizeTrapping } from "../src/trace/trappingSummary.js";
 import { packageRoot } from "../src/util/packageRoot.js";
 import { loadavg } from "node:os";
+import { photocurrentWeights, spectrumFromSpec } from "../src/spectrum/index.js";
 
 /** The studies the demo traces (demo/main.ts), each combination and light side. */
 export const DEMO_STUDY_FILES = ["configs/demo-random-pyramids.study.json", "configs/demo-planar.study.json", "configs/glass-glass-bifacial.study.json"];
@@ -30,6 +31,11 @@ export interface PointMerit {
   absorber: number;
   /** Measured again with RECHECK_FACTOR × the rays after a first look below 1. */
   rechecked: boolean;
+  /** Per-ray variance of A_absorber and CPU µs per ray, analog and default (for the photocurrent's merit). */
+  varAAnalog: number;
+  varADefault: number;
+  usAnalog: number;
+  usDefault: number;
 }
 
 export const RECHECK_FACTOR = 4;
@@ -72,7 +78,9 @@ function meritRatio(analogVar: number, analogUs: number, defaultVar: number, def
 function pointMerit(analog: CompiledStack, dflt: CompiledStack, study: Study, thetaDeg: number, wavelengthNm: number, nRays: number): PointMerit {
   if (estimatorAt(dflt, thetaDeg) === "analog") {
     // the default is the analog estimator here: the same rays, the same merit
-    return { thetaDeg, wavelengthNm, exit: 1, absorber: 1, rechecked: false };
+    const a = runPoint(analog, study, thetaDeg, wavelengthNm, nRays, 1);
+    const v = bernoulli(a.a);
+    return { thetaDeg, wavelengthNm, exit: 1, absorber: 1, rechecked: false, varAAnalog: v, varADefault: v, usAnalog: a.usPerRay, usDefault: a.usPerRay };
   }
   const a = runPoint(analog, study, thetaDeg, wavelengthNm, nRays, 1);
   const d = runPoint(dflt, study, thetaDeg, wavelengthNm, nRays, 1);
@@ -88,6 +96,10 @@ function pointMerit(analog: CompiledStack, dflt: CompiledStack, study: Study, th
     exit: meritRatio(bernoulli(d.exit), aUs, d.varExit, dUs),
     absorber: meritRatio(bernoulli(d.a), aUs, d.varA, dUs),
     rechecked: false,
+    varAAnalog: bernoulli(d.a),
+    varADefault: d.varA,
+    usAnalog: aUs,
+    usDefault: dUs,
   };
 }
 
@@ -110,6 +122,29 @@ export function studyMerits(study: Study, registry: Parameters<typeof compileSta
     }
   }
   return out;
+}
+
+/**
+ * Merit for the photocurrent at each angle: AM1.5G-weighted A_absorber summed over the study's
+ * wavelengths with the same rays at every wavelength, so its variance is Σ w²·var and its time Σ t;
+ * FOM(default)/FOM(analog) = (Σ w² var_a · Σ t_a) / (Σ w² var_d · Σ t_d). A point's share of the
+ * summed variance counts against its share of the summed time, unlike in the per-point ratios.
+ */
+export function photocurrentMerits(m: PointMerit[], wavelengthsNm: number[]): { thetaDeg: number; ratio: number }[] {
+  const w = photocurrentWeights(wavelengthsNm, spectrumFromSpec("AM1.5G", packageRoot()));
+  const byTheta = new Map<number, PointMerit[]>();
+  for (const p of m) byTheta.set(p.thetaDeg, [...(byTheta.get(p.thetaDeg) ?? []), p]);
+  return [...byTheta].map(([thetaDeg, pts]) => {
+    let va = 0, vd = 0, ta = 0, td = 0;
+    for (const p of pts) {
+      const wi = w[wavelengthsNm.indexOf(p.wavelengthNm)];
+      va += wi * wi * p.varAAnalog;
+      vd += wi * wi * p.varADefault;
+      ta += p.usAnalog;
+      td += p.usDefault;
+    }
+    return { thetaDeg, ratio: vd > 0 ? (va * ta) / (vd * td) : Infinity };
+  });
 }
 
 function worst(m: PointMerit[], key: "exit" | "absorber"): PointMerit {
@@ -147,6 +182,8 @@ export async function runEstimatorMapBench(): Promise<void> {
         `  ${`${loaded.name} / ${study.lightFrom ?? "front"}`.padEnd(30)} ${String(m.length).padStart(6)}   ${we.exit.toFixed(2).padStart(5)} ${where(we)} ${median(m.map((p) => p.exit)).toFixed(2).padStart(6)}` +
           `   ${wa.absorber.toFixed(2).padStart(5)} ${where(wa)} ${median(m.map((p) => p.absorber)).toFixed(2).padStart(6)}   ${String(m.filter((p) => p.rechecked).length).padStart(8)}              ${below.length}\n`,
       );
+      const pc = photocurrentMerits(m, [...new Set(m.map((p) => p.wavelengthNm))]);
+      process.stdout.write(`      photocurrent (AM1.5G-weighted A_absorber, same rays at every λ), FOM(default)/FOM(analog) per θ: ${pc.map((x) => `${x.thetaDeg}° ${x.ratio.toFixed(2)}`).join(", ")}\n`);
       for (const p of below.slice(0, 8)) {
         process.stdout.write(`      below 1 at θ ${p.thetaDeg}°, λ ${p.wavelengthNm} nm: exit ${p.exit.toFixed(2)}, A_absorber ${p.absorber.toFixed(2)}\n`);
       }

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { join } from "node:path";
 import { loadStudy } from "../../src/study/load.js";
 import { compileStack } from "../../src/trace/compile.js";
-import { chooseEstimator, DEFAULT_SPLIT_MIN_WEIGHT, GRAZING_ANALOG_DEG, OPAQUE_ROULETTE_WEIGHT, TRAP_ROULETTE_WEIGHT } from "../../src/trace/estimatorChoice.js";
+import { chooseEstimator, DEEP_TAIL_ROULETTE_WEIGHT, DEFAULT_SPLIT_MIN_WEIGHT, GRAZING_ANALOG_DEG, OPAQUE_ROULETTE_WEIGHT, TAIL_ROULETTE_WEIGHT } from "../../src/trace/estimatorChoice.js";
 import { estimatorAt, traceBatch } from "../../src/trace/kernel.js";
 import { RandomStream, streamKey } from "../../src/random/stream.js";
 import { createTally, summarizeTally } from "../../src/trace/tally.js";
@@ -13,9 +13,10 @@ describe("default estimator per wavelength", () => {
   it("splits the way in and roulettes late where one pass takes most of the light", () => {
     expect(chooseEstimator(2, false, true)).toEqual({ estimator: "expected", rouletteWeight: OPAQUE_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: Infinity });
   });
-  it("in the trapping tail: early roulette, splitting only at a planar front, analog in a module and at grazing incidence on a texture", () => {
-    expect(chooseEstimator(0.05, false, false)).toEqual({ estimator: "expected", rouletteWeight: TRAP_ROULETTE_WEIGHT, splitMinWeight: 0, analogFromThetaDeg: GRAZING_ANALOG_DEG });
-    expect(chooseEstimator(0.05, true, false)).toEqual({ estimator: "expected", rouletteWeight: TRAP_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: Infinity });
+  it("in the tail: split where αW ≥ 0.1; in the deep tail early roulette, splitting only at a planar front; analog in a module and at grazing incidence on a texture", () => {
+    expect(chooseEstimator(0.3, false, false)).toEqual({ estimator: "expected", rouletteWeight: TAIL_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: GRAZING_ANALOG_DEG });
+    expect(chooseEstimator(0.05, false, false)).toEqual({ estimator: "expected", rouletteWeight: DEEP_TAIL_ROULETTE_WEIGHT, splitMinWeight: 0, analogFromThetaDeg: GRAZING_ANALOG_DEG });
+    expect(chooseEstimator(0.05, true, false)).toEqual({ estimator: "expected", rouletteWeight: DEEP_TAIL_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: Infinity });
     expect(chooseEstimator(0.05, false, true).estimator).toBe("analog");
   });
   it("applies to the demo stacks: the glass–glass module is traced analog at 1150 nm, expected value at 800 nm", () => {
@@ -24,7 +25,7 @@ describe("default estimator per wavelength", () => {
     expect(compileStack(gg.combos[0]!.study, gg.registry, 800).estimator).toBe("expected");
     const rp = loadStudy(join(import.meta.dirname, "../../configs/demo-random-pyramids.study.json"));
     const tail = compileStack(rp.combos[0]!.study, rp.registry, 1150);
-    expect([tail.estimator, tail.rouletteWeight, tail.splitMinWeight]).toEqual(["expected", TRAP_ROULETTE_WEIGHT, 0]);
+    expect([tail.estimator, tail.rouletteWeight, tail.splitMinWeight]).toEqual(["expected", DEEP_TAIL_ROULETTE_WEIGHT, 0]);
     expect([estimatorAt(tail, 60), estimatorAt(tail, 70), estimatorAt(tail, 80)]).toEqual(["expected", "analog", "analog"]);
     // an explicit choice wins, at every angle
     expect(compileStack(gg.combos[0]!.study, gg.registry, 1150, { estimator: "expected" }).estimator).toBe("expected");
