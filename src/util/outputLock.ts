@@ -30,9 +30,25 @@ export function releaseAllLocks(): void {
 function alive(pid: number): boolean {
   try {
     process.kill(pid, 0);
-    return true;
   } catch (err) {
     return (err as NodeJS.ErrnoException).code === "EPERM";
+  }
+  return !zombie(pid);
+}
+
+/**
+ * A process that has exited but is not yet reaped by its parent (e.g. a run killed under `timeout
+ * -s KILL`, which dies with it) still answers kill(pid, 0), but holds nothing. On Linux its state in
+ * /proc/<pid>/stat is Z (zombie) or X (dead) (proc(5): the third field, after the command name in
+ * parentheses); elsewhere the file is missing and the process counts as alive.
+ */
+function zombie(pid: number): boolean {
+  try {
+    const stat = readFileSync(`/proc/${pid}/stat`, "utf8");
+    const state = stat.charAt(stat.lastIndexOf(")") + 2);
+    return state === "Z" || state === "X";
+  } catch {
+    return false;
   }
 }
 

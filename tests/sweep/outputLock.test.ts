@@ -1,5 +1,5 @@
-import { spawnSync } from "node:child_process";
-import { existsSync, mkdirSync, readdirSync, writeFileSync } from "node:fs";
+import { spawn, spawnSync } from "node:child_process";
+import { existsSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
 import { hostname } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
@@ -56,6 +56,28 @@ describe("one run per output folder (lock with the holder's pid)", () => {
     expect(notices.join("\n")).toMatch(new RegExp(`removed a stale lock .*pid ${pid}, started 2027-01-01T00:00:00Z; that process is no longer running`));
     for (const t of tmp) expect(existsSync(t)).toBe(false);
     expect(readdirSync(out).sort()).toEqual(["base", "journal.jsonl", "run.json"]);
+  });
+
+  it("a lock held by a zombie (killed, not yet reaped: as under `timeout -s KILL`) is stale too", async () => {
+    // The background sleep's parent execs into a sleep that never waits for it, so once it exits
+    // it stays a zombie (state Z in /proc/<pid>/stat, proc(5)) while its parent lives.
+    const parent = spawn("sh", ["-c", "sleep 0.05 & echo $!; exec sleep 5"], { stdio: ["ignore", "pipe", "ignore"] });
+    try {
+      const pid = await new Promise<number>((resolve) => parent.stdout.once("data", (d: Buffer) => resolve(Number(String(d).trim()))));
+      const state = (): string => {
+        const stat = readFileSync(`/proc/${pid}/stat`, "utf8");
+        return stat.charAt(stat.lastIndexOf(")") + 2);
+      };
+      for (let k = 0; k < 200 && state() !== "Z"; k++) await new Promise((r) => setTimeout(r, 10));
+      expect(state()).toBe("Z");
+      const out = tempDir("zombie");
+      writeFileSync(join(out, LOCK_FILE), JSON.stringify({ pid, host: hostname(), startedAt: "2027-01-01T00:00:00Z", what: "sweep" }));
+      const notices: string[] = [];
+      await runSweep({ study: tinyStudy(), outDir: out, workers: 1, onNotice: (m) => notices.push(m) });
+      expect(notices.join("\n")).toMatch(new RegExp(`removed a stale lock .*pid ${pid}`));
+    } finally {
+      parent.kill("SIGKILL");
+    }
   });
 
   it("a run that fails before finishing any task leaves nothing behind (no journal, no folder, no lock)", async () => {
