@@ -161,7 +161,7 @@ async function main(): Promise<void> {
     const d0 = s.photocurrent.directions.find((d) => d.thetaDeg === 0)!;
     const d60 = s.photocurrent.directions.find((d) => d.thetaDeg === 60);
     const loss = (channel: string): string => d0.losses.find((l) => l.channel === channel)?.currentMaCm2.toFixed(2) ?? "-";
-    const row = [s.loaded.name, `${d0.jscMaCm2.toFixed(2)} ± ${d0.jscStderrMaCm2.toFixed(2)}`, loss("R_first"), loss("R_escape"), d60?.iam != null ? d60.iam.toFixed(3) : "-"];
+    const row = [s.loaded.name, `${d0.jscMaCm2.toFixed(3)} ± ${d0.jscStderrMaCm2.toFixed(3)}`, loss("R_first"), loss("R_escape"), d60?.iam != null ? d60.iam.toFixed(3) : "-"];
     for (const t of TILTS_DEG) row.push(yieldSummary.annualAhM2.get(`${s.loaded.name}@${t}`)?.toFixed(0) ?? "-");
     row.push(`${yieldSummary.bestTiltDeg.get(s.loaded.name) ?? "-"}°`);
     return row;
