@@ -130,7 +130,7 @@ const CONFIGS: { name: string; options: CompileOptions; sampling?: LaunchSamplin
   { name: "analog", options: { estimator: "analog" } },
   { name: "expected, no split", options: { estimator: "expected", splitMinWeight: 0 } },
   { name: "default", options: {} },
-  { name: "default, Sobol'", options: {}, sampling: "sobol" },
+  { name: "default, Sobol'", options: { launchSampling: "sobol" }, sampling: "sobol" },
 ];
 
 function lightfoldRun(wavelengthNm: number, options: CompileOptions, nRays: number, seed: number, sampling: LaunchSampling = "random"): TimedRun {

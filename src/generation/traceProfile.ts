@@ -64,7 +64,8 @@ export function traceGenerationProfile(req: ProfileRequest): SpectralProfile {
       fraction = new Float64Array(nL * req.grid.bins);
       fractionStderr = new Float64Array(nL * req.grid.bins);
     }
-    const cs = compileStack(req.study, req.registry, wl[il], { depthEdgesUm: edges });
+    // launched with random points whatever the study's rays.sampling: the estimator is chosen for that
+    const cs = compileStack(req.study, req.registry, wl[il], { depthEdgesUm: edges, launchSampling: "random" });
     const tally = createTally(cs);
     let done = 0;
     for (let b = 0; done < req.raysPerWavelength; b++) {

@@ -1,6 +1,6 @@
 import type { RandomStream } from "../random/stream.js";
 import type { CompiledStack } from "./compiledStack.js";
-import { ANALOG, BRANCH_SERIAL, BRANCHES, DX, ENTERED, DY, DZ, EX, EY, EZ, RAY_INDEX, TAU, W, X, Y, Z } from "./rayState.js";
+import { BULK, FACE, PASSES, PENDING, ANALOG, BRANCH_SERIAL, BRANCHES, DX, ENTERED, DY, DZ, EX, EY, EZ, RAY_INDEX, TAU, W, X, Y, Z } from "./rayState.js";
 
 /**
  * Pending branches of the ray in flight. In expected-value mode an interface event may split the
@@ -11,8 +11,9 @@ import { ANALOG, BRANCH_SERIAL, BRANCHES, DX, ENTERED, DY, DZ, EX, EY, EZ, RAY_I
  */
 export const MAX_BRANCHES = 64;
 /** Saved per branch: position, direction, polarisation, weight, τ budget, analog flag, medium. */
-export const BRANCH_SLOTS = 13;
+export const BRANCH_SLOTS = 18;
 const B_MEDIUM = 12;
+const B_HISTORY = 13;
 
 /** Whether another branch fits. */
 export function canBranch(st: Float64Array): boolean {
@@ -36,6 +37,11 @@ export function pushBranch(cs: CompiledStack, st: Float64Array): void {
   b[o + 10] = st[TAU];
   b[o + 11] = st[ANALOG];
   b[o + B_MEDIUM] = -1;
+  b[o + B_HISTORY] = st[ENTERED];
+  b[o + B_HISTORY + 1] = st[PASSES];
+  b[o + B_HISTORY + 2] = st[FACE];
+  b[o + B_HISTORY + 3] = st[BULK];
+  b[o + B_HISTORY + 4] = st[PENDING];
   st[BRANCHES]++;
 }
 
@@ -68,7 +74,11 @@ export function popBranch(cs: CompiledStack, st: Float64Array, rng: RandomStream
   st[ANALOG] = b[o + 11];
   st[BRANCHES] = n - 1;
   // Branches are only made before the ray enters the absorber (interfaceEvent).
-  st[ENTERED] = 0;
+  st[ENTERED] = b[o + B_HISTORY];
+  st[PASSES] = b[o + B_HISTORY + 1];
+  st[FACE] = b[o + B_HISTORY + 2];
+  st[BULK] = b[o + B_HISTORY + 3];
+  st[PENDING] = b[o + B_HISTORY + 4];
   st[BRANCH_SERIAL]++;
   rng.startSubstream(st[RAY_INDEX] | 0, st[BRANCH_SERIAL] | 0);
   return b[o + B_MEDIUM] | 0;

@@ -12,6 +12,7 @@ import { CH_R_ESCAPE, CH_R_FIRST, CH_T_ESCAPE, CH_T_FIRST, channelNamesOfStack }
 import { BRANCH_SLOTS, MAX_BRANCHES } from "./branches.js";
 import { STATE_LENGTH } from "./rayState.js";
 import { chooseEstimator } from "./estimatorChoice.js";
+import type { LaunchSampling } from "../random/sobol.js";
 import {
   REAR_IDEAL_LAMBERTIAN,
   REAR_IDEAL_MIRROR,
@@ -39,6 +40,14 @@ export interface CompileOptions {
    * Default per wavelength and front (estimatorChoice.ts).
    */
   splitMinWeight?: number;
+  /**
+   * Expected-value mode: light in the absorber that meets a face it may leave through splits into its
+   * escaping and returned parts when both weigh at least this much (0 = never; default per point,
+   * estimatorChoice.ts).
+   */
+  escapeSplitMinWeight?: number;
+  /** Launch sampling the stack will be traced with (default: a study's rays.sampling, else random); it steers the default estimator. */
+  launchSampling?: LaunchSampling;
   /** Rows of the interface tables over cosθ (default 1024). */
   nCos?: number;
   /**
@@ -145,7 +154,8 @@ export function compileStack(
   const rearOpaque = isIdealRear(stack.rear) || (metalExit && nRear === 0) || rl.backsheetReflectance >= 0;
 
   const depthEdges = options.depthEdgesUm === undefined ? null : checkDepthEdges(options.depthEdgesUm);
-  const choice = chooseEstimator(mediumAlphaPerUm[ABS] * thicknessUm, frontTile.kind === SURFACE_PLANAR && outerTile === null, nLayers > 0 || nRear > 0);
+  const sampling = options.launchSampling ?? ("rays" in studyOrStack ? (studyOrStack as { rays?: { sampling?: LaunchSampling } }).rays?.sampling : undefined);
+  const choice = chooseEstimator(mediumAlphaPerUm[ABS] * thicknessUm, frontTile.kind === SURFACE_PLANAR && outerTile === null, nLayers > 0 || nRear > 0, sampling === "sobol");
   return {
     stack,
     wavelengthNm,
@@ -184,6 +194,7 @@ export function compileStack(
     rouletteWeight: options.rouletteWeight ?? choice.rouletteWeight,
     maxEvents: options.maxEvents ?? DEFAULT_MAX_EVENTS,
     splitMinWeight: options.splitMinWeight ?? choice.splitMinWeight,
+    escapeSplitMinWeight: options.escapeSplitMinWeight ?? choice.escapeSplitMinWeight,
     branches: new Float64Array(MAX_BRANCHES * BRANCH_SLOTS),
     scratchRow: new Float64Array(4 + 2 * 64),
     contrib: new Float64Array(channels.length),

@@ -88,6 +88,7 @@ export interface CompiledStack {
   maxEvents: number;
   /** Expected-value mode: least weight of both parts for an interface event to split the ray (0 = never). */
   splitMinWeight: number;
+  escapeSplitMinWeight: number;
   /** Pending branches of the ray in flight (src/trace/branches.ts). */
   branches: Float64Array;
   /** Scratch (not shared between threads): interface row, per-ray contributions, state, hit. */

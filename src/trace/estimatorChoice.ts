@@ -14,6 +14,8 @@ export interface EstimatorChoice {
   splitMinWeight: number;
   /** From this polar angle of incidence on, the point is traced analog (Infinity = never). */
   analogFromThetaDeg: number;
+  /** Expected-value mode: least weight of both parts for a split on the way out (0 = never split). */
+  escapeSplitMinWeight: number;
 }
 
 /** From this αW on one pass takes most of the light; below it lies the light-trapping tail. */
@@ -27,6 +29,8 @@ export const DEEP_TAIL_ROULETTE_WEIGHT = 0.5;
 export const GRAZING_ANALOG_DEG = 70;
 /** Both parts of a split on the way in weigh at least this much (a first reflection of 0.3 % still splits). */
 export const DEFAULT_SPLIT_MIN_WEIGHT = 0.001;
+/** Deep tail under Sobol' launch points: roulette this late, every way in and out split. */
+export const QMC_TAIL_ROULETTE_WEIGHT = 0.1;
 
 /**
  * The rules serve the photocurrent and the yield, sums over wavelengths: there a point's share of the
@@ -45,15 +49,25 @@ export const DEFAULT_SPLIT_MIN_WEIGHT = 0.001;
  * - Analog at grazing incidence (θ ≥ 70°) on a texture in the trapping tail: much of the light is
  *   reflected before it enters, and the weighted rays' extra events cost more than the variance
  *   they save (random pyramids, 70–80° at 1050–1125 nm: merit 0.89–0.99 of analog at 16 000 rays).
+ * - Under Sobol' launch points (`rays.sampling: "sobol"`), in the deep tail on a textured front (no
+ *   module): split every way in and every way out (light in the absorber meeting the face it may
+ *   leave through: the escaping part goes on, the returned part waits), roulette at 0.1. With every
+ *   reflect-or-transmit choice an expected value, a ray's R and A are nearly a function of its launch
+ *   point, which the Sobol' points integrate far better than random ones: on the bench case at
+ *   1150 nm, from the spread of 24 independent runs of 64 000 rays, merit 2.1 (R) and 2.5 (A) of the
+ *   native analog kernel (roulette 0.2: 1.8 / 1.9; 0.05: 1.5 / 2.1) against 0.5 / 0.8 for the random
+ *   default, while with random launch points the same splitting loses (0.3–0.5 / 0.7–0.9).
  * The weights are set in every case, for a caller who asks for expected value where analog is the default.
  */
-export function chooseEstimator(singlePassDepth: number, plainFront: boolean, hasThickLayers: boolean): EstimatorChoice {
+export function chooseEstimator(singlePassDepth: number, plainFront: boolean, hasThickLayers: boolean, sobol = false): EstimatorChoice {
   const opaque = singlePassDepth >= OPAQUE_DEPTH;
   const deepTail = singlePassDepth < DEEP_TAIL_DEPTH;
+  const qmcTail = sobol && deepTail && !plainFront && !hasThickLayers;
   return {
     estimator: !opaque && hasThickLayers ? "analog" : "expected",
-    rouletteWeight: opaque ? OPAQUE_ROULETTE_WEIGHT : deepTail ? DEEP_TAIL_ROULETTE_WEIGHT : TAIL_ROULETTE_WEIGHT,
-    splitMinWeight: !deepTail || plainFront ? DEFAULT_SPLIT_MIN_WEIGHT : 0,
+    rouletteWeight: opaque ? OPAQUE_ROULETTE_WEIGHT : qmcTail ? QMC_TAIL_ROULETTE_WEIGHT : deepTail ? DEEP_TAIL_ROULETTE_WEIGHT : TAIL_ROULETTE_WEIGHT,
+    splitMinWeight: !deepTail || plainFront || qmcTail ? DEFAULT_SPLIT_MIN_WEIGHT : 0,
     analogFromThetaDeg: !opaque && !plainFront ? GRAZING_ANALOG_DEG : Infinity,
+    escapeSplitMinWeight: qmcTail ? DEFAULT_SPLIT_MIN_WEIGHT : 0,
   };
 }

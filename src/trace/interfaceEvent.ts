@@ -115,7 +115,8 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
     // goes on now. The light's first reflection, the largest loss at most wavelengths, is then an
     // expected value instead of a coin toss; later events stay sampled, where splitting would grow
     // trees of little weight.
-    if (up === (st[INCIDENT] === FACE_REAR) && st[ENTERED] === 0 && wNew * (pR < 0.5 ? pR : 1 - pR) >= cs.splitMinWeight && cs.splitMinWeight > 0 && canBranch(st)) {
+    const floor = up === (st[INCIDENT] === FACE_REAR) && st[ENTERED] === 0 ? cs.splitMinWeight : st[ENTERED] !== 0 && (up ? iface === cs.front : iface === cs.rear) ? cs.escapeSplitMinWeight : 0;
+    if (floor > 0 && wNew * (pR < 0.5 ? pR : 1 - pR) >= floor && canBranch(st)) {
       reflectInto(st, row);
       st[W] = wNew * pR;
       pushBranch(cs, st);

@@ -23,7 +23,6 @@ import {
   foldHistory,
   leaveFront,
   rearExitChannel,
-  resetBranchHistory,
   resetHistory,
 } from "./history.js";
 import { foldDepth } from "./depthTally.js";
@@ -160,7 +159,6 @@ function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number): vo
     endAnalogPath(cs, st);
     if (st[BRANCHES] === 0) return;
     m = popBranch(cs, st, rng);
-    resetBranchHistory(st);
   }
 }
 

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { join } from "node:path";
 import { loadStudy } from "../../src/study/load.js";
 import { compileStack } from "../../src/trace/compile.js";
-import { chooseEstimator, DEEP_TAIL_ROULETTE_WEIGHT, DEFAULT_SPLIT_MIN_WEIGHT, GRAZING_ANALOG_DEG, OPAQUE_ROULETTE_WEIGHT, TAIL_ROULETTE_WEIGHT } from "../../src/trace/estimatorChoice.js";
+import { chooseEstimator, QMC_TAIL_ROULETTE_WEIGHT, DEEP_TAIL_ROULETTE_WEIGHT, DEFAULT_SPLIT_MIN_WEIGHT, GRAZING_ANALOG_DEG, OPAQUE_ROULETTE_WEIGHT, TAIL_ROULETTE_WEIGHT } from "../../src/trace/estimatorChoice.js";
 import { estimatorAt, traceBatch } from "../../src/trace/kernel.js";
 import { RandomStream, streamKey } from "../../src/random/stream.js";
 import { createTally, summarizeTally } from "../../src/trace/tally.js";
@@ -11,13 +11,20 @@ import { createTally, summarizeTally } from "../../src/trace/tally.js";
 // at every demo point is measured by `npm run bench` (part "merit"), never asserted in a test.
 describe("default estimator per wavelength", () => {
   it("splits the way in and roulettes late where one pass takes most of the light", () => {
-    expect(chooseEstimator(2, false, true)).toEqual({ estimator: "expected", rouletteWeight: OPAQUE_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: Infinity });
+    expect(chooseEstimator(2, false, true)).toEqual({ estimator: "expected", rouletteWeight: OPAQUE_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: Infinity, escapeSplitMinWeight: 0 });
   });
   it("in the tail: split where αW ≥ 0.1; in the deep tail early roulette, splitting only at a planar front; analog in a module and at grazing incidence on a texture", () => {
-    expect(chooseEstimator(0.3, false, false)).toEqual({ estimator: "expected", rouletteWeight: TAIL_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: GRAZING_ANALOG_DEG });
-    expect(chooseEstimator(0.05, false, false)).toEqual({ estimator: "expected", rouletteWeight: DEEP_TAIL_ROULETTE_WEIGHT, splitMinWeight: 0, analogFromThetaDeg: GRAZING_ANALOG_DEG });
-    expect(chooseEstimator(0.05, true, false)).toEqual({ estimator: "expected", rouletteWeight: DEEP_TAIL_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: Infinity });
+    expect(chooseEstimator(0.3, false, false)).toEqual({ estimator: "expected", rouletteWeight: TAIL_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: GRAZING_ANALOG_DEG, escapeSplitMinWeight: 0 });
+    expect(chooseEstimator(0.05, false, false)).toEqual({ estimator: "expected", rouletteWeight: DEEP_TAIL_ROULETTE_WEIGHT, splitMinWeight: 0, analogFromThetaDeg: GRAZING_ANALOG_DEG, escapeSplitMinWeight: 0 });
+    expect(chooseEstimator(0.05, true, false)).toEqual({ estimator: "expected", rouletteWeight: DEEP_TAIL_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: Infinity, escapeSplitMinWeight: 0 });
     expect(chooseEstimator(0.05, false, true).estimator).toBe("analog");
+  });
+  it("under Sobol' launch points the deep tail of a bare texture splits every way in and out, roulette 0.1", () => {
+    expect(chooseEstimator(0.05, false, false, true)).toEqual({ estimator: "expected", rouletteWeight: QMC_TAIL_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: GRAZING_ANALOG_DEG, escapeSplitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT });
+    // not for a planar front, a module, or outside the deep tail
+    expect(chooseEstimator(0.05, true, false, true).escapeSplitMinWeight).toBe(0);
+    expect(chooseEstimator(0.05, false, true, true).estimator).toBe("analog");
+    expect(chooseEstimator(0.3, false, false, true).escapeSplitMinWeight).toBe(0);
   });
   it("applies to the demo stacks: the glass–glass module is traced analog at 1150 nm, expected value at 800 nm", () => {
     const gg = loadStudy(join(import.meta.dirname, "../../configs/glass-glass-bifacial.study.json"));

@@ -26,7 +26,7 @@ interface Runs {
  * exactly as a sweep point of 16 batches: batch b on its stream and the scramble of group b.
  */
 function sobolRuns(stack: StackSpec, wavelengthNm: number, thetaDeg: number, phiDeg: number | null, groupRays: number): Runs {
-  const cs = compileStack(stack, MaterialRegistry.withBuiltins(), wavelengthNm);
+  const cs = compileStack(stack, MaterialRegistry.withBuiltins(), wavelengthNm, { launchSampling: "sobol" });
   const nC = cs.channels.length;
   const [iRf, iRe, iA] = ["R_first", "R_escape", "A_absorber"].map((c) => cs.channels.indexOf(c));
   const len = tallyLength(nC);
@@ -90,6 +90,7 @@ describe("Sobol' launch sampling: replica standard errors match the spread of 20
   const cases: [string, StackSpec, number, number, number | null, number][] = [
     ["bench pyramids 1000 nm", BENCH, 1000, 0, 0, 32],
     ["bench pyramids 600 nm", BENCH, 600, 0, 0, 32],
+    // at 1150 nm the default under Sobol' points splits every way in and out (estimatorChoice.ts)
     ["bench pyramids 1150 nm", BENCH, 1150, 0, 0, 16],
     ["planar SiNx 1000 nm, 30°", PLANAR, 1000, 30, 0, 32],
     ["random pyramids 1000 nm, 30°, azimuth averaged", RANDOM, 1000, 30, null, 16],

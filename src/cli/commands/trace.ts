@@ -84,14 +84,14 @@ Below the channels: the power that entered the absorber, the fraction of it stil
       const combo = loaded.combos[comboIndex];
       const seed = opts.seed === undefined ? combo.study.seed : numberOption("seed", opts.seed, Number.isInteger, "a whole number");
 
+      const sampling = samplingFlag(opts.sampling) ?? combo.study.rays.sampling ?? "random";
       let cs;
       try {
-        cs = compileStack(combo.study, loaded.registry, wavelengthNm, { estimator: opts.estimator === "default" ? undefined : (opts.estimator as Estimator) });
+        cs = compileStack(combo.study, loaded.registry, wavelengthNm, { estimator: opts.estimator === "default" ? undefined : (opts.estimator as Estimator), launchSampling: sampling });
       } catch (err) {
         if (err instanceof InputError) throw new InputError(`${studyPath}: at ${wavelengthNm} nm: ${err.message}`, err.hint);
         throw err;
       }
-      const sampling = samplingFlag(opts.sampling) ?? combo.study.rays.sampling ?? "random";
       if (sampling === "sobol" && nRays < REPLICA_GROUPS) {
         throw new InputError(`--rays ${nRays}: Sobol' sampling traces ${REPLICA_GROUPS} independent replicas and needs at least ${REPLICA_GROUPS} rays`, "e.g. --rays 16384");
       }
