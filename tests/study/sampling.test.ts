@@ -38,13 +38,15 @@ describe('rays.sampling ("random" | "sobol")', () => {
     expect(plain.mode === "target" && plain.minPerPoint).toBe(200);
   });
 
-  it("is named in the check summary when it is Sobol'", () => {
+  it("is named in the check summary when it is Sobol', and suggested where a point has 16+ batches", () => {
     const text = (rays: Record<string, unknown>): string => {
       const l = load(rays);
       return formatStudySummary(l, summarizeStudy(l)).join("\n");
     };
     expect(text({ perPoint: 1600, batch: 100, sampling: "sobol" })).toMatch(/sampling +Sobol' launch points .* 16 replica groups/);
-    expect(text({ perPoint: 1600, batch: 100 })).not.toMatch(/Sobol/);
+    // random sampling with 16 batches per point: the summary suggests Sobol' points; with 4 it does not
+    expect(text({ perPoint: 1600, batch: 100 })).toMatch(/sampling +random launch points; with 16\+ batches per point "sampling": "sobol"/);
+    expect(text({ perPoint: 400, batch: 100 })).not.toMatch(/Sobol|sobol/);
   });
 
   it("withSampling (sweep --sampling) switches a plan the way the study file would, defaults included", () => {
