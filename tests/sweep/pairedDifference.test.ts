@@ -53,18 +53,23 @@ function sinxStudy(thetaDeg: number[], wavelengthNm: number[], perPoint: number,
 }
 
 /**
- * Traces the two-combination study `replicas` times with independent seeds (16 batches of 30 rays
- * per point, as a sweep traces them) and compares the spread of the photocurrent difference with
- * the paired error each replica reports; also the independent-streams error against the paired one.
+ * Traces the two-combination study `replicas` times with independent seeds (seedBase + replica; A
+ * and B with batches[0] and batches[1] batches of 30 rays per point, as a sweep traces them) and
+ * compares the spread of the photocurrent difference with the paired error each replica reports;
+ * also the independent-streams error against the paired one. `check` sees each replica's matrices.
  */
-async function replicaDifferences(study: ReturnType<typeof sinxStudy>, replicas: number, label: string): Promise<{ ratio: number; gain: number }> {
+async function replicaDifferences(
+  study: ReturnType<typeof sinxStudy>,
+  replicas: number,
+  label: string,
+  o: { batches?: [number, number]; seedBase?: number; check?: (a: ResponseMatrix, b: ResponseMatrix) => void } = {},
+): Promise<{ ratio: number; gain: number }> {
   const tracer = await loadTracer();
   const plan = sweepPlanOf(study, tracer);
   const run = createMessageRunner(workerSetupOf(study), tracer);
   const nL = plan.grid.wavelengthNm.length;
-  const nBatches = 16;
+  const batches = o.batches ?? [16, 16];
   const w = photocurrentWeights(plan.grid.wavelengthNm, spectrumFromSpec("AM1.5G", tmpdir()));
-  const points = [0, 1, 2];
   const deltas: number[] = [];
   const paired: number[] = [];
   const independent: number[] = [];
@@ -72,15 +77,18 @@ async function replicaDifferences(study: ReturnType<typeof sinxStudy>, replicas:
     const tallies = new Map<number, Float64Array>();
     for (let combo = 0; combo < 2; combo++) {
       const len = tallyLength(plan.combos[combo].channels.length);
+      const nb = batches[combo]!;
       for (let il = 0; il < nL; il++) {
-        const out = run({ items: [{ combo, it: 0, ip: 0, il, thetaDeg: 0, phiDeg: null, wavelengthNm: plan.grid.wavelengthNm[il], firstBatch: 0, batchRays: Array(nBatches).fill(30), seed: 1000 + r }] });
+        const out = run({ items: [{ combo, it: 0, ip: 0, il, thetaDeg: 0, phiDeg: null, wavelengthNm: plan.grid.wavelengthNm[il], firstBatch: 0, batchRays: Array(nb).fill(30), seed: (o.seedBase ?? 1000) + r }] });
+        // each batch's tally holds its rays in pairing group b mod 16 (src/sweep/tally.ts): summing folds them
         const acc = new Float64Array(len);
-        for (let b = 0; b < nBatches; b++) for (let i = 0; i < len; i++) acc[i] += out[b * len + i];
+        for (let b = 0; b < nb; b++) for (let i = 0; i < len; i++) acc[i] += out[b * len + i];
         tallies.set(combo * nL + il, acc);
       }
     }
     const [a, b] = [0, 1].map((c) => matrixFromTallies(plan, c, (p) => tallies.get(p), false));
-    const d = pairedWeightedDifference(a, b, "A_absorber", points, w);
+    o.check?.(a!, b!);
+    const d = pairedWeightedDifference(a!, b!, "A_absorber", [0, 1, 2], w);
     deltas.push(d.delta);
     paired.push(d.pairedStderr);
     independent.push(d.independentStderr);
@@ -201,43 +209,14 @@ describe("paired standard error of a difference", () => {
   it("SiNx 75 vs 80 nm with 20 and 36 batches per point (groups of other sizes): 80 replica differences spread as the paired error says", async () => {
     // B traced further than A on the same streams (a target-error run stopping later): B's groups
     // 0–3 hold 3 batches, A's 2; the other groups 2 and 1. The shared batches 0–19 pair.
-    const study = sinxStudy([0], [450, 750, 1000], 600, 30);
-    const tracer = await loadTracer();
-    const plan = sweepPlanOf(study, tracer);
-    const run = createMessageRunner(workerSetupOf(study), tracer);
-    const nL = plan.grid.wavelengthNm.length;
-    const batches = [20, 36];
-    const w = photocurrentWeights(plan.grid.wavelengthNm, spectrumFromSpec("AM1.5G", tmpdir()));
-    const deltas: number[] = [];
-    const paired: number[] = [];
-    const independent: number[] = [];
-    for (let r = 0; r < 80; r++) {
-      const tallies = new Map<number, Float64Array>();
-      for (let combo = 0; combo < 2; combo++) {
-        const len = tallyLength(plan.combos[combo].channels.length);
-        const nb = batches[combo]!;
-        for (let il = 0; il < nL; il++) {
-          const out = run({ items: [{ combo, it: 0, ip: 0, il, thetaDeg: 0, phiDeg: null, wavelengthNm: plan.grid.wavelengthNm[il], firstBatch: 0, batchRays: Array(nb).fill(30), seed: 3000 + r }] });
-          // each batch's tally holds its rays in pairing group b mod 16 (src/sweep/tally.ts): summing folds them
-          const acc = new Float64Array(len);
-          for (let b = 0; b < nb; b++) for (let i = 0; i < len; i++) acc[i] += out[b * len + i];
-          tallies.set(combo * nL + il, acc);
-        }
-      }
-      const [a, b] = [0, 1].map((c) => matrixFromTallies(plan, c, (p) => tallies.get(p), false));
-      expect(b.groupRays![0]).toBe(90);
-      expect(a.groupRays![0]).toBe(60);
-      const d = pairedWeightedDifference(a, b, "A_absorber", [0, 1, 2], w);
-      deltas.push(d.delta);
-      paired.push(d.pairedStderr);
-      independent.push(d.independentStderr);
-    }
-    const mean = deltas.reduce((s, x) => s + x, 0) / deltas.length;
-    const spread = Math.sqrt(deltas.reduce((s, x) => s + (x - mean) ** 2, 0) / (deltas.length - 1));
-    const rms = (xs: number[]): number => Math.sqrt(xs.reduce((s, x) => s + x * x, 0) / xs.length);
-    const ratio = spread / rms(paired);
-    const gain = rms(independent) / rms(paired);
-    process.stdout.write(`paired ΔJsc, 20 vs 36 batches: spread ${spread.toFixed(5)}, reported ${rms(paired).toFixed(5)} (ratio ${ratio.toFixed(3)}), independent ${rms(independent).toFixed(5)} (gain ${gain.toFixed(2)})\n`);
+    const { ratio, gain } = await replicaDifferences(sinxStudy([0], [450, 750, 1000], 600, 30), 80, "paired ΔJsc, 20 vs 36 batches", {
+      batches: [20, 36],
+      seedBase: 3000,
+      check: (a, b) => {
+        expect(b.groupRays![0]).toBe(90);
+        expect(a.groupRays![0]).toBe(60);
+      },
+    });
     // Issue 10 goal: the replica spread confirms the reported paired error within ±20 %.
     expect(Math.abs(ratio - 1)).toBeLessThan(0.2);
     // B's 16 batches beyond A's are independent of A, so pairing gains less than with equal runs.
