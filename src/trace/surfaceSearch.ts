@@ -89,14 +89,11 @@ function rearTileSearch(cs: CompiledStack, st: Float64Array, inAbsorber: boolean
  */
 function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBelow: boolean, zSign: number, zOffsetUm: number): number {
   if (tile.pyramidSign !== 0) return pyramidSearch(tile, st, fromBelow, zSign, zOffsetUm);
-  // Local height: z − offset (front: offset 0; outer glass texture: the glass's top plane), or for
-  // the rear tile, flipped: −(z − (−W)) = −(z + W).
-  const zl = zSign * (st[Z] - zOffsetUm);
-  const dzl = zSign * st[DZ];
-  const entry = slabEntry(tile, zl, dzl, fromBelow);
+  const entry = slabEntry(tile, st, fromBelow, zSign, zOffsetUm);
   if (entry === NO_HIT) return NO_HIT;
   const mustHit = entry === MUST_HIT;
   const t0 = slab[0];
+  const dzl = slab[3];
   const c = tile.cosRot;
   const s = tile.sinRot;
   const dxl = c * st[DX] + s * st[DY];
@@ -109,7 +106,7 @@ function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBe
   py -= ly * Math.floor(py / ly);
   q[Q_OX] = px;
   q[Q_OY] = py;
-  q[Q_OZ] = zl + t0 * dzl;
+  q[Q_OZ] = slab[2];
   q[Q_DX] = dxl;
   q[Q_DY] = dyl;
   q[Q_DZ] = dzl;
@@ -128,15 +125,18 @@ function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBe
 
 /** slabEntry result: the ray heads into the surface and must hit it (a miss is LOST). */
 const MUST_HIT = 1;
-/** slabEntry output: [distance to the entry point, search range from there]. */
-const slab = new Float64Array(2);
+/** slabEntry output: [distance to the entry point, search range from there, local height there, local dz]. */
+const slab = new Float64Array(4);
 
 /**
- * Where a ray at local height zl (direction dzl) enters the slab zMin..zMax of a tile, and how far the
- * search may go from there (into slab[0], slab[1]). Returns NO_HIT when the ray leaves the slab on the
- * far side of the surface, MUST_HIT when it heads into the surface, else 0.
+ * Where the ray in the state enters the slab zMin..zMax of a tile, in the tile's local height: z −
+ * offset (front: offset 0; outer glass texture: the glass's top plane), or for the rear tile,
+ * flipped (zSign −1): −(z − (−W)) = −(z + W). Writes slab[0..3] (above). Returns NO_HIT when the ray
+ * leaves the slab on the far side of the surface, MUST_HIT when it heads into the surface, else 0.
  */
-function slabEntry(tile: SurfaceTile, zl: number, dzl: number, fromBelow: boolean): number {
+function slabEntry(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, zSign: number, zOffsetUm: number): number {
+  const zl = zSign * (st[Z] - zOffsetUm);
+  const dzl = zSign * st[DZ];
   const zMin = tile.zMinUm;
   const zMax = tile.zMaxUm;
   let t0 = 0;
@@ -166,6 +166,8 @@ function slabEntry(tile: SurfaceTile, zl: number, dzl: number, fromBelow: boolea
   if (mustHit) tLimit = tLimit * (1 + 1e-9) + 1e-9 * (zMax - zMin);
   slab[0] = t0;
   slab[1] = tLimit;
+  slab[2] = zl + t0 * dzl;
+  slab[3] = dzl;
   return mustHit ? MUST_HIT : 0;
 }
 
@@ -182,13 +184,13 @@ function slabEntry(tile: SurfaceTile, zl: number, dzl: number, fromBelow: boolea
  * left is never hit again.
  */
 function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, zSign: number, zOffsetUm: number): number {
-  const zl = zSign * (st[Z] - zOffsetUm);
-  const dzl = zSign * st[DZ];
-  const entry = slabEntry(tile, zl, dzl, fromBelow);
+  const entry = slabEntry(tile, st, fromBelow, zSign, zOffsetUm);
   if (entry === NO_HIT) return NO_HIT;
   const mustHit = entry === MUST_HIT;
   const t0 = slab[0];
   const tLimit = slab[1];
+  const ozl = slab[2];
+  const dzl = slab[3];
   const dx = st[DX];
   const dy = st[DY];
   const c = tile.cosRot;
@@ -208,7 +210,6 @@ function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, 
   const tanA = tile.pyramidTan;
   const flip = tile.pyramidSign < 0;
   const below = flip ? !fromBelow : fromBelow;
-  const ozl = zl + t0 * dzl;
   const oz = flip ? -ozl : ozl;
   const dz = flip ? -dzl : dzl;
   const lxy = tile.lxUm + tile.lyUm;
