@@ -1,6 +1,5 @@
 import { MaterialRegistry } from "../src/materials/registry.js";
 import { RandomStream, streamKey } from "../src/random/stream.js";
-import type { StackSpec } from "../src/study/stackTypes.js";
 import { compileStack } from "../src/trace/compile.js";
 import type { Estimator } from "../src/trace/compiledStack.js";
 import { traceBatch } from "../src/trace/kernel.js";
@@ -14,19 +13,8 @@ import { batchLaunchPoints, type LaunchSampling } from "../src/trace/launchPoint
 import { trappingWithReplicaErrors, withReplicaErrors } from "../src/trace/replicaSummary.js";
 import { REPLICA_GROUPS } from "../src/random/replicaGroups.js";
 
-/**
- * Reference case: bare regular upright 54.74° pyramids of 10 µm base on the front of 180 µm Si
- * (from the pyramid base plane to the rear), planar rear with an ideal mirror of reflectance 0.95,
- * Si from Green 2008, normal incidence, 10^5 rays, fixed seed.
- */
-export const BENCH_STACK: StackSpec = {
-  incidence: "air",
-  layers: [],
-  front: { texture: { type: "upright-pyramids", baseUm: 10, facetAngleDeg: 54.74 }, films: [] },
-  absorber: { material: "Si-Green2008", thicknessUm: 180 },
-  rear: { ideal: { kind: "mirror", reflectance: 0.95 } },
-  boundary: "periodic",
-};
+export { BENCH_STACK } from "./benchStack.js";
+import { BENCH_STACK } from "./benchStack.js";
 
 export const BENCH_WAVELENGTHS_NM = [1000, 600, 1150];
 export const BENCH_RAYS = 100_000;
