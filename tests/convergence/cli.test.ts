@@ -4,6 +4,7 @@ import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
 import { runMain as run } from "../helpers/cli.js";
 import { CONVERGENCE_CSV_COLUMNS, type ConvergenceReport } from "../../src/convergence/convergenceReport.js";
+import { BARE_SI_STACK } from "./bareSi.js";
 
 const dir = mkdtempSync(join(tmpdir(), "lightfold-converge-cli-"));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -13,12 +14,7 @@ writeFileSync(
   studyPath,
   JSON.stringify({
     name: "bare-si-planar",
-    stack: {
-      incidence: "air",
-      front: { texture: { type: "planar" }, films: [] },
-      absorber: { material: "Si", thicknessUm: 180 },
-      rear: { texture: { type: "planar" }, films: [], exit: "Ag" },
-    },
+    stack: BARE_SI_STACK,
     grid: { thetaDeg: [0, 30], phiDeg: [0], wavelengthNm: [500, 700] },
     rays: { perPoint: 1000, batch: 500 },
     seed: 3,

@@ -3,18 +3,14 @@ import { loadStudyFromDocument } from "../../src/study/load.js";
 import { logLogSlope } from "../../src/convergence/logLogSlope.js";
 import { runConvergence } from "../../src/convergence/runConvergence.js";
 import { buildConvergenceReport, convergenceEstimator } from "../../src/convergence/convergeStudy.js";
+import { BARE_SI_STACK } from "./bareSi.js";
 
 /** Planar bare silicon, 180 µm, silver rear: at 400 nm the wafer is opaque, so R is pure front Fresnel reflection. */
 function bareSi(seed: number) {
   return loadStudyFromDocument(
     {
       name: "bare-si-planar",
-      stack: {
-        incidence: "air",
-        front: { texture: { type: "planar" }, films: [] },
-        absorber: { material: "Si", thicknessUm: 180 },
-        rear: { texture: { type: "planar" }, films: [], exit: "Ag" },
-      },
+      stack: BARE_SI_STACK,
       grid: { thetaDeg: [0], phiDeg: [0], wavelengthNm: [400, 600] },
       rays: { perPoint: 1000, batch: 1000 },
       seed,
