@@ -61,11 +61,12 @@ export const DEFAULT_MAX_EVENTS = 10000;
 
 /**
  * Prepares a stack for tracing at one wavelength: n, k, α per medium, interface tables for every
- * interface (thin films included), surface tiles. Accepts a Study (uses its `stack`) or a StackSpec.
+ * interface (thin films included), surface tiles. Accepts a Study (uses its `stack`, and its
+ * `rays.sampling` for the default estimator) or a StackSpec.
  * Throws InputError when a material has no data at the wavelength (naming the field).
  */
 export function compileStack(
-  studyOrStack: StackSpec | { stack: StackSpec },
+  studyOrStack: StackSpec | { stack: StackSpec; rays?: { sampling?: LaunchSampling } },
   registry: MaterialSource,
   wavelengthNm: number,
   options: CompileOptions = {},
@@ -154,7 +155,7 @@ export function compileStack(
   const rearOpaque = isIdealRear(stack.rear) || (metalExit && nRear === 0) || rl.backsheetReflectance >= 0;
 
   const depthEdges = options.depthEdgesUm === undefined ? null : checkDepthEdges(options.depthEdgesUm);
-  const sampling = options.launchSampling ?? ("rays" in studyOrStack ? (studyOrStack as { rays?: { sampling?: LaunchSampling } }).rays?.sampling : undefined);
+  const sampling = options.launchSampling ?? ("stack" in studyOrStack ? studyOrStack.rays?.sampling : undefined);
   const choice = chooseEstimator(mediumAlphaPerUm[ABS] * thicknessUm, frontTile.kind === SURFACE_PLANAR && outerTile === null, nLayers > 0 || nRear > 0, sampling === "sobol");
   return {
     stack,
