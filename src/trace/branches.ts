@@ -6,11 +6,14 @@ import { BULK, FACE, PASSES, PENDING, ANALOG, BRANCH_SERIAL, BRANCHES, DX, ENTER
  * Pending branches of the ray in flight. In expected-value mode an interface event may split the
  * ray (interfaceEvent): the transmitted part goes on at once, the reflected part waits here with
  * its share of the weight and is traced after the current branch ends (splitting, the expected
- * value of the reflect/transmit choice). Every branch belongs to the same ray: its contributions
+ * value of the reflect/transmit choice), on the way in and, under the Sobol' tail rule, on the way out. Every branch belongs to the same ray: its contributions
  * add to the ray's, which still sum to 1. A fixed stack in cs.branches; nothing is allocated.
  */
 export const MAX_BRANCHES = 64;
-/** Saved per branch: position, direction, polarisation, weight, τ budget, analog flag, medium. */
+/**
+ * Saved per branch: position, direction, polarisation, weight, τ budget, analog flag, medium, and its
+ * history in the absorber (entered flag, pass, face, bulk survival, pass end pending).
+ */
 export const BRANCH_SLOTS = 18;
 const B_MEDIUM = 12;
 const B_HISTORY = 13;
@@ -73,7 +76,7 @@ export function popBranch(cs: CompiledStack, st: Float64Array, rng: RandomStream
   st[TAU] = b[o + 10];
   st[ANALOG] = b[o + 11];
   st[BRANCHES] = n - 1;
-  // Branches are only made before the ray enters the absorber (interfaceEvent).
+  // the branch resumes the history it had at the split (history.ts)
   st[ENTERED] = b[o + B_HISTORY];
   st[PASSES] = b[o + B_HISTORY + 1];
   st[FACE] = b[o + B_HISTORY + 2];

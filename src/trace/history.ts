@@ -15,8 +15,8 @@ import { DIAG_ENTERED, DIAG_ESCAPE_ANGLE, DIAG_FREE_PATH, DIAG_R_TOTAL, DIAG_T_T
  * (leavesFirst): light leaving through the face it came in by, never having entered, and light
  * leaving through the other face at the end of pass 1; everything else that leaves is escape.
  *
- * A ray may be split into branches before it enters (branches.ts): each branch starts its own
- * history (resetBranchHistory), and the ray's sums — entered power, α → 0 path, power per pass and
+ * A ray may be split into branches (branches.ts): each branch resumes the history it had at the
+ * split (entered flag, pass, face, survival), and the ray's sums — entered power, α → 0 path, power per pass and
  * per escape angle (cs.rayPasses, cs.rayEscape) — add over its branches, so the tally keeps one
  * sample per ray (its squares are those of the ray's totals).
  */
@@ -36,11 +36,6 @@ export function resetHistory(st: Float64Array, incidentFace: number): void {
   st[TAIL] = 0;
   st[MAX_PASS] = 0;
   st[ESCAPED] = 0;
-  resetBranchHistory(st);
-}
-
-/** A branch of the ray starts (it has not entered the absorber): its own pass count, face and survival. */
-export function resetBranchHistory(st: Float64Array): void {
   st[PASSES] = 0;
   st[FACE] = FACE_NONE;
   st[BULK] = 1;
