@@ -11,6 +11,7 @@ import { DIAG_LENGTH, ESCAPE_ANGLE_BINS, MAX_PASSES } from "./tallyLayout.js";
 import { CH_R_ESCAPE, CH_R_FIRST, CH_T_ESCAPE, CH_T_FIRST, channelNamesOfStack } from "./channels.js";
 import { BRANCH_SLOTS, MAX_BRANCHES } from "./branches.js";
 import { STATE_LENGTH } from "./rayState.js";
+import { analogCellEligible } from "./analogCell.js";
 import { chooseEstimator } from "./estimatorChoice.js";
 import type { LaunchSampling } from "../random/sobol.js";
 import {
@@ -157,7 +158,7 @@ export function compileStack(
   const depthEdges = options.depthEdgesUm === undefined ? null : checkDepthEdges(options.depthEdgesUm);
   const sampling = options.launchSampling ?? ("stack" in studyOrStack ? studyOrStack.rays?.sampling : undefined);
   const choice = chooseEstimator(mediumAlphaPerUm[ABS] * thicknessUm, frontTile.kind === SURFACE_PLANAR && outerTile === null, nLayers > 0 || nRear > 0, sampling === "sobol");
-  return {
+  const cs: CompiledStack = {
     stack,
     wavelengthNm,
     nRear,
@@ -208,7 +209,10 @@ export function compileStack(
     rayDepth: new Float64Array(depthEdges === null ? 0 : depthEdges.length - 1),
     rayPasses: new Float64Array(MAX_PASSES),
     rayEscape: new Float64Array(ESCAPE_ANGLE_BINS),
+    analogCellLoop: false,
   };
+  cs.analogCellLoop = analogCellEligible(cs);
+  return cs;
 }
 
 function checkDepthEdges(edges: Float64Array | number[]): Float64Array {

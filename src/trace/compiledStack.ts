@@ -110,4 +110,6 @@ export interface CompiledStack {
   /** Per-ray power still inside after passes 1..MAX_PASSES and R_escape power per polar bin (history.ts). */
   rayPasses: Float64Array;
   rayEscape: Float64Array;
+  /** Analog batches of front light take the bare-cell loop (analogCell.ts); false sends them through the general loop. */
+  analogCellLoop: boolean;
 }

@@ -26,6 +26,7 @@ import {
   resetHistory,
 } from "./history.js";
 import { foldDepth } from "./depthTally.js";
+import { RAY_LOST as RAY_LOST_CELL, traceAnalogCellRay } from "./analogCell.js";
 
 export type { Polarization } from "./launch.js";
 
@@ -91,6 +92,7 @@ export function traceBatch(
   setLaunchAngles(st, Math.sin(thetaDeg * DEG), Math.cos(thetaDeg * DEG));
   if (phiDeg !== null) setLaunchAzimuth(st, phiDeg * DEG);
   const u = launch === null ? null : launch.u;
+  const cellLoop = st[BATCH_ANALOG] !== 0 && !fromRear && cs.analogCellLoop;
   for (let r = 0; r < nRays; r++) {
     // One substream per ray: rays stay paired across stacks traced with the same stream (CRN).
     rng.startSubstream(r);
@@ -99,7 +101,12 @@ export function traceBatch(
     if (phiDeg === null) cosSinOfTurn(st, u === null ? rng.next() : u[3], L_COS_P, L_SIN_P);
     launchRay(cs, polMode, rng, fromRear, u);
     resetHistory(st, fromRear ? FACE_REAR : FACE_FRONT);
-    traceRay(cs, rng, startMedium);
+    if (cellLoop) {
+      if (traceAnalogCellRay(cs, st, rng) === RAY_LOST_CELL) cs.contrib[cs.chUnresolved] += st[W];
+      endAnalogPath(cs, st);
+    } else {
+      traceRay(cs, rng, startMedium);
+    }
     sums[0] += st[EVENTS];
     foldHistory(cs, st);
     foldRayContributions(cs.contrib, nC, tally);

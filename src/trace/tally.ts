@@ -50,6 +50,8 @@ function meanAndStderr(sum: number, sumSq: number, n: number): [number, number] 
 export function foldRayContributions(contrib: Float64Array, nChannels: number, tally: Float64Array): void {
   for (let c = 0; c < nChannels; c++) {
     const v = contrib[c];
+    // A ray touches few channels (an analog one, one): adding zeros would change nothing.
+    if (v === 0) continue;
     tally[2 * c] += v;
     tally[2 * c + 1] += v * v;
     contrib[c] = 0;

@@ -1,0 +1,100 @@
+import type { RandomStream } from "../random/stream.js";
+import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
+import { SURFACE_LAMBERTIAN, SURFACE_PLANAR } from "../geometry/surfaceTile.js";
+import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
+import { DIED, DZ, EVENTS, FACE, HIT, REFLECT, W, advance } from "./rayState.js";
+import { frontSearch, rearSearch } from "./surfaceSearch.js";
+import { absorbAlong } from "./bulkTransport.js";
+import { interfaceEvent } from "./interfaceEvent.js";
+import { idealRear } from "./idealSurfaces.js";
+import { FACE_FRONT, FACE_REAR, arriveAtFace, departFace, enterAbsorber, leaveFront, rearExitChannel } from "./history.js";
+
+/**
+ * The ray loop of an analog batch on a bare cell: the incidence medium straight on the front texture
+ * (regular pyramids or planar, films allowed), the absorber, a planar rear (ideal reflector, or an
+ * interface into the exit medium), light from the front. A ray is either above the
+ * front or in the absorber, so one loop with a flag replaces the general loop's medium dispatch
+ * (kernel.ts); the physics, the random draws and the tallies are the general loop's, call for call,
+ * so both give bit-identical tallies (tests/trace/analogCell.test.ts). About 7 % faster on the
+ * bench case (DEVELOPERS.md, "Tracer efficiency").
+ */
+
+/** Whether analog batches of front light on this stack can take the bare-cell loop. */
+export function analogCellEligible(cs: CompiledStack): boolean {
+  return (
+    cs.nLayers === 0 &&
+    cs.outerTile === null &&
+    cs.nRear === 0 &&
+    cs.frontTile.kind !== SURFACE_LAMBERTIAN &&
+    (cs.frontTile.kind === SURFACE_PLANAR || cs.frontTile.pyramidSign !== 0) &&
+    cs.rearTile.kind === SURFACE_PLANAR
+  );
+}
+
+export const RAY_LOST = -2;
+
+/**
+ * Follows one launched analog ray to its end (its channel, history and events in the state, as
+ * traceRay leaves them); returns RAY_LOST when it could not be resolved (event budget, lost in the
+ * walk), else 0.
+ */
+export function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
+  const maxEvents = cs.maxEvents;
+  const ABS = 1;
+  const mirrorRear = cs.rearKind === REAR_IDEAL_MIRROR || cs.rearKind === REAR_IDEAL_LAMBERTIAN;
+  const absorbingAbove = cs.mediumAlphaPerUm[0] > 0;
+  let inAbsorber = false;
+  st[EVENTS] = 0;
+  for (;;) {
+    if (st[EVENTS] >= maxEvents) return RAY_LOST;
+    if (!inAbsorber) {
+      const found = frontSearch(cs, st, false);
+      if (found === LOST) return RAY_LOST;
+      if (found === NO_HIT) {
+        if (st[DZ] > 0) {
+          leaveFront(cs, st);
+          return 0;
+        }
+        return RAY_LOST;
+      }
+      if (absorbingAbove && absorbAlong(cs, st, 0, rng)) return 0;
+      advance(st);
+      st[EVENTS]++;
+      const out = interfaceEvent(cs, st, cs.front, rng);
+      if (out === DIED) return 0;
+      if (out !== REFLECT) {
+        enterAbsorber(st, FACE_FRONT);
+        inAbsorber = true;
+      }
+      continue;
+    }
+    if (st[DZ] > 0 && st[FACE] === FACE_REAR) departFace(cs, st);
+    const found = frontSearch(cs, st, true);
+    if (found === LOST) return RAY_LOST;
+    if (found === HIT) {
+      if (absorbAlong(cs, st, ABS, rng)) return 0;
+      advance(st);
+      st[EVENTS]++;
+      arriveAtFace(st, FACE_FRONT);
+      const out = interfaceEvent(cs, st, cs.front, rng);
+      if (out === DIED) return 0;
+      if (out !== REFLECT) inAbsorber = false;
+      continue;
+    }
+    if (st[FACE] === FACE_FRONT) departFace(cs, st);
+    rearSearch(cs, st);
+    if (absorbAlong(cs, st, ABS, rng)) return 0;
+    advance(st);
+    st[EVENTS]++;
+    arriveAtFace(st, FACE_REAR);
+    if (mirrorRear) {
+      if (idealRear(cs, st, rng)) return 0;
+      continue;
+    }
+    const out = interfaceEvent(cs, st, cs.rear as CompiledInterface, rng);
+    if (out === REFLECT) continue;
+    // Transmitted into the exit medium without a sink there: it leaves through the rear.
+    if (out !== DIED) cs.contrib[rearExitChannel(cs, st)] += st[W];
+    return 0;
+  }
+}
