@@ -5,7 +5,7 @@ import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type 
 import { DIED, DZ, EVENTS, FACE, HIT, REFLECT, W, advance } from "./rayState.js";
 import { frontSearch, rearSearch } from "./surfaceSearch.js";
 import { absorbAlong } from "./bulkTransport.js";
-import { interfaceEvent } from "./interfaceEvent.js";
+import { analogInterfaceEvent } from "./analogInterfaceEvent.js";
 import { idealRear } from "./idealSurfaces.js";
 import { FACE_FRONT, FACE_REAR, arriveAtFace, departFace, enterAbsorber, leaveFront, rearExitChannel } from "./history.js";
 
@@ -60,7 +60,7 @@ export function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: Ran
       if (absorbingAbove && absorbAlong(cs, st, 0, rng)) return 0;
       advance(st);
       st[EVENTS]++;
-      const out = interfaceEvent(cs, st, cs.front, rng);
+      const out = analogInterfaceEvent(cs, st, cs.front, rng);
       if (out === DIED) return 0;
       if (out !== REFLECT) {
         enterAbsorber(st, FACE_FRONT);
@@ -76,7 +76,7 @@ export function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: Ran
       advance(st);
       st[EVENTS]++;
       arriveAtFace(st, FACE_FRONT);
-      const out = interfaceEvent(cs, st, cs.front, rng);
+      const out = analogInterfaceEvent(cs, st, cs.front, rng);
       if (out === DIED) return 0;
       if (out !== REFLECT) inAbsorber = false;
       continue;
@@ -91,7 +91,7 @@ export function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: Ran
       if (idealRear(cs, st, rng)) return 0;
       continue;
     }
-    const out = interfaceEvent(cs, st, cs.rear as CompiledInterface, rng);
+    const out = analogInterfaceEvent(cs, st, cs.rear as CompiledInterface, rng);
     if (out === REFLECT) continue;
     // Transmitted into the exit medium without a sink there: it leaves through the rear.
     if (out !== DIED) cs.contrib[rearExitChannel(cs, st)] += st[W];

@@ -1,10 +1,11 @@
 import type { RandomStream } from "../random/stream.js";
-import { interfacePowers, lookupInterface } from "../optics/interfaceTable.js";
+import { interfacePowers } from "../optics/interfaceTable.js";
 import type { CompiledInterface, CompiledStack } from "./compiledStack.js";
 import { rouletteCheck } from "./bulkTransport.js";
 import { canBranch, pushBranch } from "./branches.js";
 import { ANALOG, DIED, ENTERED, EP, ES, INCIDENT, SPLIT, DX, DY, DZ, EX, EY, EZ, NX, NY, NZ, PA, PB, REFLECT, SX, SY, SZ, TRANSMIT, W } from "./rayState.js";
 import { FACE_REAR, rearExitChannel } from "./history.js";
+import { analogInterfaceEvent } from "./analogInterfaceEvent.js";
 
 /**
  * Scattering at an interface with films, normal N (state NX..NZ) pointing into the upper medium.
@@ -14,14 +15,14 @@ import { FACE_REAR, rearExitChannel } from "./history.js";
  * (√R, √T of each part; phase and ellipticity neglected).
  */
 export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: CompiledInterface, rng: RandomStream): number {
+  if (st[ANALOG] !== 0) return analogInterfaceEvent(cs, st, iface, rng);
   const dx = st[DX], dy = st[DY], dz = st[DZ];
   const nx = st[NX], ny = st[NY], nz = st[NZ];
   const dn = dx * nx + dy * ny + dz * nz;
   const up = dn > 0;
   const cosI = up ? dn : -dn;
   const row = cs.scratchRow;
-  // Analog events read the films' absorptances only when the ray is absorbed in one (below).
-  interfacePowers(iface.table, up ? 1 : 0, cosI, row, 0, st[ANALOG] !== 0 ? 4 : iface.table.stride);
+  interfacePowers(iface.table, up ? 1 : 0, cosI, row, 0, iface.table.stride);
 
   // s = d × N (normalised), p_i = s × d.
   let sx = dy * nz - dz * ny;
@@ -59,81 +60,52 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   let sink = up ? -1 : iface.lowerSinkChan;
   if (sink === cs.chTFirst) sink = rearExitChannel(cs, st);
   const contrib = cs.contrib;
-  // Total reflection (Rpow = 1) needs no random number: u = 0 reflects in both estimators.
+  // Total reflection (Rpow = 1) needs no random number: u = 0 reflects (as in the analog event).
   const u = Rpow < 1 ? rng.next() : 0;
-  let reflect: boolean;
-  if (st[ANALOG] !== 0) {
-    if (u < Rpow) {
-      reflect = true;
-    } else if (u < Rpow + Tpow) {
-      if (sink >= 0) {
-        contrib[sink] += st[W];
-        return DIED;
-      }
-      reflect = false;
-    } else {
-      // Absorbed in a film (or, by rounding, nowhere: then transmit/reflect).
-      if (nF > 0) lookupInterface(iface.table, up ? 1 : 0, cosI, row, 0);
-      let acc = Rpow + Tpow;
-      for (let i = 0; i < nF; i++) {
-        acc += fs * row[4 + i] + fp * row[4 + nF + i];
-        if (u < acc || i === nF - 1) {
-          contrib[iface.filmChan0 + i] += st[W];
-          return DIED;
-        }
-      }
-      if (Tpow > 0 && sink >= 0) {
-        contrib[sink] += st[W];
-        return DIED;
-      }
-      reflect = Tpow <= 0;
-    }
-  } else {
-    // Expected value: absorption in films (and in a sink below) is tallied as weight.
-    const w = st[W];
-    let dep = 0;
-    for (let i = 0; i < nF; i++) {
-      const d = w * (fs * row[4 + i] + fp * row[4 + nF + i]);
-      contrib[iface.filmChan0 + i] += d;
-      dep += d;
-    }
-    let pT = Tpow;
-    if (sink >= 0) {
-      const d = w * Tpow;
-      contrib[sink] += d;
-      dep += d;
-      pT = 0;
-    }
-    const wNew = w - dep;
-    if (!(wNew > 0) || Rpow + pT <= 0) {
-      if (wNew > 0) contrib[sink >= 0 ? sink : iface.filmChan0 >= 0 ? iface.filmChan0 : cs.chUnresolved] += wNew;
-      return DIED;
-    }
-    const pR = Rpow / (Rpow + pT);
-    // Split on the way in (events met travelling away from the side the light came from, before the
-    // ray first reaches the absorber): the reflected part waits as a branch, the transmitted part
-    // goes on now. The light's first reflection, the largest loss at most wavelengths, is then an
-    // expected value instead of a coin toss; later events stay sampled, where splitting would grow
-    // trees of little weight.
-    const floor = up === (st[INCIDENT] === FACE_REAR) && st[ENTERED] === 0 ? cs.splitMinWeight : st[ENTERED] !== 0 && (up ? iface === cs.front : iface === cs.rear) ? cs.escapeSplitMinWeight : 0;
-    if (floor > 0 && wNew * (pR < 0.5 ? pR : 1 - pR) >= floor && canBranch(st)) {
-      reflectInto(st, row);
-      st[W] = wNew * pR;
-      pushBranch(cs, st);
-      // Back to the incoming direction for the transmitted part.
-      st[DX] = dx;
-      st[DY] = dy;
-      st[DZ] = dz;
-      st[W] = wNew * (1 - pR);
-      transmitInto(st, row, iface, up);
-      return SPLIT;
-    }
-    st[W] = wNew;
-    reflect = u * (Rpow + pT) < Rpow;
-    // Roulette is for the bulk: before the absorber, small branches stay expected-value (the split
-    // weight floor bounds their number) so that later events of the first pass are split too.
-    if (st[ENTERED] !== 0) rouletteCheck(cs, st, rng);
+  // Expected value: absorption in films (and in a sink below) is tallied as weight.
+  const w = st[W];
+  let dep = 0;
+  for (let i = 0; i < nF; i++) {
+    const d = w * (fs * row[4 + i] + fp * row[4 + nF + i]);
+    contrib[iface.filmChan0 + i] += d;
+    dep += d;
   }
+  let pT = Tpow;
+  if (sink >= 0) {
+    const d = w * Tpow;
+    contrib[sink] += d;
+    dep += d;
+    pT = 0;
+  }
+  const wNew = w - dep;
+  if (!(wNew > 0) || Rpow + pT <= 0) {
+    if (wNew > 0) contrib[sink >= 0 ? sink : iface.filmChan0 >= 0 ? iface.filmChan0 : cs.chUnresolved] += wNew;
+    return DIED;
+  }
+  const pR = Rpow / (Rpow + pT);
+  // Split on the way in (events met travelling away from the side the light came from, before the
+  // ray first reaches the absorber): the reflected part waits as a branch, the transmitted part
+  // goes on now. The light's first reflection, the largest loss at most wavelengths, is then an
+  // expected value instead of a coin toss; later events stay sampled, where splitting would grow
+  // trees of little weight.
+  const floor = up === (st[INCIDENT] === FACE_REAR) && st[ENTERED] === 0 ? cs.splitMinWeight : st[ENTERED] !== 0 && (up ? iface === cs.front : iface === cs.rear) ? cs.escapeSplitMinWeight : 0;
+  if (floor > 0 && wNew * (pR < 0.5 ? pR : 1 - pR) >= floor && canBranch(st)) {
+    reflectInto(st, row);
+    st[W] = wNew * pR;
+    pushBranch(cs, st);
+    // Back to the incoming direction for the transmitted part.
+    st[DX] = dx;
+    st[DY] = dy;
+    st[DZ] = dz;
+    st[W] = wNew * (1 - pR);
+    transmitInto(st, row, iface, up);
+    return SPLIT;
+  }
+  st[W] = wNew;
+  const reflect = u * (Rpow + pT) < Rpow;
+  // Roulette is for the bulk: before the absorber, small branches stay expected-value (the split
+  // weight floor bounds their number) so that later events of the first pass are split too.
+  if (st[ENTERED] !== 0) rouletteCheck(cs, st, rng);
 
   if (reflect) {
     reflectInto(st, row);
