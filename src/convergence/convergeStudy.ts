@@ -38,7 +38,7 @@ export interface ConvergeRequest {
   targetError?: number;
   /** Absorption sampling of the tracer (default: the tracer's default, "expected"); in-thread only. */
   estimator?: TraceEstimatorKind;
-  /** Launch sampling (default: the study's rays.sampling, else "random"). */
+  /** Launch sampling (default: the study's, as resolved: Sobol' with 16+ batches per point unless it names one). */
   sampling?: LaunchSampling;
 }
 
@@ -67,7 +67,7 @@ function prepare(loaded: LoadedStudy, req: ConvergeRequest): Prepared {
   if (sampling === "sobol" && req.startRays < REPLICA_GROUPS) {
     throw new InputError(
       `--start ${req.startRays}: Sobol' sampling splits every run into ${REPLICA_GROUPS} independent replicas and takes the standard error from their spread; it needs at least ${REPLICA_GROUPS} rays per run`,
-      `e.g. --start ${16 * REPLICA_GROUPS}`,
+      req.sampling === undefined ? `e.g. --start ${16 * REPLICA_GROUPS}, or --sampling random (the study gets Sobol' points by default: 16+ batches per point)` : `e.g. --start ${16 * REPLICA_GROUPS}`,
     );
   }
   const { sampling: _studySampling, ...rays } = study.rays;

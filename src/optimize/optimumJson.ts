@@ -1,6 +1,7 @@
 /**
  * The optimisation's result file, <out>/optimum.json (kind "lightfold.optimum"), and its text table.
  */
+import type { LaunchSampling } from "../random/sobol.js";
 import type { ObjectiveInfo } from "./objectives.js";
 import type { ParameterSpec } from "./parameters.js";
 import type { OptimumResult } from "./types.js";
@@ -22,7 +23,7 @@ export interface OptimumDocument {
   kind: typeof OPTIMUM_KIND;
   formatVersion: 1;
   toolVersion: string;
-  study: { name: string; file: string; seed: number; raysPerPoint: number; batch: number; grid: { nTheta: number; nPhi: number; nWavelength: number } };
+  study: { name: string; file: string; seed: number; raysPerPoint: number; batch: number; /** Launch sampling of every evaluation (rays.ts, parseRays). */ sampling: LaunchSampling; grid: { nTheta: number; nPhi: number; nWavelength: number } };
   objective: ObjectiveInfo & { details: Record<string, unknown> };
   parameters: ParameterSpec[];
   /**

@@ -5,8 +5,11 @@
  * resumes: finished evaluations are read back, the unfinished one continues from its journal.
  */
 import { join } from "node:path";
+import type { LaunchSampling } from "../random/sobol.js";
 import { readStudyDocument } from "../study/load.js";
+import { parseRays } from "../study/rays.js";
 import type { RaysPlan } from "../study/studyTypes.js";
+import { InputError } from "../util/errors.js";
 import { workerSetupOf } from "../sweep/runSweep.js";
 import { writeFileAtomic } from "../util/atomicWrite.js";
 import { toolVersion } from "../util/version.js";
@@ -54,10 +57,12 @@ export async function runOptimization(req: OptimizationRequest): Promise<Optimiz
   const lower = req.params.map((p) => p.lower);
   const upper = req.params.map((p) => p.upper);
   // The study as written decides the default rays; evaluations trace a fixed number per point.
-  const plain = evaluationStudy({ base, params: req.params, objective: req.objective }, lower, -1).combos[0].study;
+  const asWritten = evaluationStudy({ base, params: req.params, objective: req.objective }, lower, -1);
+  const plain = asWritten.combos[0].study;
   const perPoint = req.raysPerPoint ?? (plain.rays.mode === "fixed" ? plain.rays.perPoint : plain.rays.minPerPoint);
   const batch = Math.min(perPoint, req.batch ?? Math.min(plain.rays.batch, DEFAULT_OPTIMIZE_BATCH));
-  const rays: RaysPlan = { mode: "fixed", perPoint, batch };
+  // The launch sampling the study names, else the default of these rays (Sobol' with 16+ batches).
+  const rays = evaluationRays(perPoint, batch, asWritten.raysAsWritten.sampling, base.path);
   if (plain.rays.mode === "target") req.onNotice?.(`the study's target-error rays are replaced by ${perPoint} rays per point (every evaluation traces the same rays)`);
   const spec = { base, params: req.params, objective: req.objective, rays };
   // Both corners must make valid stacks before anything is traced.
@@ -92,6 +97,7 @@ export async function runOptimization(req: OptimizationRequest): Promise<Optimiz
         seed: plain.seed,
         raysPerPoint: perPoint,
         batch,
+        sampling: rays.sampling ?? "random",
         grid: { nTheta: g.thetaDeg.length, nPhi: g.phiDeg.length, nWavelength: g.wavelengthNm.length },
       },
       objective: { ...info, details: req.objectiveDetails },
@@ -105,5 +111,15 @@ export async function runOptimization(req: OptimizationRequest): Promise<Optimiz
     return { doc, files: [path] };
   } finally {
     await pool.close();
+  }
+}
+
+/** The fixed rays of every evaluation; an explicit Sobol' sampling with too few batches is refused naming the flags. */
+function evaluationRays(perPoint: number, batch: number, sampling: LaunchSampling | undefined, studyPath: string): RaysPlan {
+  try {
+    return parseRays({ perPoint, batch, ...(sampling !== undefined ? { sampling } : {}) }, "rays");
+  } catch (err) {
+    if (err instanceof InputError) throw new InputError(`${studyPath}: optimisation rays (--rays ${perPoint}, --batch ${batch}): ${err.message}`, `trace more rays per point or smaller batches with --rays/--batch, or set "sampling": "random" in the study`);
+    throw err;
   }
 }

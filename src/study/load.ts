@@ -7,6 +7,7 @@ import type { MaterialRegistry } from "../materials/registry.js";
 import { canonicalJson, studyHash } from "./canonical.js";
 import { resolveStudyDocument } from "./resolveStudy.js";
 import { checkStudyDocument } from "./studySchema.js";
+import type { RawRays } from "./rays.js";
 import type { SweepSpec } from "./sweepCombos.js";
 import type { RaysPlan, Study, StudyCombo, StudyGrid } from "./studyTypes.js";
 import { buildMaterialRegistry } from "./userMaterials.js";
@@ -25,6 +26,12 @@ export interface LoadedStudy {
   registry: MaterialRegistry;
   /** Contents of the files the study refers to, by name as written. */
   files: Record<string, string>;
+  /**
+   * The study's "rays" section as written. Plans derived from it (sweep --sampling and
+   * --target-error, optimize) are parsed from it again, so a launch sampling the study names is kept
+   * and an unnamed one gets the default of the derived plan (rays.ts, defaultSampling).
+   */
+  raysAsWritten: RawRays;
 }
 
 /** Reads, validates and resolves a study file (JSON). Throws InputError naming the field path. */
@@ -59,6 +66,7 @@ export function loadStudyFromDocument(doc: unknown, options: { baseDir: string; 
     baseDir,
     registry,
     files,
+    raysAsWritten: resolved.raysAsWritten,
   });
 }
 
@@ -81,7 +89,7 @@ function assemble(
   studies: Study[],
   comboValues: Record<string, number>[],
   sweep: SweepSpec,
-  base: { path: string; baseDir: string; registry: MaterialRegistry; files: Record<string, string> },
+  base: { path: string; baseDir: string; registry: MaterialRegistry; files: Record<string, string>; raysAsWritten: RawRays },
 ): LoadedStudy {
   const hasSweep = Object.keys(sweep).length > 0;
   // rear-lit twins (illumination "both") follow the front combinations and share their numbers

@@ -16,6 +16,8 @@ export interface ResolvedDocument {
   /** Values of each combination, same order. */
   comboValues: Record<string, number>[];
   sweep: SweepSpec;
+  /** The "rays" section as written (plans derived from the study resolve their launch sampling from it). */
+  raysAsWritten: RawRays;
 }
 
 /** A study document as the schema admits it (the stack is checked per combination). */
@@ -68,9 +70,10 @@ export function resolveStudyDocument(doc: unknown, registry: MaterialLookup | un
   });
   // light from the rear: a twin per combination (front-lit studies keep the field unset, so their hash is unchanged)
   const rear = studies.map((s) => ({ ...s, lightFrom: "rear" as const }));
-  if (illumination === "rear") return { studies: rear, comboValues, sweep };
-  if (illumination === "both") return { studies: [...studies, ...rear], comboValues: [...comboValues, ...comboValues], sweep };
-  return { studies, comboValues, sweep };
+  const raysAsWritten = o.rays;
+  if (illumination === "rear") return { studies: rear, comboValues, sweep, raysAsWritten };
+  if (illumination === "both") return { studies: [...studies, ...rear], comboValues: [...comboValues, ...comboValues], sweep, raysAsWritten };
+  return { studies, comboValues, sweep, raysAsWritten };
 }
 
 /** Light from the rear needs a way in: refuse ideal rear reflectors and back-sheets (a metal exit is refused at compile). */

@@ -1,5 +1,6 @@
 import type { LoadedStudy } from "./load.js";
 import { comboTitle } from "./comboLabel.js";
+import { defaultSampling, SOBOL_DEFAULT_BATCHES } from "./rays.js";
 import type { RaysPlan } from "./studyTypes.js";
 
 /** Size of a study's work, for `check` and progress estimates. */
@@ -49,9 +50,6 @@ export function summarizeStudy(s: LoadedStudy): StudySummary {
 }
 
 /** Human-readable lines of a summary. */
-/** From this many batches per point the summary suggests Sobol' launch sampling (16 full replica groups). */
-const SOBOL_HINT_BATCHES = 16;
-
 export function formatStudySummary(s: LoadedStudy, sum: StudySummary): string[] {
   const g = s.combos[0].study.grid;
   const range = (v: number[], unit: string): string => (v.length === 1 ? `${v[0]}${unit}` : `${v[0]}–${v[v.length - 1]}${unit}`);
@@ -77,10 +75,15 @@ export function formatStudySummary(s: LoadedStudy, sum: StudySummary): string[] 
     lines.push(`rays       until SE(${r.channels.join(", ")}) < ${r.targetStdErr}, ${r.minPerPoint}–${r.maxPerPoint} per point in batches of ${r.batch}`);
     lines.push(`work       ${sum.points} points, ${sum.tasksMin}–${sum.tasksMax} tasks, ${sum.raysMin.toExponential(3)}–${sum.raysMax.toExponential(3)} rays`);
   }
-  if (r.sampling === "sobol") lines.push("sampling   Sobol' launch points (randomized quasi-Monte Carlo); standard errors from 16 replica groups");
-  else if (Math.ceil((r.mode === "fixed" ? r.perPoint : r.maxPerPoint) / r.batch) >= SOBOL_HINT_BATCHES) {
+  // The resolved launch sampling, and whether it is the default of these rays or the study's choice.
+  const asked = s.raysAsWritten.sampling;
+  const byDefault = defaultSampling(s.raysAsWritten);
+  if (r.sampling === "sobol") {
+    const why = asked === undefined ? `the default with ${SOBOL_DEFAULT_BATCHES}+ batches per point` : `"sampling": "sobol"`;
+    lines.push(`sampling   Sobol' launch points (randomized quasi-Monte Carlo, ${why}); standard errors from 16 replica groups`);
+  } else if (byDefault === "sobol") {
     // measured on the bench case: 5–8× the merit at 600 and 1000 nm, 3× at 1150 nm (README, "Launch sampling")
-    lines.push(`sampling   random launch points; with ${SOBOL_HINT_BATCHES}+ batches per point "sampling": "sobol" usually gives the same error in a fraction of the time on textured fronts`);
+    lines.push(`sampling   random launch points, as the study asks ("sampling": "random"; with ${SOBOL_DEFAULT_BATCHES}+ batches per point the default is Sobol' points)`);
   }
   return lines;
 }

@@ -23,8 +23,9 @@ function rays(raw: unknown, w: Where): RaysPlan {
   const o = obj(raw, w);
   const mode = oneOf(o.mode, at(w, "mode"), ["fixed", "target"] as const);
   const batch = int(o.batch, at(w, "batch"), 1, 1e9);
-  // Launch sampling (absent: random); it decides how the merged matrices take their errors.
-  const sampling = o.sampling === undefined ? {} : oneOf(o.sampling, at(w, "sampling"), ["sobol"] as const) && { sampling: "sobol" as const };
+  // The launch sampling the study resolved to (absent or "random": random; rays.ts, parseRays); it
+  // decides how the merged matrices take their errors.
+  const sampling = o.sampling === undefined || oneOf(o.sampling, at(w, "sampling"), ["random", "sobol"] as const) === "random" ? {} : { sampling: "sobol" as const };
   if (mode === "fixed") return { mode, perPoint: int(o.perPoint, at(w, "perPoint"), 1, 1e12), batch, ...sampling };
   const maxPerPoint = int(o.maxPerPoint, at(w, "maxPerPoint"), 1, 1e12);
   return {

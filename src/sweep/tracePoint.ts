@@ -43,7 +43,8 @@ export interface TracePointResult {
  * Traces one grid point with nRays in batches spread over the pool. Batch b uses
  * streamKey(seed, it, ip, il, b), exactly as a sweep does, so with firstBatch 0, the same
  * batch size and nRays = the study's perPoint, the tally equals that point's tally in a sweep.
- * Under Sobol' launch sampling the standard errors come from the replica groups (batch b → group
+ * Under Sobol' launch sampling (the study's, as resolved: the default with 16+ batches per point)
+ * the standard errors come from the replica groups (batch b → group
  * b mod 16), and fewer than MIN_REPLICAS batches are refused. (A call with firstBatch > 0 reports the
  * error of its own batches only.)
  */
@@ -62,7 +63,7 @@ export async function tracePoint(o: TracePointOptions): Promise<TracePointResult
   if (c.study.rays.sampling === "sobol" && Math.min(nBatches, REPLICA_GROUPS) < MIN_REPLICAS) {
     throw new InputError(
       `nRays: Sobol' sampling takes the standard error from independent replica groups and needs at least ${MIN_REPLICAS} batches, got ${o.nRays} rays in batches of ${batch} (${nBatches})`,
-      `trace at least ${MIN_REPLICAS * batch} rays, or smaller batches`,
+      `trace at least ${MIN_REPLICAS * batch} rays, or smaller batches (a study with 16+ batches per point gets Sobol' points by default; "sampling": "random" opts out)`,
     );
   }
   const sizes = Array.from({ length: nBatches }, (_, j) => Math.min(batch, o.nRays - j * batch));

@@ -5,6 +5,9 @@ import { tracePoint } from "../../src/sweep/tracePoint.js";
 import { readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { mergeShards } from "../../src/sweep/mergeShards.js";
+import { readShardPartial } from "../../src/sweep/shardFile.js";
+import { shardPartialPath } from "../../src/sweep/sweepPaths.js";
+import { channelStdErr } from "../../src/sweep/tally.js";
 import { expectSameMatrices, tempDir, tinyStudy } from "./helpers.js";
 
 // 2 angles × 3 wavelengths, 20 batches of 40 rays per point (groups 0–3 get two batches, 4–15 one).
@@ -31,7 +34,7 @@ describe("sweeps with Sobol' launch sampling", () => {
 
   it("differ from random sampling only in the launch: same study, other points, same physics (|z| < 4 per point)", async () => {
     const sobol = (await runSweep({ study: sobolStudy(), workers: 1 })).matrices[0];
-    const random = (await runSweep({ study: tinyStudy({ rays: { perPoint: 790, batch: 40 } }), workers: 1 })).matrices[0];
+    const random = (await runSweep({ study: tinyStudy({ rays: { perPoint: 790, batch: 40, sampling: "random" } }), workers: 1 })).matrices[0];
     const nC = sobol.channels.length;
     const ia = sobol.channels.indexOf("A_absorber");
     for (let q = 0; q < 6; q++) {
@@ -87,6 +90,63 @@ describe("sweeps with Sobol' launch sampling", () => {
     for (let c = 0; c < nC; c++) {
       expect(p.mean[c]).toBe(sweep.mean[q * nC + c]);
       expect(p.stderr[c]).toBe(sweep.stderr[q * nC + c]);
+    }
+  });
+});
+
+describe("Sobol' launch points by default (16+ batches per point)", () => {
+  // 16 batches of 40 rays per point: one per replica group.
+  const rays = { perPoint: 640, batch: 40 };
+
+  it("a sweep with 16 batches per point runs them: bit-identical for 1 and 2 workers, errors from the replica groups", async () => {
+    const study = tinyStudy({ rays });
+    expect(study.combos[0].study.rays.sampling).toBe("sobol");
+    const one = await runSweep({ study, workers: 1 });
+    const two = await runSweep({ study, workers: 2, raysPerMessage: 40, shuffleSeed: 99 });
+    expectSameMatrices(one.matrices, two.matrices);
+    // the same run as "sampling": "sobol" written out
+    expectSameMatrices(one.matrices, (await runSweep({ study: tinyStudy({ rays: { ...rays, sampling: "sobol" } }), workers: 1 })).matrices);
+    const m = one.matrices[0];
+    const nC = m.channels.length;
+    const G = m.pairGroups!;
+    const optOut = (await runSweep({ study: tinyStudy({ rays: { ...rays, sampling: "random" } }), workers: 1 })).matrices[0];
+    for (let q = 0; q < 6; q++) {
+      expect(m.nRays[q]).toBe(640);
+      const counts = Array.from({ length: G }, (_, g) => m.groupRays![q * G + g]);
+      expect(counts.every((n) => n === 40)).toBe(true);
+      for (let c = 0; c < nC; c++) {
+        // Cochran's cluster estimator over the 16 groups (replicaGroups.ts), not the per-ray error
+        const sums = counts.map((n, g) => n * m.groupMean![(q * G + g) * nC + c]);
+        expect(m.stderr[q * nC + c]).toBeCloseTo(groupStdErr(sums, counts), 15);
+      }
+      // "random" opts out: other launch points, the same physics (|z| < 4 per point)
+      const ia = m.channels.indexOf("A_absorber");
+      const z = (m.mean[q * nC + ia] - optOut.mean[q * nC + ia]) / Math.hypot(m.stderr[q * nC + ia], optOut.stderr[q * nC + ia]);
+      expect(Math.abs(z)).toBeLessThan(4);
+    }
+    expect(optOut.mean).not.toEqual(m.mean);
+  });
+
+  it("shards keep it in the plan they write, and merge to the full run bit for bit", async () => {
+    const study = tinyStudy({ rays });
+    const full = await runSweep({ study, workers: 1 });
+    const out = tempDir("sobol-default-shards");
+    for (let k = 1; k <= 3; k++) await runSweep({ study, outDir: out, workers: 1, shard: { index: k, count: 3 } });
+    expect(readShardPartial(shardPartialPath(out, { index: 2, count: 3 })).plan.rays).toEqual({ mode: "fixed", perPoint: 640, batch: 40, sampling: "sobol" });
+    expectSameMatrices(full.matrices, mergeShards({ inputs: [out], outDir: join(out, "merged") }).matrices);
+  });
+
+  it("15 batches per point stay random (per-ray errors)", async () => {
+    const study = tinyStudy({ rays: { perPoint: 600, batch: 40 } });
+    expect(study.combos[0].study.rays.sampling).toBeUndefined();
+    const m = (await runSweep({ study, workers: 1 })).matrices[0];
+    const nC = m.channels.length;
+    // the reported error of a random-sampling point is the per-ray one, s/√n from Σw and Σw²
+    // (tracePoint reproduces the sweep's point 0, 0, 1 and its tally)
+    const p = await tracePoint({ study, workers: 1, it: 0, ip: 0, il: 1, nRays: 600 });
+    for (let c = 0; c < nC; c++) {
+      expect(p.mean[c]).toBe(m.mean[nC + c]);
+      expect(m.stderr[nC + c]).toBe(channelStdErr(p.tally, nC, c));
     }
   });
 });

@@ -85,7 +85,7 @@ export function register(program: Command): void {
     .option("--json", "print the result as JSON instead of the table")
     .option("--workers <n>", "worker threads (default: all cores; 1 = trace in this thread; same numbers either way)")
     .option("--estimator <kind>", "absorption sampling of the tracer: expected (default) or analog (one thread)")
-    .option("--sampling <kind>", "launch sampling: random or sobol (randomized quasi-Monte Carlo; default: the study's rays.sampling)")
+    .option("--sampling <kind>", "launch sampling: random or sobol (randomized quasi-Monte Carlo; default: the study's, Sobol' where its points have 16+ batches)")
     .option("--quiet", "no progress lines on stderr")
     .addHelpText(
       "after",

@@ -2,7 +2,7 @@ import { makeReport } from "../../report/makeReport.js";
 import { basename, join } from "node:path";
 import type { Command } from "commander";
 import { loadStudy, withOverrides } from "../../study/load.js";
-import { parseRays, withSampling } from "../../study/rays.js";
+import { parseRays } from "../../study/rays.js";
 import { samplingFlag } from "../samplingFlag.js";
 import type { RaysPlan } from "../../study/studyTypes.js";
 import { InputError } from "../../util/errors.js";
@@ -63,7 +63,7 @@ export function register(program: Command): void {
     .option("--target-error <se>", "per point, add batches until the standard error of each --channels entry is below <se>")
     .option("--channels <list>", "channels for --target-error, comma-separated (default: A_absorber)")
     .option("--max-rays <n>", "most rays per point with --target-error (default: 200000)")
-    .option("--sampling <kind>", "launch sampling, random or sobol, instead of the study's rays.sampling (part of the run hash)")
+    .option("--sampling <kind>", "launch sampling, random or sobol, instead of the study's rays.sampling (default: sobol with 16+ batches per point, else random; part of the run hash)")
     .option("--no-report", "do not write <out>/report/index.html at the end")
     .option("--quiet", "no progress output")
     .option("--json", "print the final summary as JSON")
@@ -75,16 +75,18 @@ Examples:
   lightfold sweep configs/bench-pyramids.study.json --out runs/bench --workers 8
   lightfold sweep my.study.json --out /scratch/run1 --shard 3/16     then: lightfold merge /scratch/run1 --out /scratch/run1/merged
   lightfold sweep my.study.json --target-error 0.002 --channels A_absorber,R
-  lightfold sweep my.study.json --sampling sobol     (randomized quasi-Monte Carlo launch; needs ≥ 8 batches per point)
+  lightfold sweep my.study.json --sampling random    (independent launch points where the study would get Sobol' points)
 
 Interrupted runs (Ctrl-C, kill -9, a pre-empted job) resume from <out>/journal.jsonl when started again
 with the same study; a changed study sets the old journal aside and starts afresh.`,
     )
     .action(async (studyPath: string, flags: SweepFlags) => {
       let study = loadStudy(studyPath);
+      // The launch sampling the flag or the study names; unnamed, each plan gets its default (rays.ts).
       const sampling = samplingFlag(flags.sampling);
-      if (sampling !== undefined) {
-        const rays = flagRays(() => withSampling(study.combos[0].study.rays, sampling, "rays"), `--sampling ${sampling}`);
+      const asked = sampling ?? study.raysAsWritten.sampling;
+      if (sampling !== undefined && flags.targetError === undefined) {
+        const rays = flagRays(() => parseRays({ ...study.raysAsWritten, sampling }, "rays"), `--sampling ${sampling}`);
         study = withOverrides(study, { rays });
       }
       if (flags.targetError !== undefined) {
@@ -96,10 +98,11 @@ with the same study; a changed study sets the old journal aside and starts afres
         const base = study.combos[0].study.rays;
         const maxPerPoint = flags.maxRays === undefined ? 200_000 : positiveInt(flags.maxRays, "--max-rays", 1e9);
         const channels = (flags.channels ?? (base.mode === "target" ? base.channels.join(",") : "A_absorber")).split(",").map((c) => c.trim()).filter((c) => c !== "");
-        // The study's launch sampling is kept; Sobol' sampling starts with one batch per replica group.
+        // A sampling the flag or the study names is kept (Sobol' starts with one batch per replica
+        // group); unnamed, the target-error default: random (its first look comes after two batches).
         const rays = flagRays(
-          () => parseRays({ targetStdErr: se, channels, maxPerPoint, batch: base.batch, ...(base.sampling !== undefined ? { sampling: base.sampling } : {}) }, "rays"),
-          "--target-error",
+          () => parseRays({ targetStdErr: se, channels, maxPerPoint, batch: base.batch, ...(asked !== undefined ? { sampling: asked } : {}) }, "rays"),
+          sampling !== undefined ? `--target-error with --sampling ${sampling}` : "--target-error",
         );
         study = withOverrides(study, { rays });
       } else if (flags.channels !== undefined || flags.maxRays !== undefined) {

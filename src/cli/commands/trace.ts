@@ -45,7 +45,7 @@ export function register(program: Command): void {
     .option("--seed <n>", "seed of the random stream (default: the study's seed)")
     .option("--polarization <kind>", "unpolarized, s or p (relative to the plane of incidence)", "unpolarized")
     .option("--estimator <kind>", "default (chosen per wavelength), expected (expected-value weights) or analog", "default")
-    .option("--sampling <kind>", "launch sampling: random or sobol (16 scrambled Sobol' replicas; default: the study's rays.sampling)")
+    .option("--sampling <kind>", "launch sampling: random or sobol (16 scrambled Sobol' replicas; default: the study's, Sobol' where its points have 16+ batches)")
     .option("--combo <i>", "sweep combination index (0 = first)", "0")
     .option("--json", "print the result as JSON")
     .addHelpText(
@@ -93,7 +93,10 @@ Below the channels: the power that entered the absorber, the fraction of it stil
         throw err;
       }
       if (sampling === "sobol" && nRays < REPLICA_GROUPS) {
-        throw new InputError(`--rays ${nRays}: Sobol' sampling traces ${REPLICA_GROUPS} independent replicas and needs at least ${REPLICA_GROUPS} rays`, "e.g. --rays 16384");
+        throw new InputError(
+          `--rays ${nRays}: Sobol' sampling traces ${REPLICA_GROUPS} independent replicas and needs at least ${REPLICA_GROUPS} rays`,
+          opts.sampling === undefined ? "e.g. --rays 16384, or --sampling random (the study gets Sobol' points by default: 16+ batches per point)" : "e.g. --rays 16384",
+        );
       }
       const key = streamKey(seed, "trace", thetaDeg, phiDeg ?? "averaged", wavelengthNm);
       const t0 = process.hrtime.bigint();
