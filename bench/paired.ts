@@ -23,9 +23,9 @@ export async function runPairedBench(): Promise<void> {
   const d = random.d;
   process.stdout.write(
     `paired differences: demo random pyramids, SiNx 75 vs 80 nm, θ = 0, ${random.nWavelengths} wavelengths × ${perPoint} rays (${random.nBatches} batches), ${random.wallS.toFixed(1)} s in one thread\n` +
-      `  ΔJsc = ${d.delta.toFixed(4)} mA/cm²; SE paired (common random numbers) ${d.pairedStderr.toFixed(4)}, ` +
+      `  random launch points ("sampling": "random"; the default below 16 batches per point): ΔJsc = ${d.delta.toFixed(4)} mA/cm²; SE paired (common random numbers) ${d.pairedStderr.toFixed(4)}, ` +
       `as if independent ${d.independentStderr.toFixed(4)}; gain ${(d.independentStderr / d.pairedStderr).toFixed(2)}×\n` +
-      `  with Sobol' launch points ("sampling": "sobol", errors from the 16 replica groups, ${sobol.wallS.toFixed(1)} s): ΔJsc = ${sobol.d.delta.toFixed(4)} mA/cm²; ` +
+      `  Sobol' launch points (the default from 16 batches per point, errors from the 16 replica groups, ${sobol.wallS.toFixed(1)} s): ΔJsc = ${sobol.d.delta.toFixed(4)} mA/cm²; ` +
       `SE paired ${sobol.d.pairedStderr.toFixed(4)}, as if independent ${sobol.d.independentStderr.toFixed(4)}; ` +
       `gain against independent random sampling ${(d.independentStderr / sobol.d.pairedStderr).toFixed(2)}×\n`,
   );
