@@ -1,5 +1,5 @@
 export { compileStack, DEFAULT_MAX_EVENTS, type CompileOptions, type MaterialSource } from "./compile.js";
-export { chooseEstimator, QMC_TAIL_ROULETTE_WEIGHT, DEEP_TAIL_DEPTH, DEEP_TAIL_ROULETTE_WEIGHT, DEFAULT_SPLIT_MIN_WEIGHT, GRAZING_ANALOG_DEG, OPAQUE_DEPTH, OPAQUE_ROULETTE_WEIGHT, TAIL_ROULETTE_WEIGHT, type EstimatorChoice } from "./estimatorChoice.js";
+export { chooseEstimator, QMC_TAIL_ROULETTE_WEIGHT, DEEP_TAIL_DEPTH, DEEP_TAIL_ROULETTE_WEIGHT, DEFAULT_SPLIT_MIN_WEIGHT, GRAZING_ANALOG_DEG, OPAQUE_DEPTH, OPAQUE_ROULETTE_WEIGHT, TAIL_ROULETTE_WEIGHT, TAIL_SPLIT_DEPTH, TAIL_SPLIT_MIN_WEIGHT, tailSplitMinWeight, type EstimatorChoice } from "./estimatorChoice.js";
 export type { CompiledStack, CompiledInterface, Estimator } from "./compiledStack.js";
 export { channelNames, channelNamesOfStack } from "./channels.js";
 export { estimatorAt, traceBatch, type Polarization } from "./kernel.js";

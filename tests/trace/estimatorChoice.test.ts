@@ -2,10 +2,11 @@ import { describe, expect, it } from "vitest";
 import { join } from "node:path";
 import { loadStudy } from "../../src/study/load.js";
 import { compileStack } from "../../src/trace/compile.js";
-import { chooseEstimator, QMC_TAIL_ROULETTE_WEIGHT, DEEP_TAIL_ROULETTE_WEIGHT, DEFAULT_SPLIT_MIN_WEIGHT, GRAZING_ANALOG_DEG, OPAQUE_ROULETTE_WEIGHT, TAIL_ROULETTE_WEIGHT } from "../../src/trace/estimatorChoice.js";
+import { chooseEstimator, QMC_TAIL_ROULETTE_WEIGHT, DEEP_TAIL_ROULETTE_WEIGHT, DEFAULT_SPLIT_MIN_WEIGHT, GRAZING_ANALOG_DEG, OPAQUE_ROULETTE_WEIGHT, TAIL_ROULETTE_WEIGHT, TAIL_SPLIT_MIN_WEIGHT } from "../../src/trace/estimatorChoice.js";
 import { estimatorAt, traceBatch } from "../../src/trace/kernel.js";
 import { RandomStream, streamKey } from "../../src/random/stream.js";
 import { createTally, summarizeTally } from "../../src/trace/tally.js";
+import { expectWithin4Sigma, runTrace } from "./helpers.js";
 
 // The per-wavelength default (src/trace/estimatorChoice.ts); its merit against the analog estimator
 // at every demo point is measured by `npm run bench` (part "merit"), never asserted in a test.
@@ -14,10 +15,33 @@ describe("default estimator per wavelength", () => {
     expect(chooseEstimator(2, false, true)).toEqual({ estimator: "expected", rouletteWeight: OPAQUE_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: Infinity, escapeSplitMinWeight: 0 });
   });
   it("in the tail: split where αW ≥ 0.1; in the deep tail early roulette, splitting only at a planar front; analog in a module and at grazing incidence on a texture", () => {
-    expect(chooseEstimator(0.3, false, false)).toEqual({ estimator: "expected", rouletteWeight: TAIL_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: GRAZING_ANALOG_DEG, escapeSplitMinWeight: 0 });
+    expect(chooseEstimator(0.15, false, false)).toEqual({ estimator: "expected", rouletteWeight: TAIL_ROULETTE_WEIGHT, splitMinWeight: TAIL_SPLIT_MIN_WEIGHT, analogFromThetaDeg: GRAZING_ANALOG_DEG, escapeSplitMinWeight: 0 });
     expect(chooseEstimator(0.05, false, false)).toEqual({ estimator: "expected", rouletteWeight: DEEP_TAIL_ROULETTE_WEIGHT, splitMinWeight: 0, analogFromThetaDeg: GRAZING_ANALOG_DEG, escapeSplitMinWeight: 0 });
     expect(chooseEstimator(0.05, true, false)).toEqual({ estimator: "expected", rouletteWeight: DEEP_TAIL_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: Infinity, escapeSplitMinWeight: 0 });
     expect(chooseEstimator(0.05, false, true).estimator).toBe("analog");
+  });
+  it("on a texture in the tail the split floor is 0.1 up to αW 0.2, then falls log-linearly to the opaque floor at αW 0.5", () => {
+    const floor = (aw: number, plain = false): number => chooseEstimator(aw, plain, false).splitMinWeight;
+    expect([floor(0.1), floor(0.2)]).toEqual([TAIL_SPLIT_MIN_WEIGHT, TAIL_SPLIT_MIN_WEIGHT]);
+    // halfway between αW 0.2 and 0.5 the geometric mean of the two floors, 0.01
+    expect(floor(0.35)).toBeCloseTo(Math.sqrt(TAIL_SPLIT_MIN_WEIGHT * DEFAULT_SPLIT_MIN_WEIGHT), 12);
+    expect(floor(0.5 - 1e-9)).toBeCloseTo(DEFAULT_SPLIT_MIN_WEIGHT, 8);
+    expect(floor(0.5)).toBe(DEFAULT_SPLIT_MIN_WEIGHT);
+    const aws = [0.2, 0.25, 0.3, 0.35, 0.4, 0.45, 0.5];
+    for (let i = 1; i < aws.length; i++) expect(floor(aws[i]!)).toBeLessThan(floor(aws[i - 1]!));
+    // a planar front's reflected part just leaves: it splits at the opaque floor throughout the tail
+    expect([floor(0.15, true), floor(0.3, true)]).toEqual([DEFAULT_SPLIT_MIN_WEIGHT, DEFAULT_SPLIT_MIN_WEIGHT]);
+  });
+  it("the tail's split floor keeps the estimate unbiased: random pyramids at 1075 nm agree with the analog estimator", () => {
+    // independent runs, the difference judged by its combined standard error (sampling theory, |z| < 4)
+    const rp = loadStudy(join(import.meta.dirname, "../../configs/demo-random-pyramids.study.json"));
+    const stack = rp.combos[0]!.study.stack;
+    const opts = { wavelengthNm: 1075, thetaDeg: 10, phiDeg: null, nRays: 3000 };
+    const dflt = runTrace(stack, rp.registry, { ...opts, seed: 11 });
+    const analog = runTrace(stack, rp.registry, { ...opts, seed: 12, compile: { estimator: "analog" } });
+    for (const [label, d, a] of [["R", dflt.total("R"), analog.total("R")], ["A_absorber", dflt.get("A_absorber"), analog.get("A_absorber")]] as const) {
+      expectWithin4Sigma(`1075 nm, 10°, default − analog ${label}`, { mean: d.mean - a.mean, se: Math.hypot(d.se, a.se) }, 0);
+    }
   });
   it("under Sobol' launch points the deep tail of a bare texture splits every way in and out, roulette 0.1", () => {
     expect(chooseEstimator(0.05, false, false, true)).toEqual({ estimator: "expected", rouletteWeight: QMC_TAIL_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: GRAZING_ANALOG_DEG, escapeSplitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT });
@@ -33,6 +57,9 @@ describe("default estimator per wavelength", () => {
     const rp = loadStudy(join(import.meta.dirname, "../../configs/demo-random-pyramids.study.json"));
     const tail = compileStack(rp.combos[0]!.study, rp.registry, 1150);
     expect([tail.estimator, tail.rouletteWeight, tail.splitMinWeight]).toEqual(["expected", DEEP_TAIL_ROULETTE_WEIGHT, 0]);
+    // 1075 nm: αW ≈ 0.13 in 180 µm Si, the first facet's reflection splits, the weaker ones after it are sampled
+    const trap = compileStack(rp.combos[0]!.study, rp.registry, 1075);
+    expect([trap.estimator, trap.rouletteWeight, trap.splitMinWeight]).toEqual(["expected", TAIL_ROULETTE_WEIGHT, TAIL_SPLIT_MIN_WEIGHT]);
     expect([estimatorAt(tail, 60), estimatorAt(tail, 70), estimatorAt(tail, 80)]).toEqual(["expected", "analog", "analog"]);
     // an explicit choice wins, at every angle
     expect(compileStack(gg.combos[0]!.study, gg.registry, 1150, { estimator: "expected" }).estimator).toBe("expected");
