@@ -55,11 +55,11 @@ export const QMC_TAIL_ROULETTE_WEIGHT = 0.1;
  *   0.2 below. Below αW 0.5 on a texture every reflected part re-enters through another facet and
  *   runs the trap again, so small parts are sampled instead: both parts of a split weigh at least
  *   0.1 where αW ≤ 0.2, the floor falling log-linearly to 0.001 at αW 0.5. Random pyramids at
- *   1075 nm (αW 0.13), 0–20°: merit 1.04–1.11 of analog against 0.86–0.93 with the floor 0.001,
- *   the photocurrent's merit within 1 % on the demo stack and 4 % on the thickness sweep. Floors
- *   measured against it: 0.1 up to αW 0.5 (photocurrent up to −4 %), 0.2 (−5 to −28 %: the first
- *   reflection itself no longer splits), 0.03–0.06 (points at 0.95–1.03), no split (−9 to −18 %);
- *   roulette 0.3 or 0.5 with the 0.001 floor left the points below 1.
+ *   1075 nm (αW 0.13), 0–20°: merit 1.02–1.11 of analog against 0.86–0.94 with the floor 0.001,
+ *   the photocurrent's merit within 1 % on the demo stack and 3.4 % on the thickness sweep. Measured
+ *   against it: the floor 0.1 up to αW 0.5 (photocurrent up to −4.4 %), 0.2 (−5 to −28 %: the first
+ *   reflection itself no longer splits), 0.03 (points 0.94–1.02), 0.06 (first looks at 0.95), no
+ *   split (−9 to −18 %); roulette 0.3 or 0.5 with the 0.001 floor left the points below 1.
  * - In the deep tail (αW < 0.1) rays run long and weighted paths cost more than they save: roulette
  *   at weight 0.5, and splitting only when the light meets a planar front (its reflected part just
  *   leaves; on a texture it re-enters through the next facet and runs the whole trap a second time).
