@@ -39,6 +39,8 @@ describe("lightfold optimize", () => {
     const doc = JSON.parse(readFileSync(join(out, "optimum.json"), "utf8")) as OptimumDocument;
     expect(doc.kind).toBe("lightfold.optimum");
     expect(doc.settings.errorMethod).toBe("replicas");
+    // 4 batches of 100 per point: random launch points (Sobol' is the default from 16), recorded
+    expect(doc.study).toMatchObject({ raysPerPoint: 400, batch: 100, sampling: "random" });
     expect(doc.result.locationInterval[0][0]).toBeLessThanOrEqual(doc.result.location[0]);
     expect(doc.cost.raysTraced).toBe(doc.cost.evaluations * 4 * 400);
     expect(readdirSync(join(out, "report")).some((f) => /^optimum-1-.*\.svg$/.test(f))).toBe(true);

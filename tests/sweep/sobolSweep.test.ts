@@ -8,7 +8,8 @@ import { mergeShards } from "../../src/sweep/mergeShards.js";
 import { readShardPartial } from "../../src/sweep/shardFile.js";
 import { shardPartialPath } from "../../src/sweep/sweepPaths.js";
 import { channelStdErr } from "../../src/sweep/tally.js";
-import { expectSameMatrices, tempDir, tinyStudy } from "./helpers.js";
+import { runMain } from "../helpers/cli.js";
+import { expectSameMatrices, tempDir, tinyDoc, tinyStudy } from "./helpers.js";
 
 // 2 angles × 3 wavelengths, 20 batches of 40 rays per point (groups 0–3 get two batches, 4–15 one).
 const sobolStudy = () => tinyStudy({ rays: { perPoint: 790, batch: 40, sampling: "sobol" } });
@@ -148,5 +149,24 @@ describe("Sobol' launch points by default (16+ batches per point)", () => {
       expect(p.mean[c]).toBe(m.mean[nC + c]);
       expect(m.stderr[nC + c]).toBe(channelStdErr(p.tally, nC, c));
     }
+  });
+});
+
+describe("lightfold sweep: the resolved launch sampling in run.json", () => {
+  it("16 batches per point: Sobol' by default; --sampling random opts out; --target-error gets its own default", async () => {
+    const dir = tempDir("sobol-default-cli");
+    const studyPath = join(dir, "s.study.json");
+    writeFileSync(studyPath, JSON.stringify(tinyDoc({ grid: { thetaDeg: [0], phiDeg: [0], wavelengthNm: [900] }, rays: { perPoint: 160, batch: 10 } })));
+    const runRays = async (name: string, ...flags: string[]): Promise<Record<string, unknown>> => {
+      const out = join(dir, name);
+      const r = await runMain("sweep", studyPath, "--out", out, "--workers", "1", "--quiet", "--no-report", ...flags);
+      expect(r.code, r.err).toBe(0);
+      return (JSON.parse(readFileSync(join(out, "run.json"), "utf8")) as { rays: Record<string, unknown> }).rays;
+    };
+    expect(await runRays("default")).toEqual({ mode: "fixed", perPoint: 160, batch: 10, sampling: "sobol" });
+    expect(await runRays("random", "--sampling", "random")).toEqual({ mode: "fixed", perPoint: 160, batch: 10 });
+    // target error without minPerPoint: first look after two batches, so random unless named
+    expect((await runRays("target", "--target-error", "0.01", "--max-rays", "400")).sampling).toBeUndefined();
+    expect(await runRays("target-sobol", "--target-error", "0.01", "--max-rays", "400", "--sampling", "sobol")).toMatchObject({ mode: "target", minPerPoint: 160, sampling: "sobol" });
   });
 });
