@@ -153,7 +153,7 @@ describe("Sobol' launch points by default (16+ batches per point)", () => {
 });
 
 describe("lightfold sweep: the resolved launch sampling in run.json", () => {
-  it("16 batches per point: Sobol' by default; --sampling random opts out; --target-error gets its own default", async () => {
+  it("16 batches per point: Sobol' by default; --sampling random opts out (its folder is then another study's); --target-error gets its own default", async () => {
     const dir = tempDir("sobol-default-cli");
     const studyPath = join(dir, "s.study.json");
     writeFileSync(studyPath, JSON.stringify(tinyDoc({ grid: { thetaDeg: [0], phiDeg: [0], wavelengthNm: [900] }, rays: { perPoint: 160, batch: 10 } })));
@@ -165,6 +165,12 @@ describe("lightfold sweep: the resolved launch sampling in run.json", () => {
     };
     expect(await runRays("default")).toEqual({ mode: "fixed", perPoint: 160, batch: 10, sampling: "sobol" });
     expect(await runRays("random", "--sampling", "random")).toEqual({ mode: "fixed", perPoint: 160, batch: 10 });
+    // the folder of that random run, swept again with the default: its journal is another study's
+    // (the resolved sampling is part of the hash), set aside, never mixed in
+    const again = await runMain("sweep", studyPath, "--out", join(dir, "random"), "--workers", "1", "--quiet", "--no-report", "--json");
+    expect(again.err).toMatch(/belongs to a different study \(its hash differs\)/);
+    expect((JSON.parse(again.out) as { raysResumed: number }).raysResumed).toBe(0);
+    expect(JSON.parse(readFileSync(join(dir, "random", "run.json"), "utf8")).rays.sampling).toBe("sobol");
     // target error without minPerPoint: first look after two batches, so random unless named
     expect((await runRays("target", "--target-error", "0.01", "--max-rays", "400")).sampling).toBeUndefined();
     expect(await runRays("target-sobol", "--target-error", "0.01", "--max-rays", "400", "--sampling", "sobol")).toMatchObject({ mode: "target", minPerPoint: 160, sampling: "sobol" });
