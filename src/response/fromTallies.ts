@@ -1,6 +1,6 @@
 import type { ComboPlan, SweepPlan } from "../sweep/plan.js";
 import { pointsPerCombo } from "../sweep/plan.js";
-import { channelMean, groupOffset, PAIR_GROUPS, pointStdErr, tallyLength } from "../sweep/tally.js";
+import { channelMean, groupOffset, PAIR_GROUPS, pointStdErr, replicaFreePathStdErr, tallyLength } from "../sweep/tally.js";
 import { RESPONSE_FORMAT, RESPONSE_FORMAT_VERSION, type ResponseMatrix, type TrappingArrays } from "./responseMatrix.js";
 import { ESCAPE_ANGLE_BINS, ESCAPE_ANGLE_BIN_DEG, MAX_PASSES } from "../trace/tallyLayout.js";
 import { summarizeTrapping, type TrappingSummary } from "../trace/trappingSummary.js";
@@ -68,7 +68,11 @@ export function matrixFromTallies(
     nRays[q] = n;
     // The tracer tallies each ray's path in the absorber already divided by its thickness.
     pathRatio[q] = n > 0 ? t[2 * nCh + 1] / n : 0;
-    if (n > 0) fillTrapping(trapping, q, summarizeTrapping(t, nCh));
+    if (n > 0) {
+      fillTrapping(trapping, q, summarizeTrapping(t, nCh));
+      // Under Sobol' sampling the α → 0 path's error, like the channels', comes from the replica groups.
+      if (plan.rays.sampling === "sobol") trapping.freePathRatioStderr[q] = t.length >= tallyLength(nCh) ? replicaFreePathStdErr(t, nCh) : NaN;
+    }
   }
   const m: ResponseMatrix = {
     format: RESPONSE_FORMAT,

@@ -2,17 +2,20 @@
  * Tally layout of a sweep point (docs/contracts.md, Tracer and Run directory): the tracer's part,
  * per channel [sum, sumSq] then [nRays, pathSum, pathSumSq, events] and the fixed light-trapping
  * block (src/trace/tallyLayout.ts); then PAIR_GROUPS pairing
- * groups of [sum per channel…, nRays]: batch b of a point adds its channel sums to group
+ * groups of [sum per channel…, nRays, free-path sum, entered sum]: batch b of a point adds its
+ * channel sums, rays, and the light-trapping block's α → 0 path and entered power to group
  * b mod PAIR_GROUPS. Groups are independent replicas of the point, and two combinations (or two
  * studies of one seed) trace batch b with the same random stream, so the spread of per-group
  * differences gives the standard error of a difference with its correlation (src/sweep/pairing.ts).
  */
-import { baseTallyLength } from "../trace/tallyLayout.js";
+import { baseTallyLength, diagOffset, DIAG_ENTERED, DIAG_FREE_PATH } from "../trace/tallyLayout.js";
 import { groupStdErr, MIN_REPLICAS, REPLICA_GROUPS } from "../random/replicaGroups.js";
 import type { LaunchSampling } from "../random/sobol.js";
 
 export const TALLY_EXTRA = 4;
 export const PAIR_GROUPS = REPLICA_GROUPS;
+/** Entries of a pairing group after its channel sums: its ray count, α → 0 path sum and entered power. */
+const GROUP_EXTRA = 3;
 
 /** Length of the tracer's part of a tally. */
 export function traceTallyLength(nChannels: number): number {
@@ -21,19 +24,27 @@ export function traceTallyLength(nChannels: number): number {
 
 /** Length of a sweep point's tally: the tracer's part and the pairing groups. */
 export function tallyLength(nChannels: number): number {
-  return traceTallyLength(nChannels) + PAIR_GROUPS * (nChannels + 1);
+  return traceTallyLength(nChannels) + PAIR_GROUPS * (nChannels + GROUP_EXTRA);
 }
 
 /** Offset of pairing group g in a sweep tally. */
 export function groupOffset(nChannels: number, g: number): number {
-  return traceTallyLength(nChannels) + g * (nChannels + 1);
+  return traceTallyLength(nChannels) + g * (nChannels + GROUP_EXTRA);
 }
 
-/** Copies a freshly traced batch tally's channel sums and ray count into its pairing group (b mod PAIR_GROUPS). */
+/** Offset of a group's α → 0 path sum (path / thickness, summed over its rays) from its start; its entered power follows. */
+export function groupFreePathSlot(nChannels: number): number {
+  return nChannels + 1;
+}
+
+/** Copies a freshly traced batch tally's channel sums, ray count, α → 0 path and entered power into its pairing group (b mod PAIR_GROUPS). */
 export function fillPairGroup(t: Float64Array, nChannels: number, batch: number): void {
   const o = groupOffset(nChannels, batch % PAIR_GROUPS);
   for (let c = 0; c < nChannels; c++) t[o + c] = t[2 * c];
   t[o + nChannels] = t[2 * nChannels];
+  const d = diagOffset(nChannels);
+  t[o + groupFreePathSlot(nChannels)] = t[d + DIAG_FREE_PATH];
+  t[o + groupFreePathSlot(nChannels) + 1] = t[d + DIAG_ENTERED];
 }
 
 export function tallyRays(t: Float64Array, nChannels: number): number {
@@ -83,6 +94,26 @@ export function replicaStdErr(t: Float64Array, nChannels: number, c: number): nu
     if (counts[g] > 0) k++;
   }
   return k < MIN_REPLICAS ? NaN : groupStdErr(sums, counts);
+}
+
+/**
+ * Standard error of the α → 0 path ratio Σ path / Σ entered (light-trapping block) from the spread of
+ * the pairing groups: the ratio over clusters, each group weighted by its entered power
+ * (groupStdErr with the entered sums as sizes). For Sobol' launch sampling; NaN with fewer than
+ * MIN_REPLICAS groups traced.
+ */
+export function replicaFreePathStdErr(t: Float64Array, nChannels: number): number {
+  const sums = new Float64Array(PAIR_GROUPS);
+  const entered = new Float64Array(PAIR_GROUPS);
+  const slot = groupFreePathSlot(nChannels);
+  let k = 0;
+  for (let g = 0; g < PAIR_GROUPS; g++) {
+    const o = groupOffset(nChannels, g);
+    sums[g] = t[o + slot];
+    entered[g] = t[o + slot + 1];
+    if (t[o + nChannels] > 0) k++;
+  }
+  return k < MIN_REPLICAS ? NaN : groupStdErr(sums, entered);
 }
 
 /**

@@ -1,5 +1,6 @@
 import { initialBatches, maxBatches } from "./plan.js";
-import { groupOffset, PAIR_GROUPS, tallyLength, tallyProblem } from "./tally.js";
+import { groupFreePathSlot, groupOffset, PAIR_GROUPS, tallyLength, tallyProblem } from "./tally.js";
+import { DIAG_ENTERED, DIAG_FREE_PATH, diagOffset } from "../trace/tallyLayout.js";
 import type { RaysPlan } from "../study/studyTypes.js";
 
 /** Relative slack for the inequalities below (sums of up to 10¹² doubles). */
@@ -23,12 +24,17 @@ export function storedTallyProblem(t: Float64Array, nChannels: number, nRays: nu
   }
   for (let i = 2 * nChannels + 1; i < t.length; i++) if (t[i]! < 0) return `tally entry ${i} is negative (${t[i]})`;
   if (t.length === tallyLength(nChannels)) {
-    // Pairing groups partition the point's batches: their ray counts and channel sums add up to the point's.
-    for (let c = 0; c <= nChannels; c++) {
-      const whole = c < nChannels ? t[2 * c]! : n;
+    // Pairing groups partition the point's batches: their channel sums, ray counts, α → 0 path and
+    // entered power add up to the point's.
+    const freePath = groupFreePathSlot(nChannels);
+    const d = diagOffset(nChannels);
+    for (let c = 0; c <= freePath + 1; c++) {
+      const whole = c < nChannels ? t[2 * c]! : c === nChannels ? n : c === freePath ? t[d + DIAG_FREE_PATH]! : t[d + DIAG_ENTERED]!;
       let sum = 0;
       for (let g = 0; g < PAIR_GROUPS; g++) sum += t[groupOffset(nChannels, g) + c]!;
-      if (Math.abs(sum - whole) > SLACK * Math.max(1, whole)) return `pairing groups ${c < nChannels ? `of channel ${c} sum to ${sum}, the channel to ${whole}` : `hold ${sum} rays, the point ${whole}`}`;
+      if (Math.abs(sum - whole) > SLACK * Math.max(1, whole)) {
+        return `pairing groups ${c < nChannels ? `of channel ${c} sum to ${sum}, the channel to ${whole}` : c === nChannels ? `hold ${sum} rays, the point ${whole}` : c === freePath ? `hold an α → 0 path of ${sum}, the point ${whole}` : `hold an entered power of ${sum}, the point ${whole}`}`;
+      }
     }
   }
   return undefined;

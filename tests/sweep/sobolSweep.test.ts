@@ -124,6 +124,11 @@ describe("Sobol' launch points by default (16+ batches per point)", () => {
       const ia = m.channels.indexOf("A_absorber");
       const z = (m.mean[q * nC + ia] - optOut.mean[q * nC + ia]) / Math.hypot(m.stderr[q * nC + ia], optOut.stderr[q * nC + ia]);
       expect(Math.abs(z)).toBeLessThan(4);
+      // the α → 0 path ratio's error comes from the groups too (tests/sweep/tallyChecks.test.ts): finite, and the two runs agree
+      const f = m.trapping!.freePathRatioStderr[q];
+      const fr = optOut.trapping!.freePathRatioStderr[q];
+      expect(f > 0 && Number.isFinite(f)).toBe(true);
+      expect(Math.abs(m.trapping!.freePathRatio[q] - optOut.trapping!.freePathRatio[q]) / Math.hypot(f, fr)).toBeLessThan(4);
     }
     expect(optOut.mean).not.toEqual(m.mean);
   });

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { MaterialRegistry } from "../../src/materials/registry.js";
 import { RandomStream, streamKey } from "../../src/random/stream.js";
 import { groupStdErr, REPLICA_GROUPS } from "../../src/random/replicaGroups.js";
-import { fillPairGroup, groupOffset, PAIR_GROUPS, replicaStdErr, tallyLength } from "../../src/sweep/tally.js";
+import { fillPairGroup, groupOffset, PAIR_GROUPS, replicaFreePathStdErr, replicaStdErr, tallyLength } from "../../src/sweep/tally.js";
 import { compileStack } from "../../src/trace/compile.js";
 import { traceBatch } from "../../src/trace/kernel.js";
 import { batchLaunchPoints } from "../../src/trace/launchPoints.js";
@@ -19,6 +19,9 @@ interface Runs {
   /** Per run: the standard errors it reports from its replica groups. */
   seR: number[];
   seA: number[];
+  /** Per run: the α → 0 path ratio (light-trapping block) and its replica standard error. */
+  F: number[];
+  seF: number[];
 }
 
 /**
@@ -30,7 +33,7 @@ function sobolRuns(stack: StackSpec, wavelengthNm: number, thetaDeg: number, phi
   const nC = cs.channels.length;
   const [iRf, iRe, iA] = ["R_first", "R_escape", "A_absorber"].map((c) => cs.channels.indexOf(c));
   const len = tallyLength(nC);
-  const out: Runs = { R: [], A: [], seR: [], seA: [] };
+  const out: Runs = { R: [], A: [], seR: [], seA: [], F: [], seF: [] };
   for (let run = 0; run < RUNS; run++) {
     const seed = 1000 + run;
     const acc = new Float64Array(len);
@@ -55,6 +58,8 @@ function sobolRuns(stack: StackSpec, wavelengthNm: number, thetaDeg: number, phi
     }
     out.seR.push(groupStdErr(sums, counts));
     out.seA.push(replicaStdErr(acc, nC, iA));
+    out.F.push(summarizeTrapping(acc, nC).freePathRatio.mean);
+    out.seF.push(replicaFreePathStdErr(acc, nC));
   }
   return out;
 }
@@ -100,14 +105,16 @@ describe("Sobol' launch sampling: replica standard errors match the spread of 20
       const runs = sobolRuns(stack, wl, theta, phi, groupRays);
       const qR = sdOf(runs.R) / rms(runs.seR);
       const qA = sdOf(runs.A) / rms(runs.seA);
+      const qF = sdOf(runs.F) / rms(runs.seF);
       // Unbiased against random launch sampling: the mean of the 200 runs against an independent
       // random-sampling run of a quarter of their rays, |z| < 4.
       const ref = randomMean(stack, wl, theta, phi, (RUNS * REPLICA_GROUPS * groupRays) / 4);
       const zR = (meanOf(runs.R) - ref.R[0]) / Math.hypot(sdOf(runs.R) / Math.sqrt(RUNS), ref.R[1]);
       const zA = (meanOf(runs.A) - ref.A[0]) / Math.hypot(sdOf(runs.A) / Math.sqrt(RUNS), ref.A[1]);
-      process.stdout.write(`${label}: spread/reported R ${qR.toFixed(3)}, A ${qA.toFixed(3)}; z against random sampling R ${zR.toFixed(2)}, A ${zA.toFixed(2)}\n`);
+      process.stdout.write(`${label}: spread/reported R ${qR.toFixed(3)}, A ${qA.toFixed(3)}, α → 0 path ${qF.toFixed(3)}; z against random sampling R ${zR.toFixed(2)}, A ${zA.toFixed(2)}\n`);
       expect(Math.abs(qR - 1)).toBeLessThan(0.15);
       expect(Math.abs(qA - 1)).toBeLessThan(0.15);
+      expect(Math.abs(qF - 1)).toBeLessThan(0.15);
       expect(Math.abs(zR)).toBeLessThan(4);
       expect(Math.abs(zA)).toBeLessThan(4);
     });
