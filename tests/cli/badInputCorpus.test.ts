@@ -293,7 +293,7 @@ const SHARD_CASES: Case[] = [
   shard("a ray count ×4", (s) => (s.tallies[1][16] *= 4), /tallies\[1\]: expected a sound tally of point 2; 520 rays, expected the plan's 130/),
   shard("a tally entry as text", (s) => (s.tallies[0][0] = "0"), /tallies\[0\]\[0\]: expected a finite number/),
   // 8 channels: 2·8 + 4 tracer entries, the 86-entry light-trapping block, 16 pairing groups of 8 + 1 (src/sweep/tally.ts) = 250.
-  shard("a tally too short", (s) => s.tallies[0].pop(), /tallies\[0\]: expected a list of 250 numbers, got 249/),
+  shard("a tally too short", (s) => s.tallies[0].pop(), /tallies\[0\]: expected a list of 282 numbers, got 281/),
   shard("sum of squares above the sum", (s) => (s.tallies[0][7] = s.tallies[0][6] * 2), /tallies\[0\]: expected a sound tally of point 0; channel 3: sum of squares/),
   shard("a negative path sum", (s) => (s.tallies[0][17] = -1), /tallies\[0\]: expected a sound tally of point 0; tally entry 17 is negative/),
   shard("a point outside the plan", (s) => (s.points[1] = 999), /points\[1\]: expected an integer in \[0, 5\], got 999/),
