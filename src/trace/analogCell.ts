@@ -4,7 +4,7 @@ import { SURFACE_LAMBERTIAN, SURFACE_PLANAR } from "../geometry/surfaceTile.js";
 import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
 import { DIED, DZ, EVENTS, FACE, HIT, REFLECT, W, advance } from "./rayState.js";
 import { frontSearch, rearSearch } from "./surfaceSearch.js";
-import { absorbAlong } from "./bulkTransport.js";
+import { absorbAnalog } from "./bulkTransport.js";
 import { analogInterfaceEvent } from "./analogInterfaceEvent.js";
 import { idealRear } from "./idealSurfaces.js";
 import { FACE_FRONT, FACE_REAR, arriveAtFace, departFace, enterAbsorber, leaveFront, rearExitChannel } from "./history.js";
@@ -57,7 +57,7 @@ export function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: Ran
         }
         return RAY_LOST;
       }
-      if (absorbingAbove && absorbAlong(cs, st, 0, rng)) return 0;
+      if (absorbingAbove && absorbAnalog(cs, st, 0)) return 0;
       advance(st);
       st[EVENTS]++;
       const out = analogInterfaceEvent(cs, st, cs.front, rng);
@@ -72,7 +72,7 @@ export function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: Ran
     const found = frontSearch(cs, st, true);
     if (found === LOST) return RAY_LOST;
     if (found === HIT) {
-      if (absorbAlong(cs, st, ABS, rng)) return 0;
+      if (absorbAnalog(cs, st, ABS)) return 0;
       advance(st);
       st[EVENTS]++;
       arriveAtFace(st, FACE_FRONT);
@@ -83,7 +83,7 @@ export function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: Ran
     }
     if (st[FACE] === FACE_FRONT) departFace(cs, st);
     rearSearch(cs, st);
-    if (absorbAlong(cs, st, ABS, rng)) return 0;
+    if (absorbAnalog(cs, st, ABS)) return 0;
     advance(st);
     st[EVENTS]++;
     arriveAtFace(st, FACE_REAR);

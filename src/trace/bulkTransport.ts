@@ -13,6 +13,46 @@ import { depositPoint, depositSegment } from "./depthTally.js";
  * exponential.
  */
 export function absorbAlong(cs: CompiledStack, st: Float64Array, m: number, rng: RandomStream): boolean {
+  if (st[ANALOG] === 0 && cs.mediumAlphaPerUm[m] > 0 && expectedStretch(cs, st, m, rng)) return false;
+  return absorbAnalog(cs, st, m);
+}
+
+/**
+ * Expected value over the stretch, unless it would take the weight below the roulette weight: then
+ * the ray turns analog before it (the same expectation, and no work spent on negligible weights) and
+ * false is returned for absorbAnalog to take the stretch.
+ */
+function expectedStretch(cs: CompiledStack, st: Float64Array, m: number, rng: RandomStream): boolean {
+  const lenUm = st[T];
+  const alpha = cs.mediumAlphaPerUm[m];
+  const w = st[W];
+  const att = Math.exp(-alpha * lenUm);
+  if (w * att < cs.rouletteWeight) {
+    st[ANALOG] = 1;
+    st[TAU] = -Math.log(rng.next());
+    return false;
+  }
+  const dep = w - w * att;
+  cs.contrib[cs.mediumChan[m]] += dep;
+  st[W] = w - dep;
+  if (m === cs.nLayers + 1) {
+    // Path with the absorber's absorption removed (α → 0): every stretch at the weight the ray
+    // would carry without it, w / BULK, BULK the product of the bulk survival factors so far.
+    st[FREE_PATH] += (w / st[BULK]) * lenUm;
+    st[BULK] *= att;
+    if (cs.depthEdgesUm !== null) depositSegment(cs, w, st[Z], lenUm, st[DZ], alpha);
+    // Expected path length of the analog ray over this stretch: w(1 − e^−αL)/α.
+    st[PATH] += dep / alpha;
+  }
+  return true;
+}
+
+/**
+ * The stretch for a ray in analog mode (or through a medium that does not absorb): no exponential;
+ * the absorber path feeds the α → 0 path when the branch ends (endAnalogPath). Returns true when the
+ * ray was absorbed. Small, so the bare-cell loop (analogCell.ts) inlines it.
+ */
+export function absorbAnalog(cs: CompiledStack, st: Float64Array, m: number): boolean {
   const lenUm = st[T];
   const alpha = cs.mediumAlphaPerUm[m];
   const inAbsorber = m === cs.nLayers + 1;
@@ -24,29 +64,6 @@ export function absorbAlong(cs: CompiledStack, st: Float64Array, m: number, rng:
     }
     return false;
   }
-  if (st[ANALOG] === 0) {
-    // Expected value, unless this stretch would take the weight below the roulette weight: then the
-    // ray turns analog before it (the same expectation, and no work spent on negligible weights).
-    const att = Math.exp(-alpha * lenUm);
-    if (w * att >= cs.rouletteWeight) {
-      const dep = w - w * att;
-      cs.contrib[cs.mediumChan[m]] += dep;
-      st[W] = w - dep;
-      if (inAbsorber) {
-        // Path with the absorber's absorption removed (α → 0): every stretch at the weight the ray
-        // would carry without it, w / BULK, BULK the product of the bulk survival factors so far.
-        st[FREE_PATH] += (w / st[BULK]) * lenUm;
-        st[BULK] *= att;
-        if (cs.depthEdgesUm !== null) depositSegment(cs, w, st[Z], lenUm, st[DZ], alpha);
-        // Expected path length of the analog ray over this stretch: w(1 − e^−αL)/α.
-        st[PATH] += dep / alpha;
-      }
-      return false;
-    }
-    st[ANALOG] = 1;
-    st[TAU] = -Math.log(rng.next());
-  }
-  // Analog: no exponential; the absorber path feeds the α → 0 path when the branch ends (endAnalogPath).
   const tau = alpha * lenUm;
   if (tau >= st[TAU]) {
     if (inAbsorber) {
