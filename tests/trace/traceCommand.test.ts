@@ -34,6 +34,20 @@ describe("lightfold trace", () => {
     expect(line).toContain(json.channels.A_absorber.stderr.toFixed(6));
   });
 
+  it("launch sampling by the sweep's rule: Sobol' when --rays fills 16 of the study's batches (1000 rays each here), unless named", async () => {
+    const samplingOf = async (...extra: string[]): Promise<string> => {
+      const io = capture();
+      expect(await main(["node", "lightfold", "trace", STUDY, "--wavelength", "1000", "--seed", "3", "--json", ...extra])).toBe(0);
+      const json = JSON.parse(io.out());
+      vi.restoreAllMocks();
+      return json.sampling;
+    };
+    expect(await samplingOf("--rays", "16000")).toBe("sobol");
+    expect(await samplingOf("--rays", "15000")).toBe("random");
+    expect(await samplingOf("--rays", "16000", "--sampling", "random")).toBe("random");
+    expect(await samplingOf("--rays", "64", "--sampling", "sobol")).toBe("sobol");
+  });
+
   it("bad flags exit with code 2 and name the flag", async () => {
     const io = capture();
     expect(await main(["node", "lightfold", "trace", STUDY, "--rays", "0"])).toBe(2);

@@ -13,6 +13,7 @@ import { trappingWithReplicaErrors, withReplicaErrors } from "../../trace/replic
 import { ScrambledSobol } from "../../random/sobol.js";
 import { REPLICA_GROUPS } from "../../random/replicaGroups.js";
 import { samplingFlag } from "../samplingFlag.js";
+import { defaultSampling } from "../../study/rays.js";
 
 interface TraceOptions {
   angle: string;
@@ -45,7 +46,7 @@ export function register(program: Command): void {
     .option("--seed <n>", "seed of the random stream (default: the study's seed)")
     .option("--polarization <kind>", "unpolarized, s or p (relative to the plane of incidence)", "unpolarized")
     .option("--estimator <kind>", "default (chosen per wavelength), expected (expected-value weights) or analog", "default")
-    .option("--sampling <kind>", "launch sampling: random or sobol (16 scrambled Sobol' replicas; default: the study's, Sobol' where its points have 16+ batches)")
+    .option("--sampling <kind>", "launch sampling: random or sobol (16 scrambled Sobol' replicas; default: the study's if it names one, else Sobol' when --rays fills 16+ of its batches)")
     .option("--combo <i>", "sweep combination index (0 = first)", "0")
     .option("--json", "print the result as JSON")
     .addHelpText(
@@ -60,7 +61,8 @@ interface), R_escape (entered the absorber, later left through the front), T_fir
 (left through a transparent rear on the first pass / after being turned back), A_absorber,
 A_layer:<name>, A_film:<where>:<i>:<material>, A_rear (rear metal or ideal reflector),
 unresolved (bounce limit). Each mean comes with its standard error from per-ray contributions, or
-with --sampling sobol from the spread of 16 independently scrambled replicas (at least 16 rays).
+under Sobol' launch points (the default when --rays fills 16 or more of the study's batches, as a
+sweep point would; --sampling names it) from the spread of 16 independently scrambled replicas.
 Below the channels: the power that entered the absorber, the fraction of it still inside after
 1, 2, 3 … passes, the path enhancement with the absorber's absorption removed (α → 0) against
 4n² (Yablonovitch 1982), and the photon path per incident photon (shortened by absorption).`,
@@ -84,7 +86,9 @@ Below the channels: the power that entered the absorber, the fraction of it stil
       const combo = loaded.combos[comboIndex];
       const seed = opts.seed === undefined ? combo.study.seed : numberOption("seed", opts.seed, Number.isInteger, "a whole number");
 
-      const sampling = samplingFlag(opts.sampling) ?? combo.study.rays.sampling ?? "random";
+      // Unnamed in the flag and the study: the sweep's rule for a point of nRays in the study's batches.
+      const written = loaded.raysAsWritten;
+      const sampling = samplingFlag(opts.sampling) ?? written.sampling ?? defaultSampling({ perPoint: nRays, batch: written.batch });
       let cs;
       try {
         cs = compileStack(combo.study, loaded.registry, wavelengthNm, { estimator: opts.estimator === "default" ? undefined : (opts.estimator as Estimator), launchSampling: sampling });
@@ -95,7 +99,7 @@ Below the channels: the power that entered the absorber, the fraction of it stil
       if (sampling === "sobol" && nRays < REPLICA_GROUPS) {
         throw new InputError(
           `--rays ${nRays}: Sobol' sampling traces ${REPLICA_GROUPS} independent replicas and needs at least ${REPLICA_GROUPS} rays`,
-          opts.sampling === undefined ? "e.g. --rays 16384, or --sampling random (the study gets Sobol' points by default: 16+ batches per point)" : "e.g. --rays 16384",
+          opts.sampling === undefined ? "e.g. --rays 16384, or --sampling random (the study names Sobol' launch points)" : "e.g. --rays 16384",
         );
       }
       const key = streamKey(seed, "trace", thetaDeg, phiDeg ?? "averaged", wavelengthNm);
