@@ -91,3 +91,11 @@ export function streamKey(seed: number, ...coords: (number | string)[]): string 
 export function lightStreamKey(seed: number, lightFrom: "front" | "rear" | undefined, it: number, ip: number, il: number, batch: number): string {
   return lightFrom === "rear" ? streamKey(seed, "rear", it, ip, il, batch) : streamKey(seed, it, ip, il, batch);
 }
+
+/**
+ * Stream key of batch b of wavelength il in a generation-profile trace of combination `combo` at
+ * (θ, φ) in degrees (φ null: random azimuth per ray): the streams of `lightfold generation`.
+ */
+export function generationStreamKey(seed: number, combo: number, thetaDeg: number, phiDeg: number | null, il: number, batch: number): string {
+  return streamKey(seed, "generation", combo, thetaDeg, phiDeg ?? "averaged", il, batch);
+}

@@ -1,13 +1,17 @@
 import { InputError } from "../util/errors.js";
-import type { TraceRunner } from "../workers/pool.js";
 import { INPUT_ERROR_TAG, type TraceMessage } from "../workers/traceTask.js";
 
-/** Where the drain gets its messages and puts their results. */
-export interface MessageSource<R> {
+/** Where the drain gets its messages (a sweep's by default) and puts their results. */
+export interface MessageSource<R, M = TraceMessage> {
   queued(): number;
-  take(): { msg: TraceMessage; runs: R };
+  take(): { msg: M; runs: R };
   /** Folds a message's result in (may queue more); a throw stops the drain. */
   accept(runs: R, out: Float64Array): void;
+}
+
+/** What the drain needs of a pool: a way to run a message (TracePool, a TraceRunner). */
+export interface MessageRunner<M> {
+  run(msg: M): Promise<Float64Array>;
 }
 
 /**
@@ -15,7 +19,7 @@ export interface MessageSource<R> {
  * more messages are sent; the promise rejects with it once the messages in flight have settled
  * (their results are dropped), so the pool is never closed under a running task.
  */
-export function drainPool<R>(pool: TraceRunner, maxInFlight: number, source: MessageSource<R>): Promise<void> {
+export function drainPool<R, M = TraceMessage>(pool: MessageRunner<M>, maxInFlight: number, source: MessageSource<R, M>): Promise<void> {
   return new Promise<void>((resolve, reject) => {
     let inFlight = 0;
     let failure: Error | undefined;

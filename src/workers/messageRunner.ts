@@ -5,7 +5,9 @@ import { fillPairGroup, tallyLength, tallyProblem } from "../sweep/tally.js";
 import { isIdealRear, type StackSpec, type TextureSpec } from "../study/stackTypes.js";
 import type { Study } from "../study/studyTypes.js";
 import type { TracerModule } from "./tracerModule.js";
-import { INPUT_ERROR_TAG, type TraceItem, type TraceMessage, type WorkerSetup } from "./traceTask.js";
+import { StackCache } from "./stackCache.js";
+import { withTaskWhere } from "./taskError.js";
+import type { TraceItem, TraceMessage, WorkerSetup } from "./traceTask.js";
 
 /** Compiled stacks kept per thread; (combo, λ) pairs beyond this are evicted oldest first. */
 const STACK_CACHE_SIZE = 128;
@@ -20,7 +22,7 @@ const VARIANT_CACHE_SIZE = 64;
 export function createMessageRunner(setup: WorkerSetup, tracer: TracerModule): (msg: TraceMessage) => Float64Array {
   const { compileStack, channelNames, traceBatch } = tracer;
   const registry = buildMaterialRegistry(setup.materials, setup.baseDir);
-  const cache = new Map<string, { cs: never; nChannels: number }>();
+  const cache = new StackCache<{ cs: never; nChannels: number }>(STACK_CACHE_SIZE);
   const variants = new Map<string, Study[]>();
   const textures = new TextureInterner();
 
@@ -38,15 +40,10 @@ export function createMessageRunner(setup: WorkerSetup, tracer: TracerModule): (
   };
 
   const compiled = (item: TraceItem, prefix: string, studies: Study[]): { cs: never; nChannels: number } => {
-    const key = `${prefix}${item.combo}/${item.wavelengthNm}`;
-    let hit = cache.get(key);
-    if (hit === undefined) {
+    return cache.get(`${prefix}${item.combo}/${item.wavelengthNm}`, () => {
       const cs = compileStack(studies[item.combo], registry, item.wavelengthNm) as never;
-      hit = { cs, nChannels: channelNames(cs).length };
-      if (cache.size >= STACK_CACHE_SIZE) cache.delete(cache.keys().next().value as string);
-      cache.set(key, hit);
-    }
-    return hit;
+      return { cs, nChannels: channelNames(cs).length };
+    });
   };
 
   return (msg: TraceMessage): Float64Array => {
@@ -117,16 +114,7 @@ class TextureInterner {
 
 /** Runs fn; an error is re-thrown with the task's coordinates in front. */
 function withCoordinates<T>(item: TraceItem, batch: number, fn: () => T): T {
-  try {
-    return fn();
-  } catch (err) {
-    const e = err as Error;
-    const where = taskWhere(item, batch);
-    const tag = e.name === "InputError" ? INPUT_ERROR_TAG : "";
-    const wrapped = new Error(`${tag}task failed at ${where}: ${e.message}`);
-    if (e.stack) wrapped.stack = `${wrapped.message}\n${e.stack.split("\n").slice(1).join("\n")}`;
-    throw wrapped;
-  }
+  return withTaskWhere(() => taskWhere(item, batch), fn);
 }
 
 /** "combo 0, θ=30° (index 2), φ=0° (index 0), λ=500 nm (index 8), batch 3". */

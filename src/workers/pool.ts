@@ -3,6 +3,7 @@ import { Piscina } from "piscina";
 import { InputError } from "../util/errors.js";
 import { workerFile } from "./workerPath.js";
 import type { Study } from "../study/studyTypes.js";
+import type { DepthTraceMessage } from "./depthTask.js";
 import type { TraceMessage, TraceResult, WorkerSetup } from "./traceTask.js";
 
 /** What the sweep runner needs of a pool: its size and a way to run a message. */
@@ -28,12 +29,12 @@ export function defaultWorkerCount(env: NodeJS.ProcessEnv = process.env): number
 /** A fixed-size piscina pool of trace worker threads for one study. */
 export class TracePool {
   readonly nWorkers: number;
-  private readonly pool: Piscina<TraceMessage, TraceResult>;
+  private readonly pool: Piscina<TraceMessage | DepthTraceMessage, TraceResult>;
 
   constructor(setup: WorkerSetup, nWorkers: number) {
     if (!Number.isInteger(nWorkers) || nWorkers < 1) throw new InputError(`workers: expected a positive integer, got ${nWorkers}`);
     this.nWorkers = nWorkers;
-    this.pool = new Piscina<TraceMessage, TraceResult>({
+    this.pool = new Piscina<TraceMessage | DepthTraceMessage, TraceResult>({
       filename: workerFile(import.meta.url, "./traceWorker.js"),
       minThreads: nWorkers,
       maxThreads: nWorkers,
@@ -46,6 +47,11 @@ export class TracePool {
   }
 
   run(msg: TraceMessage): Promise<TraceResult> {
+    return this.pool.run(msg);
+  }
+
+  /** Traces a generation-profile message (depth tallies; src/workers/depthMessageRunner.ts). */
+  runDepth(msg: DepthTraceMessage): Promise<TraceResult> {
     return this.pool.run(msg);
   }
 

@@ -2,12 +2,13 @@ import { pathToFileURL } from "node:url";
 import type { MaterialRegistry } from "../materials/registry.js";
 import type { RandomStream } from "../random/stream.js";
 import type { Study } from "../study/studyTypes.js";
+import type { CompileOptions } from "../trace/compile.js";
 import type { LaunchPoints } from "../trace/launchPoints.js";
 import * as ownTracer from "../trace/index.js";
 
 /** The tracer functions the runner uses (docs/contracts.md, Tracer). */
 export interface TracerModule {
-  compileStack(study: Study, registry: MaterialRegistry, wavelengthNm: number): unknown;
+  compileStack(study: Study, registry: MaterialRegistry, wavelengthNm: number, options?: CompileOptions): unknown;
   channelNames(compiled: never): string[];
   traceBatch(cs: never, thetaDeg: number, phiDeg: number | null, nRays: number, rng: RandomStream, tally: Float64Array, polarization?: "unpolarized", side?: "front" | "rear", launch?: LaunchPoints | null): void;
 }
