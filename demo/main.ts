@@ -131,9 +131,10 @@ async function main(): Promise<void> {
 
   // 6. generation profiles G(z) at normal incidence (beside each run, read by the report)
   const tg = performance.now();
-  const gen = stacks.map((s) => {
+  const gen = [];
+  for (const s of stacks) {
     const study = s.loaded.combos[0]!.study;
-    return runGeneration(s.loaded, {
+    gen.push(await runGeneration(s.loaded, {
       comboIndex: 0,
       thetaDeg: 0,
       phiDeg: null,
@@ -145,8 +146,9 @@ async function main(): Promise<void> {
       collection: null,
       collectionLabel: null,
       outDir: join(s.dir, "generation"),
-    });
-  });
+      workers,
+    }));
+  }
   say(`  generation profiles G(z) at 0°: ${gen.map((g, i) => `${stacks[i]!.loaded.name} q·∫G dz = ${g.profile.integratedMaCm2.toFixed(2)} mA/cm²`).join(", ")} (${elapsed(tg).toFixed(1)} s)`);
 
   // 7. report

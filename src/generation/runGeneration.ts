@@ -3,7 +3,10 @@ import { photocurrentWeights, type Spectrum } from "../spectrum/index.js";
 import { toolVersion } from "../util/version.js";
 import { collectionAt, type CollectionCurve } from "./collection.js";
 import { eqeFromProfile, generationUnderSpectrum, spectralGenerationPerCm, type GenerationProfile } from "./profile.js";
-import { traceGenerationProfile, type ProfileRequest, type SpectralProfile } from "./traceProfile.js";
+import { workerSetupOf } from "../sweep/runSweep.js";
+import { defaultWorkerCount, TracePool } from "../workers/pool.js";
+import type { ProfileRequest, SpectralProfile } from "./traceProfile.js";
+import { traceGenerationProfileOnPool } from "./traceProfileOnPool.js";
 import { writeGenerationFiles } from "./writeProfile.js";
 
 /** The trace request of the combination (its study and registry come from the loaded study), plus weighting and output. */
@@ -14,6 +17,8 @@ export interface GenerationRunOptions extends Omit<ProfileRequest, "study" | "re
   /** Text recorded in the sidecar for the collection (flag value or file). */
   collectionLabel: string | null;
   outDir: string;
+  /** Worker threads (default: Slurm's grant or all cores); the profile is the same for any count. */
+  workers?: number;
 }
 
 export interface GenerationRun {
@@ -22,21 +27,32 @@ export interface GenerationRun {
   files: string[];
 }
 
-/** Traces, weights and writes a generation profile of one combination (the `generation` verb and the demo). */
-export function runGeneration(loaded: LoadedStudy, o: GenerationRunOptions): GenerationRun {
+/** Traces (on a worker pool), weights and writes a generation profile of one combination (the `generation` verb and the demo). */
+export async function runGeneration(loaded: LoadedStudy, o: GenerationRunOptions): Promise<GenerationRun> {
   const combo = loaded.combos[o.comboIndex];
-  const spectral = traceGenerationProfile({
-    study: combo.study,
-    registry: loaded.registry,
-    comboIndex: o.comboIndex,
-    thetaDeg: o.thetaDeg,
-    phiDeg: o.phiDeg,
-    raysPerWavelength: o.raysPerWavelength,
-    batch: o.batch,
-    grid: o.grid,
-    seed: o.seed,
-    onWavelength: o.onWavelength,
-  });
+  const tasks = combo.study.grid.wavelengthNm.length * Math.ceil(o.raysPerWavelength / o.batch);
+  // No more threads than (wavelength, batch) tasks: a thread costs its start-up and memory.
+  const pool = new TracePool(workerSetupOf(loaded), Math.min(o.workers ?? defaultWorkerCount(), tasks));
+  let spectral: SpectralProfile;
+  try {
+    spectral = await traceGenerationProfileOnPool(
+      {
+        study: combo.study,
+        registry: loaded.registry,
+        comboIndex: o.comboIndex,
+        thetaDeg: o.thetaDeg,
+        phiDeg: o.phiDeg,
+        raysPerWavelength: o.raysPerWavelength,
+        batch: o.batch,
+        grid: o.grid,
+        seed: o.seed,
+        onWavelength: o.onWavelength,
+      },
+      pool,
+    );
+  } finally {
+    await pool.close();
+  }
   const profile = generationUnderSpectrum(spectral, photocurrentWeights(combo.study.grid.wavelengthNm, o.spectrum));
   const c = o.collection;
   const eta = c === null ? null : typeof c === "number" ? new Float64Array(profile.depthUm.length).fill(c) : collectionAt(c, profile.depthUm);

@@ -1,11 +1,12 @@
-import { RandomStream, streamKey } from "../random/stream.js";
+import { generationStreamKey, RandomStream } from "../random/stream.js";
+import { sumTallies } from "../sweep/tally.js";
 import type { MaterialSource } from "../trace/compile.js";
 import { compileStack } from "../trace/compile.js";
 import { traceBatch } from "../trace/kernel.js";
 import { createTally } from "../trace/tally.js";
-import { summarizeDepthBins } from "../trace/trappingSummary.js";
-import { geometricDepthEdges } from "../trace/depthTally.js";
 import type { Study } from "../study/studyTypes.js";
+import { depthPlanOf } from "./depthPlan.js";
+import { SpectralProfileBuilder } from "./spectralProfileBuilder.js";
 
 /** The depth grid of a generation profile: a first bin, then bins growing geometrically. */
 export interface DepthGridSpec {
@@ -42,58 +43,30 @@ export interface ProfileRequest {
   batch: number;
   grid: DepthGridSpec;
   seed: number;
+  /** Called as wavelengths are finished (done of total; on the pool not necessarily in grid order). */
   onWavelength?(done: number, total: number): void;
 }
 
 /**
- * Traces the study's wavelength grid at one direction with depth tallies. Batch b of wavelength il
- * uses streamKey(seed, "generation", combo, θ, φ, il, b): the result depends only on the request.
+ * Traces the study's wavelength grid at one direction with depth tallies, in this thread (the
+ * reference the pool's trace, traceProfileOnPool.ts, must equal bit for bit; quick physics tests).
+ * Batch b of wavelength il goes into its own tally on generationStreamKey(seed, combo, θ, φ, il, b),
+ * launched with random points whatever the study's rays.sampling (the estimator is chosen for
+ * that); the batch tallies are summed in batch order. The result depends only on the request.
  */
 export function traceGenerationProfile(req: ProfileRequest): SpectralProfile {
+  const plan = depthPlanOf(req);
+  const builder = new SpectralProfileBuilder(req, plan);
   const wl = req.study.grid.wavelengthNm;
-  let edges: Float64Array | null = null;
-  const nL = wl.length;
-  let fraction = new Float64Array(0);
-  let fractionStderr = new Float64Array(0);
-  const absorptance = new Float64Array(nL);
-  const absorptanceStderr = new Float64Array(nL);
-  for (let il = 0; il < nL; il++) {
-    if (edges === null) {
-      const probe = compileStack(req.study, req.registry, wl[il]);
-      edges = geometricDepthEdges(probe.absorberDepthUm, req.grid.bins, req.grid.firstBinUm);
-      fraction = new Float64Array(nL * req.grid.bins);
-      fractionStderr = new Float64Array(nL * req.grid.bins);
-    }
-    // launched with random points whatever the study's rays.sampling: the estimator is chosen for that
-    const cs = compileStack(req.study, req.registry, wl[il], { depthEdgesUm: edges, launchSampling: "random" });
-    const tally = createTally(cs);
-    let done = 0;
-    for (let b = 0; done < req.raysPerWavelength; b++) {
-      const n = Math.min(req.batch, req.raysPerWavelength - done);
-      const rng = new RandomStream(streamKey(req.seed, "generation", req.comboIndex, req.thetaDeg, req.phiDeg ?? "averaged", il, b));
-      traceBatch(cs, req.thetaDeg, req.phiDeg, n, rng, tally);
-      done += n;
-    }
-    const nC = cs.channels.length;
-    summarizeDepthBins(tally, nC, req.grid.bins).forEach((e, i) => {
-      fraction[il * req.grid.bins + i] = e.mean;
-      fractionStderr[il * req.grid.bins + i] = e.stderr;
+  for (let il = 0; il < wl.length; il++) {
+    const cs = compileStack(req.study, req.registry, wl[il], { depthEdgesUm: plan.edgesUm, launchSampling: "random" });
+    const batches = plan.batchRays.map((n, b) => {
+      const tally = createTally(cs);
+      traceBatch(cs, req.thetaDeg, req.phiDeg, n, new RandomStream(generationStreamKey(req.seed, req.comboIndex, req.thetaDeg, req.phiDeg, il, b)), tally);
+      return tally;
     });
-    const ia = cs.chAbsorber;
-    const nRays = tally[2 * nC];
-    absorptance[il] = tally[2 * ia] / nRays;
-    absorptanceStderr[il] = nRays > 1 ? Math.sqrt(Math.max(0, (tally[2 * ia + 1] - nRays * absorptance[il] ** 2) / (nRays - 1)) / nRays) : 0;
-    req.onWavelength?.(il + 1, nL);
+    builder.addWavelength(il, sumTallies(batches, plan.tallyLength));
+    req.onWavelength?.(il + 1, wl.length);
   }
-  return {
-    thetaDeg: req.thetaDeg,
-    phiDeg: req.phiDeg,
-    wavelengthNm: [...wl],
-    edgesUm: edges as Float64Array,
-    fraction,
-    fractionStderr,
-    absorptance,
-    absorptanceStderr,
-    raysPerWavelength: req.raysPerWavelength,
-  };
+  return builder.profile();
 }

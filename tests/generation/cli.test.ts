@@ -1,9 +1,9 @@
-import { execFileSync, spawnSync } from "node:child_process";
+import { execFileSync, spawn, spawnSync } from "node:child_process";
 import { mkdtempSync, readFileSync, rmSync, writeFileSync, existsSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
-import { ROOT, runMain as run } from "../helpers/cli.js";
+import { BIN, ROOT, runMain as run } from "../helpers/cli.js";
 
 const dir = mkdtempSync(join(tmpdir(), "lightfold-generation-cli-"));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -56,5 +56,26 @@ describe("lightfold generation", () => {
     expect(b.code).toBe(2);
     expect(b.err).toMatch(/bad\.csv:3: expected a depth in µm, ≥ 0 and above the previous row/);
     expect(existsSync(join(dir, "no2", "generation.csv"))).toBe(false);
+    // --workers takes the sweep's form: a whole number from 1 in decimal digits.
+    for (const w of ["0", "2.5", "1e3"]) {
+      const c = await run("generation", STUDY, "--rays", "10", "--workers", w, "--out", join(dir, "no3"));
+      expect(c.code).toBe(2);
+      expect(c.err).toMatch(/--workers: expected a whole number from 1 to 256 in decimal digits/);
+    }
+    expect(existsSync(join(dir, "no3"))).toBe(false);
   });
+
+  it("ends on SIGINT while tracing on its workers, saying so and writing nothing (child process)", async () => {
+    const out = join(dir, "interrupted");
+    const child = spawn(process.execPath, [BIN, "generation", STUDY, "--rays", "1000000000", "--workers", "1", "--out", out], { stdio: ["ignore", "ignore", "pipe"] });
+    let stderr = "";
+    child.stderr.on("data", (b: Buffer) => (stderr += String(b)));
+    const exited = new Promise<NodeJS.Signals | null>((resolve) => child.on("exit", (_code, signal) => resolve(signal)));
+    // 10⁹ rays per wavelength take hours: after a few seconds the run is tracing (loading takes well under one).
+    await new Promise((r) => setTimeout(r, 3000));
+    child.kill("SIGINT");
+    expect(await exited).toBe("SIGINT");
+    expect(stderr).toContain(`lightfold generation: interrupted; nothing written to ${out}`);
+    expect(existsSync(out)).toBe(false);
+  }, 20_000);
 });

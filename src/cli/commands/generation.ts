@@ -8,6 +8,7 @@ import { DEFAULT_DEPTH_GRID } from "../../generation/traceProfile.js";
 import { parseCollectionCsv, type CollectionCurve } from "../../generation/collection.js";
 import { runGeneration } from "../../generation/runGeneration.js";
 import { spectrumOption } from "./spectral.js";
+import { countFlag, MAX_WORKERS } from "../countFlag.js";
 
 interface GenerationOptions {
   angle: string;
@@ -21,12 +22,15 @@ interface GenerationOptions {
   firstBinUm: string;
   collection?: string;
   out?: string;
+  workers?: string;
   json?: boolean;
 }
 
+const HINT = "run `lightfold generation --help` for each flag's form and examples";
+
 function numberOption(name: string, text: string, check: (v: number) => boolean, expected: string): number {
   const v = Number(text);
-  if (text.trim() === "" || !Number.isFinite(v) || !check(v)) throw new InputError(`--${name}: expected ${expected}, got "${text}"`, "run `lightfold generation --help` for each flag's form and examples");
+  if (text.trim() === "" || !Number.isFinite(v) || !check(v)) throw new InputError(`--${name}: expected ${expected}, got "${text}"`, HINT);
   return v;
 }
 
@@ -63,6 +67,7 @@ export function register(program: Command): void {
     .option("--first-bin-um <um>", "width of the first depth bin in µm; the others grow geometrically to the rear", String(DEFAULT_DEPTH_GRID.firstBinUm))
     .option("--collection <eta|file.csv>", "collection probability: a number in [0, 1] or a CSV depth_um,collection, for the collected-EQE estimate")
     .option("--out <dir>", "output folder (default runs/<study name>/generation)")
+    .option("--workers <n>", "worker threads (default: SLURM_CPUS_PER_TASK when set, else all available cores; same numbers for any count)")
     .option("--json", "print the summary as JSON")
     .addHelpText(
       "after",
@@ -71,6 +76,7 @@ Examples:
   lightfold generation configs/demo-planar.study.json --out runs/demo-planar-generation
   lightfold generation my.study.json --angle 30 --spectrum AM1.5D --bins 120 --first-bin-um 0.001
   lightfold generation my.study.json --collection collection.csv     (header depth_um,collection)
+  lightfold generation my.study.json --rays 200000 --workers 8
 
 Writes generation.csv (depth_um,generation_cm3_s: bin centres, photons cm⁻³ s⁻¹ under the
 spectrum on the cell plane), generation.npy (the same as a [bins, 2] float64 array),
@@ -79,9 +85,11 @@ absorber absorptance, with its error; with --collection also optics × the assum
 estimate and never a measured EQE) and generation.json (axes, bin edges, errors, provenance).
 Depth 0 is the plane through the highest points of the front texture. Expected-value transport
 puts each straight stretch's absorption into the bins it crosses exactly (Beer–Lambert), so
-q·∫G dz equals the absorber photocurrent; the summary prints both.`,
+q·∫G dz equals the absorber photocurrent; the summary prints both. The (wavelength, batch) tasks
+run on worker threads, each batch on its own random stream, summed in batch order: the files are
+the same, bit for bit, for any --workers. Ctrl-C stops without writing anything.`,
     )
-    .action((studyPath: string, opts: GenerationOptions) => {
+    .action(async (studyPath: string, opts: GenerationOptions) => {
       const thetaDeg = numberOption("angle", opts.angle, (v) => v >= 0 && v < 90, "a polar angle in [0, 90) degrees");
       const phiDeg = opts.azimuth === "averaged" ? null : numberOption("azimuth", opts.azimuth, () => true, 'degrees or "averaged"');
       const rays = numberOption("rays", opts.rays, (v) => Number.isInteger(v) && v >= 2, "a whole number ≥ 2");
@@ -94,21 +102,39 @@ q·∫G dz equals the absorber photocurrent; the summary prints both.`,
       const seed = opts.seed === undefined ? combo.study.seed : numberOption("seed", opts.seed, Number.isInteger, "a whole number");
       const spectrum = opts.spectrum === undefined ? spectrumFromSpec(combo.study.spectrum, loaded.baseDir, "spectrum") : spectrumOption(opts.spectrum);
       const curve = opts.collection === undefined ? null : collectionOption(opts.collection);
+      const workers = opts.workers === undefined ? undefined : countFlag(opts.workers, "--workers", 1, MAX_WORKERS, HINT);
+      const outDir = opts.out ?? join("runs", loaded.name, "generation");
       const quiet = !process.stderr.isTTY;
-      const { spectral, profile: g, files } = runGeneration(loaded, {
-        comboIndex,
-        thetaDeg,
-        phiDeg,
-        raysPerWavelength: rays,
-        batch,
-        grid: { bins, firstBinUm },
-        seed,
-        spectrum,
-        collection: curve,
-        collectionLabel: opts.collection ?? null,
-        outDir: opts.out ?? join("runs", loaded.name, "generation"),
-        onWavelength: quiet ? undefined : (done, total) => process.stderr.write(`\rlightfold generation: wavelength ${done}/${total}${done === total ? "\n" : ""}`),
-      });
+      // Ctrl-C: say that nothing was written (the files are written at the end, each atomically),
+      // then let the signal end the process as usual.
+      const onInterrupt = (signal: NodeJS.Signals): void => {
+        process.stderr.write(`\nlightfold generation: interrupted; nothing written to ${outDir}\n`);
+        process.kill(process.pid, signal);
+      };
+      process.once("SIGINT", onInterrupt);
+      process.once("SIGTERM", onInterrupt);
+      let run;
+      try {
+        run = await runGeneration(loaded, {
+          comboIndex,
+          thetaDeg,
+          phiDeg,
+          raysPerWavelength: rays,
+          batch,
+          grid: { bins, firstBinUm },
+          seed,
+          spectrum,
+          collection: curve,
+          collectionLabel: opts.collection ?? null,
+          outDir,
+          workers,
+          onWavelength: quiet ? undefined : (done, total) => process.stderr.write(`\rlightfold generation: wavelengths ${done}/${total}${done === total ? "\n" : ""}`),
+        });
+      } finally {
+        process.off("SIGINT", onInterrupt);
+        process.off("SIGTERM", onInterrupt);
+      }
+      const { spectral, profile: g, files } = run;
       const centres = g.depthUm;
       const summary = {
         study: loaded.name,
