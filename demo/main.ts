@@ -20,8 +20,9 @@ import type { ResponseMatrix } from "../src/response/responseMatrix.js";
 import { spectrumFromSpec } from "../src/spectrum/index.js";
 import { loadStudy, type LoadedStudy } from "../src/study/load.js";
 import { createProgressReporter } from "../src/sweep/progressReporter.js";
-import { runSweep } from "../src/sweep/runSweep.js";
+import { runSweep, workerSetupOf } from "../src/sweep/runSweep.js";
 import { writeFileAtomic } from "../src/util/atomicWrite.js";
+import { TracePool } from "../src/workers/pool.js";
 import { packageRoot } from "../src/util/packageRoot.js";
 import { photocurrentForMatrix } from "../src/weighting/writePhotocurrent.js";
 import { writeRunPhotocurrent } from "../src/weighting/runSummaries.js";
@@ -47,18 +48,29 @@ interface StackRun {
   photocurrent: PhotocurrentSummary;
   wallS: number;
   rays: number;
+  /** The stack's worker pool (its threads warm after the sweep), reused by the generation step; closed at the end. */
+  pool: TracePool;
 }
 
 const say = (line: string) => process.stdout.write(`${line}\n`);
 const elapsed = (t0: number) => (performance.now() - t0) / 1000;
 
+/** Worker pools still open: closed when done with, and all at the end (also on failure, so the process can exit). */
+const openPools = new Set<TracePool>();
+
+async function closePool(pool: TracePool): Promise<void> {
+  if (openPools.delete(pool)) await pool.close();
+}
+
 async function sweepStack(studyPath: string, workers: number): Promise<StackRun> {
   const loaded = loadStudy(join(ROOT, studyPath));
   const dir = join(OUT, loaded.name);
   const reporter = createProgressReporter(process.env.LIGHTFOLD_QUIET ? "quiet" : "auto", process.stderr, 5);
+  const pool = new TracePool(workerSetupOf(loaded), workers);
+  openPools.add(pool);
   let result;
   try {
-    result = await runSweep({ study: loaded, outDir: dir, workers, fresh: true, onProgress: (p) => reporter.update(p) });
+    result = await runSweep({ study: loaded, outDir: dir, pool, fresh: true, onProgress: (p) => reporter.update(p) });
   } finally {
     reporter.stop();
   }
@@ -69,7 +81,7 @@ async function sweepStack(studyPath: string, workers: number): Promise<StackRun>
   const spectrum = spectrumFromSpec(study.spectrum, loaded.baseDir);
   // the same numbers as photocurrent.json, for the summary table
   const photocurrent = photocurrentForMatrix(matrix, spectrum);
-  return { loaded, dir, matrix, matrices: result.matrices, photocurrent, wallS: result.wallS, rays: result.raysTraced };
+  return { loaded, dir, matrix, matrices: result.matrices, photocurrent, wallS: result.wallS, rays: result.raysTraced, pool };
 }
 
 function table(header: string[], rows: string[][]): string {
@@ -122,6 +134,7 @@ async function main(): Promise<void> {
   // 5. bifacial glass–glass stack: light from the front and from the rear, front + rear year
   const tb = performance.now();
   const bi = await sweepStack(BIFACIAL_STUDY, workers);
+  await closePool(bi.pool);
   const rearMatrix = bi.matrices[1]!;
   const bif = runDemoBifacial({
     sitePath: join(ROOT, BIFACIAL_SITE), dir: bi.dir, front: bi.matrix, rear: rearMatrix,
@@ -146,8 +159,9 @@ async function main(): Promise<void> {
       collection: null,
       collectionLabel: null,
       outDir: join(s.dir, "generation"),
-      workers,
+      pool: s.pool,
     }));
+    await closePool(s.pool);
   }
   say(`  generation profiles G(z) at 0°: ${gen.map((g, i) => `${stacks[i]!.loaded.name} q·∫G dz = ${g.profile.integratedMaCm2.toFixed(2)} mA/cm²`).join(", ")} (${elapsed(tg).toFixed(1)} s)`);
 
@@ -181,7 +195,9 @@ async function main(): Promise<void> {
   say(`demo wall time ${elapsed(t0).toFixed(1)} s on ${workers} worker(s)`);
 }
 
-main().catch((err: unknown) => {
-  process.stderr.write(`lightfold demo: failed: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}\n`);
-  process.exitCode = 1;
-});
+main()
+  .catch((err: unknown) => {
+    process.stderr.write(`lightfold demo: failed: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}\n`);
+    process.exitCode = 1;
+  })
+  .finally(() => Promise.all([...openPools].map(closePool)));

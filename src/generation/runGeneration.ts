@@ -17,8 +17,10 @@ export interface GenerationRunOptions extends Omit<ProfileRequest, "study" | "re
   /** Text recorded in the sidecar for the collection (flag value or file). */
   collectionLabel: string | null;
   outDir: string;
-  /** Worker threads (default: Slurm's grant or all cores); the profile is the same for any count. */
+  /** Worker threads (default: Slurm's grant or all cores); the profile is the same for any count. Ignored when `pool` is given. */
   workers?: number;
+  /** An open pool of this study (e.g. its sweep's, threads already warm), reused; the caller closes it. */
+  pool?: TracePool;
 }
 
 export interface GenerationRun {
@@ -32,7 +34,7 @@ export async function runGeneration(loaded: LoadedStudy, o: GenerationRunOptions
   const combo = loaded.combos[o.comboIndex];
   const tasks = combo.study.grid.wavelengthNm.length * Math.ceil(o.raysPerWavelength / o.batch);
   // No more threads than (wavelength, batch) tasks: a thread costs its start-up and memory.
-  const pool = new TracePool(workerSetupOf(loaded), Math.min(o.workers ?? defaultWorkerCount(), tasks));
+  const pool = o.pool ?? new TracePool(workerSetupOf(loaded), Math.min(o.workers ?? defaultWorkerCount(), tasks));
   let spectral: SpectralProfile;
   try {
     spectral = await traceGenerationProfileOnPool(
@@ -51,7 +53,7 @@ export async function runGeneration(loaded: LoadedStudy, o: GenerationRunOptions
       pool,
     );
   } finally {
-    await pool.close();
+    if (o.pool === undefined) await pool.close();
   }
   const profile = generationUnderSpectrum(spectral, photocurrentWeights(combo.study.grid.wavelengthNm, o.spectrum));
   const c = o.collection;
