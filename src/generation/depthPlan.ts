@@ -12,8 +12,17 @@ export interface DepthPlan {
   chAbsorber: number;
   /** Length of a batch tally: the stack's tally and [Σg, Σg²] per bin (tallyLengthOf). */
   tallyLength: number;
-  /** Rays of each batch of a wavelength, in batch order (full batches, the last one the rest). */
-  batchRays: number[];
+  /** Batches per wavelength: full batches of `batch` rays, the last one the rest. */
+  nBatches: number;
+  batch: number;
+  raysPerWavelength: number;
+}
+
+/** Rays of batches b0 … b1−1 of a wavelength, in batch order. */
+export function batchRaysOf(plan: DepthPlan, b0: number, b1: number): number[] {
+  const out: number[] = [];
+  for (let b = b0; b < b1; b++) out.push(Math.min(plan.batch, plan.raysPerWavelength - b * plan.batch));
+  return out;
 }
 
 /**
@@ -24,9 +33,8 @@ export function depthPlanOf(req: ProfileRequest): DepthPlan {
   const probe = compileStack(req.study, req.registry, req.study.grid.wavelengthNm[0]);
   const edgesUm = geometricDepthEdges(probe.absorberDepthUm, req.grid.bins, req.grid.firstBinUm);
   const nChannels = probe.channels.length;
-  const batchRays: number[] = [];
-  for (let done = 0; done < req.raysPerWavelength; done += batchRays[batchRays.length - 1]) {
-    batchRays.push(Math.min(req.batch, req.raysPerWavelength - done));
-  }
-  return { edgesUm, nChannels, chAbsorber: probe.chAbsorber, tallyLength: baseTallyLength(nChannels) + 2 * req.grid.bins, batchRays };
+  return {
+    edgesUm, nChannels, chAbsorber: probe.chAbsorber, tallyLength: baseTallyLength(nChannels) + 2 * req.grid.bins,
+    nBatches: Math.ceil(req.raysPerWavelength / req.batch), batch: req.batch, raysPerWavelength: req.raysPerWavelength,
+  };
 }

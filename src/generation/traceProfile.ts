@@ -5,7 +5,7 @@ import { compileStack } from "../trace/compile.js";
 import { traceBatch } from "../trace/kernel.js";
 import { createTally } from "../trace/tally.js";
 import type { Study } from "../study/studyTypes.js";
-import { depthPlanOf } from "./depthPlan.js";
+import { batchRaysOf, depthPlanOf } from "./depthPlan.js";
 import { SpectralProfileBuilder } from "./spectralProfileBuilder.js";
 
 /** The depth grid of a generation profile: a first bin, then bins growing geometrically. */
@@ -60,7 +60,7 @@ export function traceGenerationProfile(req: ProfileRequest): SpectralProfile {
   const wl = req.study.grid.wavelengthNm;
   for (let il = 0; il < wl.length; il++) {
     const cs = compileStack(req.study, req.registry, wl[il], { depthEdgesUm: plan.edgesUm, launchSampling: "random" });
-    const batches = plan.batchRays.map((n, b) => {
+    const batches = batchRaysOf(plan, 0, plan.nBatches).map((n, b) => {
       const tally = createTally(cs);
       traceBatch(cs, req.thetaDeg, req.phiDeg, n, new RandomStream(generationStreamKey(req.seed, req.comboIndex, req.thetaDeg, req.phiDeg, il, b)), tally);
       return tally;

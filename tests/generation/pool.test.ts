@@ -74,6 +74,33 @@ describe("generation profile on the worker pool", () => {
     });
   });
 
+  it("stays byte-identical when messages come back in another order than sent (later batches wait for earlier ones)", async () => {
+    const pool = new TracePool(workerSetupOf(loaded), 1);
+    pools.push(pool);
+    let sent = 0;
+    const arrived: number[] = [];
+    // Claims 4 workers (3 messages per wavelength, 8 in flight) and holds each result back the longer
+    // the earlier it was sent, so batches of a wavelength arrive out of order.
+    const shuffled = {
+      nWorkers: 4,
+      runDepth: async (msg: Parameters<TracePool["runDepth"]>[0]) => {
+        const k = sent++;
+        const out = await pool.runDepth(msg);
+        await new Promise((r) => setTimeout(r, 40 * (8 - (k % 8))));
+        arrived.push(k);
+        return out;
+      },
+    };
+    const p = await traceGenerationProfileOnPool(request, shuffled);
+    const reference = traceGenerationProfile(request);
+    expect(sent).toBe(9);
+    expect(arrived).not.toEqual([...arrived].sort((a, b) => a - b));
+    expect(hex(p.fraction)).toBe(hex(reference.fraction));
+    expect(hex(p.fractionStderr)).toBe(hex(reference.fractionStderr));
+    expect(hex(p.absorptance)).toBe(hex(reference.absorptance));
+    expect(hex(p.absorptanceStderr)).toBe(hex(reference.absorptanceStderr));
+  });
+
   it("a different seed gives a different profile (the batches' streams come from the request)", async () => {
     const pool = new TracePool(workerSetupOf(loaded), 2);
     pools.push(pool);
