@@ -70,8 +70,10 @@ export function matrixFromTallies(
     pathRatio[q] = n > 0 ? t[2 * nCh + 1] / n : 0;
     if (n > 0) {
       fillTrapping(trapping, q, summarizeTrapping(t, nCh));
-      // Under Sobol' sampling the α → 0 path's error, like the channels', comes from the replica groups.
-      if (plan.rays.sampling === "sobol") trapping.freePathRatioStderr[q] = t.length >= tallyLength(nCh) ? replicaFreePathStdErr(t, nCh) : NaN;
+      // Under Sobol' sampling the α → 0 path's error, like the channels', comes from the replica
+      // groups; where light entered too few of them to give a spread, the per-ray error stays.
+      const replica = plan.rays.sampling === "sobol" && t.length >= tallyLength(nCh) ? replicaFreePathStdErr(t, nCh) : NaN;
+      if (Number.isFinite(replica)) trapping.freePathRatioStderr[q] = replica;
     }
   }
   const m: ResponseMatrix = {

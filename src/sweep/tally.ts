@@ -99,21 +99,26 @@ export function replicaStdErr(t: Float64Array, nChannels: number, c: number): nu
 /**
  * Standard error of the α → 0 path ratio Σ path / Σ entered (light-trapping block) from the spread of
  * the pairing groups: the ratio over clusters, each group weighted by its entered power
- * (groupStdErr with the entered sums as sizes). For Sobol' launch sampling; NaN with fewer than
- * MIN_REPLICAS groups traced.
+ * (groupStdErr with the entered sums as sizes). For Sobol' launch sampling. 0 where no light entered
+ * (the ratio is reported as 0 there); NaN with fewer than MIN_REPLICAS groups traced, or fewer than
+ * two groups into which light entered (no spread to measure).
  */
 export function replicaFreePathStdErr(t: Float64Array, nChannels: number): number {
   const sums = new Float64Array(PAIR_GROUPS);
   const entered = new Float64Array(PAIR_GROUPS);
   const slot = groupFreePathSlot(nChannels);
-  let k = 0;
+  let traced = 0;
+  let lit = 0;
   for (let g = 0; g < PAIR_GROUPS; g++) {
     const o = groupOffset(nChannels, g);
     sums[g] = t[o + slot];
     entered[g] = t[o + slot + 1];
-    if (t[o + nChannels] > 0) k++;
+    if (t[o + nChannels] > 0) traced++;
+    if (entered[g] > 0) lit++;
   }
-  return k < MIN_REPLICAS ? NaN : groupStdErr(sums, entered);
+  if (traced < MIN_REPLICAS) return NaN;
+  if (lit === 0) return 0;
+  return lit < 2 ? NaN : groupStdErr(sums, entered);
 }
 
 /**

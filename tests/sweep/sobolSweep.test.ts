@@ -8,6 +8,7 @@ import { mergeShards } from "../../src/sweep/mergeShards.js";
 import { readShardPartial } from "../../src/sweep/shardFile.js";
 import { shardPartialPath } from "../../src/sweep/sweepPaths.js";
 import { channelStdErr } from "../../src/sweep/tally.js";
+import { readResponseMatrix } from "../../src/response/matrixFile.js";
 import { runMain } from "../helpers/cli.js";
 import { expectSameMatrices, tempDir, tinyDoc, tinyStudy } from "./helpers.js";
 
@@ -140,6 +141,29 @@ describe("Sobol' launch points by default (16+ batches per point)", () => {
     for (let k = 1; k <= 3; k++) await runSweep({ study, outDir: out, workers: 1, shard: { index: k, count: 3 } });
     expect(readShardPartial(shardPartialPath(out, { index: 2, count: 3 })).plan.rays).toEqual({ mode: "fixed", perPoint: 640, batch: 40, sampling: "sobol" });
     expectSameMatrices(full.matrices, mergeShards({ inputs: [out], outDir: join(out, "merged") }).matrices);
+  });
+
+  it("a matrix where no light reaches the absorber at some wavelengths is written and reads back (α → 0 path error 0 there, finite elsewhere)", async () => {
+    // Glass and encapsulant in front: at 300 nm nothing gets through to the silicon.
+    const stack = {
+      layers: [
+        { name: "glass", material: "glass-lowiron-Vogt2016", thicknessUm: 3200, topFilms: [] },
+        { name: "eva", material: "EVA-S88-Vogt2016", thicknessUm: 450, topFilms: [] },
+      ],
+      front: { texture: { type: "upright-pyramids", baseUm: 10 }, films: [{ material: "SiNx", thicknessNm: 75 }] },
+      absorber: { material: "Si", thicknessUm: 180 },
+      rear: { ideal: { kind: "mirror", reflectance: 0.95 } },
+    };
+    const study = tinyStudy({ stack, grid: { thetaDeg: [0], phiDeg: [0], wavelengthNm: [300, 900] }, rays: { perPoint: 320, batch: 20 } });
+    expect(study.combos[0].study.rays.sampling).toBe("sobol");
+    const out = tempDir("sobol-dark");
+    const run = await runSweep({ study, outDir: out, workers: 1 });
+    const m = readResponseMatrix(join(out, "base", "matrix.json"));
+    expect(m.trapping!.entered[0]).toBe(0);
+    expect(m.trapping!.freePathRatioStderr[0]).toBe(0);
+    expect(m.trapping!.entered[1]).toBeGreaterThan(0);
+    expect(m.trapping!.freePathRatioStderr[1]).toBeGreaterThan(0);
+    expect(Array.from(m.trapping!.freePathRatioStderr)).toEqual(Array.from(run.matrices[0].trapping!.freePathRatioStderr));
   });
 
   it("15 batches per point stay random (per-ray errors)", async () => {

@@ -54,4 +54,16 @@ describe("pairing groups keep the α → 0 path and the entered power", () => {
     expect(R).toBeCloseTo(summarizeTrapping(t, nC).freePathRatio.mean, 12);
     expect(replicaFreePathStdErr(t, nC)).toBeCloseTo(Math.sqrt(v), 12);
   });
+
+  it("no light entered: error 0; light in only one group: no spread to measure (NaN, the matrix keeps the per-ray error)", () => {
+    const { t, nC } = pointTally();
+    const slot = groupFreePathSlot(nC);
+    const dark = t.slice();
+    for (let g = 0; g < 16; g++) dark[groupOffset(nC, g) + slot] = dark[groupOffset(nC, g) + slot + 1] = 0;
+    expect(replicaFreePathStdErr(dark, nC)).toBe(0);
+    const one = dark.slice();
+    one[groupOffset(nC, 3) + slot] = 5;
+    one[groupOffset(nC, 3) + slot + 1] = 2;
+    expect(replicaFreePathStdErr(one, nC)).toBeNaN();
+  });
 });
