@@ -1,7 +1,7 @@
 import type { RandomStream } from "../random/stream.js";
 import { interfacePowers, lookupInterface } from "../optics/interfaceTable.js";
 import type { CompiledInterface, CompiledStack } from "./compiledStack.js";
-import { DIED, DX, DY, DZ, EP, ES, EX, EY, EZ, NX, NY, NZ, REFLECT, SX, SY, SZ, TRANSMIT, W } from "./rayState.js";
+import { DIED, DX, DY, DZ, EX, EY, EZ, NX, NY, NZ, REFLECT, TRANSMIT, W } from "./rayState.js";
 import { rearExitChannel } from "./history.js";
 
 /**
@@ -41,11 +41,6 @@ export function analogInterfaceEvent(cs: CompiledStack, st: Float64Array, iface:
   }
   const Es = ex * sx + ey * sy + ez * sz;
   const Ep = ex * (sy * dz - sz * dy) + ey * (sz * dx - sx * dz) + ez * (sx * dy - sy * dx);
-  st[SX] = sx;
-  st[SY] = sy;
-  st[SZ] = sz;
-  st[ES] = Es;
-  st[EP] = Ep;
   const e2 = Es * Es + Ep * Ep;
   const fs = e2 > 0 ? (Es * Es) / e2 : 1;
   const fp = 1 - fs;
