@@ -25,19 +25,24 @@ export function storedTallyProblem(t: Float64Array, nChannels: number, nRays: nu
   for (let i = 2 * nChannels + 1; i < t.length; i++) if (t[i]! < 0) return `tally entry ${i} is negative (${t[i]})`;
   if (t.length === tallyLength(nChannels)) {
     // Pairing groups partition the point's batches: their channel sums, ray counts, α → 0 path and
-    // entered power add up to the point's.
-    const freePath = groupFreePathSlot(nChannels);
+    // entered power add up to the point's (slots of a group: channels, rays, path, entered).
     const d = diagOffset(nChannels);
-    for (let c = 0; c <= freePath + 1; c++) {
-      const whole = c < nChannels ? t[2 * c]! : c === nChannels ? n : c === freePath ? t[d + DIAG_FREE_PATH]! : t[d + DIAG_ENTERED]!;
+    const path = groupFreePathSlot(nChannels);
+    for (let slot = 0; slot <= path + 1; slot++) {
+      const whole = slot < nChannels ? t[2 * slot]! : slot === nChannels ? n : t[d + (slot === path ? DIAG_FREE_PATH : DIAG_ENTERED)]!;
       let sum = 0;
-      for (let g = 0; g < PAIR_GROUPS; g++) sum += t[groupOffset(nChannels, g) + c]!;
-      if (Math.abs(sum - whole) > SLACK * Math.max(1, whole)) {
-        return `pairing groups ${c < nChannels ? `of channel ${c} sum to ${sum}, the channel to ${whole}` : c === nChannels ? `hold ${sum} rays, the point ${whole}` : c === freePath ? `hold an α → 0 path of ${sum}, the point ${whole}` : `hold an entered power of ${sum}, the point ${whole}`}`;
-      }
+      for (let g = 0; g < PAIR_GROUPS; g++) sum += t[groupOffset(nChannels, g) + slot]!;
+      if (Math.abs(sum - whole) > SLACK * Math.max(1, whole)) return `pairing groups hold ${groupQuantity(slot, nChannels)} of ${sum}, the point ${whole}`;
     }
   }
   return undefined;
+}
+
+/** What slot `slot` of a pairing group holds, for messages. */
+function groupQuantity(slot: number, nChannels: number): string {
+  if (slot < nChannels) return `a sum of channel ${slot}`;
+  if (slot === nChannels) return "a ray count";
+  return slot === groupFreePathSlot(nChannels) ? "an α → 0 path" : "an entered power";
 }
 
 /**

@@ -13,7 +13,8 @@ import { rearExitChannel } from "./history.js";
  * ray's state is read once and written once. Returns REFLECT, TRANSMIT or DIED. The s/p split and
  * the redirection are written out here again on purpose: shared through helpers with the
  * expected-value event (splitPolarization + redirect, not inlined by V8) the analog kernel ran
- * 5–11 % slower and the expected-value one 5 % (measured 2026-12-04, load 0.4).
+ * 5–11 % slower and the expected-value one 5 %; the s/p split alone shared, 3–11 % (measured
+ * 2026-12-04, load 0.4–1.0).
  */
 export function analogInterfaceEvent(cs: CompiledStack, st: Float64Array, iface: CompiledInterface, rng: RandomStream): number {
   const dx = st[DX], dy = st[DY], dz = st[DZ];
