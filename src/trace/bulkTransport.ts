@@ -50,37 +50,48 @@ function expectedStretch(cs: CompiledStack, st: Float64Array, m: number, rng: Ra
 /**
  * The stretch for a ray in analog mode (or through a medium that does not absorb): no exponential;
  * the absorber path feeds the α → 0 path when the branch ends (endAnalogPath). Returns true when the
- * ray was absorbed. Small, so the bare-cell loop (analogCell.ts) inlines it.
+ * ray was absorbed. Its common case is kept small (the rest in two helpers), so the bare-cell loop
+ * (analogCell.ts) inlines it within V8's inlining budget.
  */
 export function absorbAnalog(cs: CompiledStack, st: Float64Array, m: number): boolean {
-  const lenUm = st[T];
   const alpha = cs.mediumAlphaPerUm[m];
-  const inAbsorber = m === cs.nLayers + 1;
-  const w = st[W];
   if (!(alpha > 0)) {
-    if (inAbsorber) {
-      st[FREE_PATH] += (w / st[BULK]) * lenUm;
-      st[PATH] += w * lenUm;
-    }
+    clearStretch(cs, st, m);
     return false;
   }
+  const lenUm = st[T];
   const tau = alpha * lenUm;
   if (tau >= st[TAU]) {
-    if (inAbsorber) {
-      const s = st[TAU] / alpha;
-      st[PATH] += w * s;
-      st[ANALOG_PATH] += s;
-      if (cs.depthEdgesUm !== null) depositPoint(cs, w, st[Z], s, st[DZ]);
-    }
-    cs.contrib[cs.mediumChan[m]] += w;
+    absorbedInStretch(cs, st, m);
     return true;
   }
   st[TAU] -= tau;
-  if (inAbsorber) {
-    st[PATH] += w * lenUm;
+  if (m === cs.nLayers + 1) {
+    st[PATH] += st[W] * lenUm;
     st[ANALOG_PATH] += lenUm;
   }
   return false;
+}
+
+/** absorbAnalog through a medium that does not absorb: in the absorber (α = 0), its path. */
+function clearStretch(cs: CompiledStack, st: Float64Array, m: number): void {
+  if (m !== cs.nLayers + 1) return;
+  const lenUm = st[T];
+  const w = st[W];
+  st[FREE_PATH] += (w / st[BULK]) * lenUm;
+  st[PATH] += w * lenUm;
+}
+
+/** absorbAnalog: the budget ran out in this stretch; the ray is absorbed in medium m there. */
+function absorbedInStretch(cs: CompiledStack, st: Float64Array, m: number): void {
+  const w = st[W];
+  if (m === cs.nLayers + 1) {
+    const s = st[TAU] / cs.mediumAlphaPerUm[m];
+    st[PATH] += w * s;
+    st[ANALOG_PATH] += s;
+    if (cs.depthEdgesUm !== null) depositPoint(cs, w, st[Z], s, st[DZ]);
+  }
+  cs.contrib[cs.mediumChan[m]] += w;
 }
 
 /**

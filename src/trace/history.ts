@@ -86,7 +86,11 @@ export function arriveAtFace(st: Float64Array, face: number): number {
  * and light that hits a second facet and leaves does not.
  */
 export function departFace(cs: CompiledStack, st: Float64Array): void {
-  if (st[PENDING] === 0) return;
+  if (st[PENDING] !== 0) endPass(cs, st);
+}
+
+/** departFace when the face ended a pass: the power still inside is that pass's. */
+function endPass(cs: CompiledStack, st: Float64Array): void {
   st[PENDING] = 0;
   const w = st[W];
   const k = st[PASSES] - 1; // passes completed

@@ -9,7 +9,7 @@ import { cosSinOfTurn } from "./turnTrig.js";
  * Mirror: specular; Lambertian: cosine-weighted, depolarising. Returns true when the ray ended.
  */
 export function idealRear(cs: CompiledStack, st: Float64Array, rng: RandomStream): boolean {
-  if (absorbAtReflector(cs, st, rng, cs.rearReflectance)) return true;
+  if (absorbAtReflector(cs, st, rng, false)) return true;
   if (cs.rearKind === REAR_IDEAL_MIRROR) {
     // Specular at a horizontal plane: z flips; the polarisation keeps its line (r_s = r_p).
     st[DZ] = -st[DZ];
@@ -27,7 +27,7 @@ export function idealRear(cs: CompiledStack, st: Float64Array, rng: RandomStream
  * direction (depolarised), the rest specularly. Returns true when the ray ended.
  */
 export function backsheetEvent(cs: CompiledStack, st: Float64Array, rng: RandomStream): boolean {
-  if (absorbAtReflector(cs, st, rng, cs.backsheetReflectance)) return true;
+  if (absorbAtReflector(cs, st, rng, true)) return true;
   if (rng.next() < cs.backsheetHaze) {
     lambertianDirection(st, 1, rng);
     randomPolarization(st, rng);
@@ -43,7 +43,9 @@ export function backsheetEvent(cs: CompiledStack, st: Float64Array, rng: RandomS
  * (analog) or as a weight (expected value, then roulette). One random number either way, so both
  * estimators keep the same draw order. Returns true when the ray ended there.
  */
-function absorbAtReflector(cs: CompiledStack, st: Float64Array, rng: RandomStream, r: number): boolean {
+function absorbAtReflector(cs: CompiledStack, st: Float64Array, rng: RandomStream, backsheet: boolean): boolean {
+  // The reflectance is read here, not passed: a double passed to code that is not inlined is boxed.
+  const r = backsheet ? cs.backsheetReflectance : cs.rearReflectance;
   const u = rng.next();
   if (st[ANALOG] !== 0) {
     if (u >= r) {
