@@ -23,6 +23,9 @@ export function setLaunchAzimuth(st: Float64Array, phiRad: number): void {
   st[L_SIN_P] = Math.sin(phiRad);
 }
 
+/** The launch's random numbers (launchRay). */
+const draws = new Float64Array(4);
+
 /**
  * Launches one ray: uniform over the front unit cell, above everything, travelling down along the
  * batch direction (sinθ cosφ, sinθ sinφ, −cosθ) — or, from the rear, below everything travelling up
@@ -42,8 +45,12 @@ export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream,
   // s = (sinφ, −cosφ, 0) ⊥ plane of incidence; p = s × d.
   const sx = sp, sy = -cp;
   const px = sy * dz, py = -sx * dz, pz = sx * dy - sy * dx;
+  // The ray's draws in the order they were always taken: ψ, x, y, then the optical-depth budget
+  // (one fill, or the budget alone with launch points).
+  if (u === null) rng.fill(draws, 4);
+  else draws[3] = rng.next();
   // ψ as a fraction of a turn; cos ψ, sin ψ through the state's scratch slots PA, PB.
-  const psiTurn = u === null ? rng.next() : u[2];
+  const psiTurn = u === null ? draws[0] : u[2];
   if (polMode === 0) cosSinOfTurn(st, psiTurn, PA, PB);
   const a = polMode === 1 ? 1 : polMode === 2 ? 0 : st[PA];
   const b = polMode === 1 ? 0 : polMode === 2 ? 1 : st[PB];
@@ -52,8 +59,8 @@ export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream,
   st[EZ] = b * pz;
   // Uniform over the launch window (compile: the one textured tile's cell, or a large multiple of
   // the largest cell when several textures with their own periods are met).
-  st[X] = (u === null ? rng.next() : u[0]) * cs.launchLxUm;
-  st[Y] = (u === null ? rng.next() : u[1]) * cs.launchLyUm;
+  st[X] = (u === null ? draws[1] : u[0]) * cs.launchLxUm;
+  st[Y] = (u === null ? draws[2] : u[1]) * cs.launchLyUm;
   // Without layers: start 1 µm above the texture (the incidence medium does not absorb); from the
   // rear: on the last rear layer's outer plane, or 1 µm below the rear texture.
   st[Z] = fromRear ? cs.rearLaunchZUm
@@ -64,7 +71,7 @@ export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream,
   st[PATH] = 0;
   // The optical-depth budget is drawn for every ray (same random stream in both estimators) but
   // only the analog one reads it: expected-value rays draw a fresh one when they turn analog.
-  const uTau = rng.next();
+  const uTau = draws[3];
   const analog = st[BATCH_ANALOG] !== 0;
   st[TAU] = analog ? -Math.log(uTau) : 0;
   st[ANALOG] = analog ? 1 : 0;

@@ -30,4 +30,20 @@ describe("RandomStream(streamKey(seed, ...coords))", () => {
     expect(Math.abs(mean - 0.5)).toBeLessThan(4 * Math.sqrt(1 / 12 / n));
     expect(Math.abs(variance - 1 / 12)).toBeLessThan(0.002);
   });
+
+  it("fill(out, n) draws exactly what n calls of next() draw, and leaves the stream where they leave it", () => {
+    const a = new RandomStream(streamKey(3, "fill"));
+    const b = new RandomStream(streamKey(3, "fill"));
+    const out = new Float64Array(5);
+    for (const n of [4, 1, 5, 3]) {
+      a.fill(out, n);
+      for (let i = 0; i < n; i++) expect(out[i]).toBe(b.next());
+    }
+    a.startSubstream(12);
+    b.startSubstream(12);
+    a.fill(out, 4);
+    const after = [a.next(), a.next()];
+    for (let i = 0; i < 4; i++) expect(out[i]).toBe(b.next());
+    expect(after).toEqual([b.next(), b.next()]);
+  });
 });
