@@ -16,11 +16,20 @@ export interface NativeRun {
   /** CPU seconds of the tracing loop (C clock()). */
   seconds: number;
   channels: Record<string, [number, number]>;
+  /** With lightfold's per-ray figures (`--figures`): "figures". */
+  mode?: string;
+  /** With `--figures`: mean ± SE of R_first, R_escape, pathRatio, entered, freePath, afterPassK, escapeDegB, ... */
+  figures?: Record<string, [number, number]>;
 }
 
 export interface NativeTracer {
   compiler: string;
-  run(wavelengthNm: number, nRays: number, seed: number): NativeRun;
+  /**
+   * One run of the reference. figures: with the per-ray work lightfold's analog kernel does beyond
+   * the bare kernel (substream per ray, R_first / R_escape, passes, escape angles, α → 0 path, sums
+   * and squares), to calibrate what those figures cost; the bare kernel stays the speed goal's measure.
+   */
+  run(wavelengthNm: number, nRays: number, seed: number, figures?: boolean): NativeRun;
 }
 
 const COMPILERS: [string, string[]][] = [
@@ -49,9 +58,10 @@ function nativeTracer(compiler: string, exe: string): NativeTracer {
   const si = MaterialRegistry.withBuiltins().get("Si-Green2008");
   return {
     compiler,
-    run(wavelengthNm, nRays, seed) {
+    run(wavelengthNm, nRays, seed, figures = false) {
       const { n, k } = si.nk(wavelengthNm);
-      const r = spawnSync(exe, [String(n), String(k), String(wavelengthNm), String(nRays), String(seed)], { encoding: "utf8" });
+      const args = [String(n), String(k), String(wavelengthNm), String(nRays), String(seed)];
+      const r = spawnSync(exe, figures ? ["--figures", ...args] : args, { encoding: "utf8" });
       if (r.status !== 0) throw new Error(`native reference failed: ${r.stderr || r.error?.message}`);
       return JSON.parse(r.stdout) as NativeRun;
     },

@@ -12,6 +12,7 @@ import type { CompiledStack } from "../src/trace/compiledStack.js";
 import { batchLaunchPoints, type LaunchSampling } from "../src/trace/launchPoints.js";
 import { trappingWithReplicaErrors, withReplicaErrors } from "../src/trace/replicaSummary.js";
 import { REPLICA_GROUPS } from "../src/random/replicaGroups.js";
+import { DIAG_FREE_PATH, diagOffset, diagPassOffset } from "../src/trace/tallyLayout.js";
 
 export { BENCH_STACK } from "./benchStack.js";
 import { BENCH_STACK } from "./benchStack.js";
@@ -111,7 +112,19 @@ interface TimedRun {
   R: [number, number];
   A: [number, number];
   A_rear: [number, number];
+  /** Lightfold's analog run and the native run with its figures: the figures both compute (FIGURE_KEYS). */
+  figures?: Record<string, [number, number]>;
 }
+
+/** Figures beyond the channels checked between lightfold's analog kernel and the native one with its figures. */
+const FIGURE_KEYS = ["R_first", "pathRatio", "freePath", "afterPass1", "afterPass2"] as const;
+const FIGURE_LABELS: Record<(typeof FIGURE_KEYS)[number], string> = {
+  R_first: "R_first",
+  pathRatio: "path/W",
+  freePath: "α → 0 path/W",
+  afterPass1: "inside after pass 1",
+  afterPass2: "after pass 2",
+};
 
 /**
  * The estimators the efficiency table compares (lightfold's own, in this thread). The default runs
@@ -124,7 +137,10 @@ const CONFIGS: { name: string; options: CompileOptions; sampling?: LaunchSamplin
   { name: "default, < 16 batches (random)", options: { launchSampling: "random" } },
   { name: "default, ≥ 16 batches (Sobol')", options: { launchSampling: "sobol" }, sampling: "sobol" },
 ];
-const NAME_WIDTH = Math.max(...CONFIGS.map((c) => c.name.length));
+const NATIVE = "native analog";
+/** The native reference with lightfold's per-ray figures (bench/native/pyramids.c --figures): a calibration row. */
+const NATIVE_FIGURES = "native + lightfold's figures";
+const NAME_WIDTH = Math.max(NATIVE_FIGURES.length, ...CONFIGS.map((c) => c.name.length));
 
 function lightfoldRun(wavelengthNm: number, options: CompileOptions, nRays: number, seed: number, sampling: LaunchSampling = "random"): TimedRun {
   const cs = compileStack(BENCH_STACK, MaterialRegistry.withBuiltins(), wavelengthNm, options);
@@ -138,7 +154,27 @@ function lightfoldRun(wavelengthNm: number, options: CompileOptions, nRays: numb
   const at = (name: string): [number, number] => [s.mean[cs.channels.indexOf(name)], s.stderr[cs.channels.indexOf(name)]];
   // R as a whole (R_first + R_escape), its error from the per-ray totals.
   const r = summarizeTrapping(tally, cs.channels.length).reflectionTotal;
-  return { seconds: (c.user + c.system) * 1e-6, rays: nRays, events: s.eventsPerRay * nRays, R: [r.mean, r.stderr], A: at("A_absorber"), A_rear: at("A_rear") };
+  const run: TimedRun = { seconds: (c.user + c.system) * 1e-6, rays: nRays, events: s.eventsPerRay * nRays, R: [r.mean, r.stderr], A: at("A_absorber"), A_rear: at("A_rear") };
+  if (options.estimator === "analog") run.figures = lightfoldFigures(cs, tally, s);
+  return run;
+}
+
+/** Per incident ray, as the native reference prints them: R_first, path/W, α → 0 path/W, power inside after passes 1 and 2. */
+function lightfoldFigures(cs: CompiledStack, tally: Float64Array, s: TallySummary): Record<string, [number, number]> {
+  const n = s.nRays;
+  const d = diagOffset(cs.channels.length);
+  const pair = (o: number): [number, number] => {
+    const m = tally[o] / n;
+    return [m, Math.sqrt(Math.max(0, (tally[o + 1] - n * m * m) / (n - 1)) / n)];
+  };
+  const rFirst = cs.channels.indexOf("R_first");
+  return {
+    R_first: [s.mean[rFirst], s.stderr[rFirst]],
+    pathRatio: [s.pathRatio, s.pathRatioStderr],
+    freePath: pair(d + DIAG_FREE_PATH),
+    afterPass1: pair(d + diagPassOffset(1)),
+    afterPass2: pair(d + diagPassOffset(2)),
+  };
 }
 
 /**
@@ -170,9 +206,33 @@ function sobolRun(cs: CompiledStack, wavelengthNm: number, nRays: number, seed: 
   return { seconds, rays: per * REPLICA_GROUPS, events: s.eventsPerRay * per * REPLICA_GROUPS, R: [r.mean, r.stderr], A: at("A_absorber"), A_rear: at("A_rear") };
 }
 
-function nativeRun(native: NativeTracer, wavelengthNm: number, nRays: number, seed: number): TimedRun {
-  const r = native.run(wavelengthNm, nRays, seed);
-  return { seconds: r.seconds, rays: r.rays, events: r.events, R: r.channels.R, A: r.channels.A_absorber, A_rear: r.channels.A_rear };
+function nativeRun(native: NativeTracer, wavelengthNm: number, nRays: number, seed: number, figures = false): TimedRun {
+  const r = native.run(wavelengthNm, nRays, seed, figures);
+  const run: TimedRun = { seconds: r.seconds, rays: r.rays, events: r.events, R: r.channels.R, A: r.channels.A_absorber, A_rear: r.channels.A_rear };
+  if (figures) {
+    if (r.mode !== "figures" || r.figures === undefined) throw new Error("native reference: --figures gave no figures");
+    run.figures = Object.fromEntries(FIGURE_KEYS.map((k) => [k, r.figures?.[k] ?? [NaN, NaN]]));
+  }
+  return run;
+}
+
+/** Mean over rounds and its SE (each round's SE combined, independent rounds) of a channel or figure. */
+function pooledOver(runs: TimedRun[], get: (r: TimedRun) => [number, number]): [number, number] {
+  const m = runs.reduce((a, r) => a + get(r)[0], 0) / runs.length;
+  const se = Math.sqrt(runs.reduce((a, r) => a + get(r)[1] ** 2, 0)) / runs.length;
+  return [m, se];
+}
+
+/** z of the difference of two sets of rounds (independent streams), to 2 decimals. */
+function zOf(a: TimedRun[], b: TimedRun[], get: (r: TimedRun) => [number, number]): string {
+  const [ma, sa] = pooledOver(a, get);
+  const [mb, sb] = pooledOver(b, get);
+  return (sa === 0 && sb === 0 ? 0 : (ma - mb) / Math.hypot(sa, sb)).toFixed(2);
+}
+
+/** "z(R) …, z(A_absorber) …, z(A_rear) …" of two sets of rounds. */
+function channelZs(a: TimedRun[], b: TimedRun[]): string {
+  return `z(R) ${zOf(a, b, (r) => r.R)}, z(A_absorber) ${zOf(a, b, (r) => r.A)}, z(A_rear) ${zOf(a, b, (r) => r.A_rear)}`;
 }
 
 /** The run with its standard errors replaced by the RMS of all rounds' errors (same rays each). */
@@ -193,6 +253,12 @@ function fastest(runs: TimedRun[]): TimedRun {
  * machine slows all alike. FOM = 1/(SE² × CPU seconds); ratios are to the native analog kernel.
  * The Sobol' row takes its SE from the spread of its 16 replica groups (rays inside a group are not
  * independent), RMS over the rounds.
+ *
+ * A second native row runs the reference with lightfold's per-ray figures (pyramids.c --figures: a
+ * substream per ray, R_first / R_escape, pass histogram, escape angles, α → 0 path, sums and
+ * squares), interleaved with the others; lightfold's analog rays/s over it is printed as a
+ * calibration of what the figures cost. It is not the goal's measure: the goal stays the ratio to
+ * the bare native kernel (the ×native column).
  */
 function printEfficiency(): void {
   const nRays = Number(process.env.LIGHTFOLD_BENCH_TRACE_RAYS ?? "200000");
@@ -208,10 +274,14 @@ function printEfficiency(): void {
     const byName = new Map<string, TimedRun[]>();
     const add = (name: string, r: TimedRun): void => void byName.set(name, [...(byName.get(name) ?? []), r]);
     for (let k = 0; k < rounds; k++) {
-      if (typeof native !== "string") add("native analog", nativeRun(native, wavelengthNm, nRays, BENCH_SEED + k));
+      if (typeof native !== "string") {
+        add(NATIVE, nativeRun(native, wavelengthNm, nRays, BENCH_SEED + k));
+        // Its own seeds, so its rounds are independent of the bare kernel's (the z between them).
+        add(NATIVE_FIGURES, nativeRun(native, wavelengthNm, nRays, BENCH_SEED + 1000 + k, true));
+      }
       for (const c of CONFIGS) add(c.name, lightfoldRun(wavelengthNm, c.options, nRays, BENCH_SEED + k, c.sampling));
     }
-    const nat = byName.has("native analog") ? fastest(byName.get("native analog") as TimedRun[]) : undefined;
+    const nat = byName.has(NATIVE) ? fastest(byName.get(NATIVE) as TimedRun[]) : undefined;
     const fom = (r: TimedRun, v: [number, number]): number => 1 / (v[1] * v[1] * r.seconds);
     process.stdout.write(`  ${wavelengthNm} nm   ${"estimator".padEnd(NAME_WIDTH)} rays/s     ×native  events/ray  ns/event    R ± SE              A_absorber ± SE     FOM R      ×native  FOM A      ×native\n`);
     for (const [name, runs] of byName) {
@@ -229,18 +299,19 @@ function printEfficiency(): void {
     if (nat !== undefined) {
       // Agreement of lightfold's analog kernel with the native one: z per channel over all rounds.
       const lf = byName.get("analog") as TimedRun[];
-      const nv = byName.get("native analog") as TimedRun[];
-      const pooled = (runs: TimedRun[], key: "R" | "A" | "A_rear"): [number, number] => {
-        const m = runs.reduce((a, r) => a + r[key][0], 0) / runs.length;
-        const se = Math.sqrt(runs.reduce((a, r) => a + r[key][1] ** 2, 0)) / runs.length;
-        return [m, se];
-      };
-      const z = (key: "R" | "A" | "A_rear"): string => {
-        const [a, sa] = pooled(lf, key);
-        const [b, sb] = pooled(nv, key);
-        return (sa === 0 && sb === 0 ? 0 : (a - b) / Math.hypot(sa, sb)).toFixed(2);
-      };
-      process.stdout.write(`           analog vs native: z(R) ${z("R")}, z(A_absorber) ${z("A")}, z(A_rear) ${z("A_rear")}\n`);
+      const nv = byName.get(NATIVE) as TimedRun[];
+      const nf = byName.get(NATIVE_FIGURES) as TimedRun[];
+      process.stdout.write(`           analog vs native: ${channelZs(lf, nv)}\n`);
+      // The calibration: lightfold's analog rays/s over the native kernel doing the same per-ray work.
+      const rate = (r: TimedRun): number => r.rays / r.seconds;
+      const full = fastest(nf);
+      process.stdout.write(
+        `           analog ×native with lightfold's per-ray figures (calibration, not the goal): ${(rate(fastest(lf)) / rate(full)).toFixed(2)}` +
+          ` (the figures cost the native kernel ${((1 - rate(full) / rate(nat)) * 100).toFixed(0)} % of its rays/s)\n`,
+      );
+      process.stdout.write(`           native + figures vs native: ${channelZs(nf, nv)}; analog vs native + figures: ${channelZs(lf, nf)}\n`);
+      const figureZs = FIGURE_KEYS.map((k) => `z(${FIGURE_LABELS[k]}) ${zOf(lf, nf, (r) => (r.figures as Record<string, [number, number]>)[k])}`);
+      process.stdout.write(`           analog vs native + figures, per-ray figures: ${figureZs.join(", ")}\n`);
     }
   }
 }
