@@ -8,7 +8,7 @@ import { popBranch, setBranchMedium } from "./branches.js";
 import { cosSinOfTurn } from "./turnTrig.js";
 import { launchRay, polarizationMode, setLaunchAngles, setLaunchAzimuth, type Polarization } from "./launch.js";
 import type { LaunchPoints } from "./launchPoints.js";
-import { frontSearch, outerSearch, rearSearch, rearSearchFromBehind } from "./surfaceSearch.js";
+import { frontSearch, outerSearch, planarRearSearch, rearSearch, rearSearchFromBehind } from "./surfaceSearch.js";
 import { absorbAlong, endAnalogPath } from "./bulkTransport.js";
 import { interfaceEvent } from "./interfaceEvent.js";
 import { backsheetEvent, idealRear, lambertianDirection, lambertianFrontFromBelow, randomPolarization } from "./idealSurfaces.js";
@@ -172,42 +172,44 @@ function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number): vo
 /**
  * In the absorber: rays going up inside the rear texture's slab may meet another rear facet first;
  * then the front texture (rays going up, or still inside its slab), else down to the rear;
- * Beer–Lambert on the way, then the surface event there.
+ * Beer–Lambert on the way, then the surface event there. One call site each for Beer–Lambert, the
+ * step and the face arrival, so V8 inlines them within its budget (as in analogCell.ts).
  */
 function stepInAbsorber(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
   const ABS = cs.nLayers + 1;
+  const rearMesh = cs.rearTile.kind === SURFACE_MESH;
   // Going up after the rear: the next pass has begun (history.ts).
   if (st[DZ] > 0 && st[FACE] === FACE_REAR) departFace(cs, st);
-  if (st[DZ] > 0 && cs.rearTile.kind === SURFACE_MESH && st[Z] < -cs.thicknessUm - cs.rearTile.zMinUm) {
+  let atRear = false;
+  if (st[DZ] > 0 && rearMesh && st[Z] < -cs.thicknessUm - cs.rearTile.zMinUm) {
     const inRear = rearSearch(cs, st);
     if (inRear === LOST) return RAY_LOST;
-    if (inRear === HIT) return atRear(cs, st, rng);
+    atRear = inRear === HIT;
   }
-  let found = frontSearch(cs, st, true);
-  if (found === LOST) return RAY_LOST;
-  if (found === HIT) {
-    if (absorbAlong(cs, st, ABS, rng)) return RAY_ENDED;
-    advance(st);
-    st[EVENTS]++;
-    arriveAtFace(st, FACE_FRONT);
-    if (cs.frontTile.kind === SURFACE_LAMBERTIAN) return lambertianFrontFromBelow(cs, st, rng) ? cs.nLayers : ABS;
-    return afterInterface(cs, st, interfaceEvent(cs, st, cs.front, rng), ABS, cs.nLayers);
+  if (!atRear) {
+    const found = frontSearch(cs, st, true);
+    if (found === LOST) return RAY_LOST;
+    if (found !== HIT) {
+      // Heading for the rear, clear of the front texture: the next pass has begun.
+      if (st[FACE] === FACE_FRONT) departFace(cs, st);
+      const toRear = rearMesh ? rearSearch(cs, st) : planarRearSearch(cs, st);
+      if (toRear === LOST) return RAY_LOST;
+      if (toRear === NO_HIT) return ABS; // left the rear texture's slab upward
+      atRear = true;
+    }
   }
-  // Heading for the rear, clear of the front texture: the next pass has begun.
-  if (st[FACE] === FACE_FRONT) departFace(cs, st);
-  found = rearSearch(cs, st);
-  if (found === LOST) return RAY_LOST;
-  if (found === NO_HIT) return ABS; // left the rear texture's slab upward
-  return atRear(cs, st, rng);
-}
-
-/** From the absorber to the rear hit found (distance in st[T]) and the rear event there. */
-function atRear(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
-  const ABS = cs.nLayers + 1;
   if (absorbAlong(cs, st, ABS, rng)) return RAY_ENDED;
   advance(st);
   st[EVENTS]++;
-  arriveAtFace(st, FACE_REAR);
+  arriveAtFace(st, atRear ? FACE_REAR : FACE_FRONT);
+  if (atRear) return rearEvent(cs, st, rng);
+  if (cs.frontTile.kind === SURFACE_LAMBERTIAN) return lambertianFrontFromBelow(cs, st, rng) ? cs.nLayers : ABS;
+  return afterInterface(cs, st, interfaceEvent(cs, st, cs.front, rng), ABS, cs.nLayers);
+}
+
+/** The event at the rear reached from the absorber: an ideal reflector, or the rear interface. */
+function rearEvent(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
+  const ABS = cs.nLayers + 1;
   if (cs.rearKind === REAR_IDEAL_MIRROR || cs.rearKind === REAR_IDEAL_LAMBERTIAN) return idealRear(cs, st, rng) ? RAY_ENDED : ABS;
   // into the first rear layer, or (without rear layers) absorbed/escaped in the exit medium's sink
   return afterInterface(cs, st, interfaceEvent(cs, st, cs.rear as CompiledInterface, rng), ABS, ABS + 1);
