@@ -57,8 +57,8 @@ export function rearSearchFromBehind(cs: CompiledStack, st: Float64Array): numbe
 
 /**
  * Rear search of a planar rear for a ray in the absorber (rearSearch for a planar rear tile): small,
- * so the bare-cell loop (analogCell.ts) inlines it where rearSearch, with its texture cases, used up
- * the loop's inlining budget.
+ * so the ray loops (analogCell.ts, kernel.ts) inline it where rearSearch, with its texture cases,
+ * used up their inlining budget.
  */
 export function planarRearSearch(cs: CompiledStack, st: Float64Array): number {
   return st[DZ] < 0 ? planarRearHit(cs, st) : NO_HIT;
@@ -142,6 +142,7 @@ const slab = new Float64Array(4);
  * offset (front: offset 0; outer glass texture: the glass's top plane), or for the rear tile,
  * flipped (zSign −1): −(z − (−W)) = −(z + W). Writes slab[0..3] (above). Returns NO_HIT when the ray
  * leaves the slab on the far side of the surface, MUST_HIT when it heads into the surface, else 0.
+ * pyramidSearch repeats these lines with the ray in locals: change both alike.
  */
 function slabEntry(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, zSign: number, zOffsetUm: number): number {
   const zl = zSign * (st[Z] - zOffsetUm);
