@@ -5,8 +5,9 @@
  * x¹⁵ (truncation below x¹⁷/17! < 5e-17 there). About half the cost of Math.cos plus Math.sin,
  * which the engine calls out to; agrees with them to a few units in the last place (tests/trace/turnTrig).
  * The nearest integer is ⌊4·turn + ½⌋ (Math.round took 7 ns of the 20 here, 2026-12-05): the same
- * integer as Math.round wherever 4·turn + ½ is exact, as for every turn the tracer draws (multiples of
- * 2^-33: random streams and launch points); elsewhere at worst the neighbour, |x| a rounding past π/4.
+ * integer as Math.round (ties up, negative turns too) wherever 4·turn + ½ is exact, as for every turn
+ * the tracer draws (multiples of 2^-33 in (0, 1): random streams and launch points); elsewhere at
+ * worst the neighbour, |x| a rounding past π/4.
  */
 
 const HALF_PI = Math.PI / 2;
