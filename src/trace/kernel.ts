@@ -3,7 +3,7 @@ import type { RandomStream } from "../random/stream.js";
 import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
 import { SURFACE_LAMBERTIAN, SURFACE_MESH } from "../geometry/surfaceTile.js";
 import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack, type Estimator } from "./compiledStack.js";
-import { BATCH_ANALOG, BRANCH_SERIAL, BRANCHES, DIED, DZ, ENTERED, EVENTS, FACE, HIT, L_COS_P, L_SIN_P, PATH, RAY_INDEX, REFLECT, SPLIT, T, TRANSMIT, W, Z, advance, setNormal } from "./rayState.js";
+import { BATCH_ANALOG, BRANCH_SERIAL, BRANCHES, DIED, DZ, ENTERED, EVENTS, FACE, HIT, L_COS_P, L_SIN_P, PATH, RAY_INDEX, SPLIT, T, TRANSMIT, W, Z, advance, setNormal } from "./rayState.js";
 import { popBranch, setBranchMedium } from "./branches.js";
 import { cosSinOfTurn } from "./turnTrig.js";
 import { launchRay, polarizationMode, setLaunchAngles, setLaunchAzimuth, type Polarization } from "./launch.js";
