@@ -19,7 +19,7 @@ function iamFloor(series: LineSeries[]): number {
 /** Angular modifier J(θ)/J(0) of every stack that has a photocurrent summary; null when none has. */
 export function iamFigure(stacks: StackEntry[]): Figure | null {
   const series: LineSeries[] = [];
-  stacks.forEach((s, i) => {
+  stacks.forEach((s) => {
     const iam = s.photocurrent?.iam;
     if (!iam || iam.thetaDeg.length === 0) return;
     const st = seriesStyle(series.length);

@@ -62,7 +62,8 @@ export function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: Ran
       if (found === LOST) return RAY_LOST;
       if (found !== HIT) {
         if (st[FACE] === FACE_FRONT) departFace(cs, st);
-        planarRearSearch(cs, st);
+        // No front hit and no rear ahead: the ray runs parallel to the faces (dz = 0 or NaN).
+        if (planarRearSearch(cs, st) === NO_HIT) return RAY_LOST;
         atRear = true;
       }
     }

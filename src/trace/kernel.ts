@@ -194,7 +194,8 @@ function stepInAbsorber(cs: CompiledStack, st: Float64Array, rng: RandomStream):
       if (st[FACE] === FACE_FRONT) departFace(cs, st);
       const toRear = rearMesh ? rearSearch(cs, st) : planarRearSearch(cs, st);
       if (toRear === LOST) return RAY_LOST;
-      if (toRear === NO_HIT) return ABS; // left the rear texture's slab upward
+      // Left the rear texture's slab upward; with a planar rear, a ray parallel to the faces.
+      if (toRear === NO_HIT) return rearMesh ? ABS : RAY_LOST;
       atRear = true;
     }
   }

@@ -195,7 +195,8 @@ function slabEntry(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, zSig
  */
 export function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, zSign: number, zOffsetUm: number): number {
   // The slab entry of slabEntry, written out here with the ray in locals (through the shared
-  // function and its output array the bench case ran 3–6 % slower; DEVELOPERS.md, "Tracer efficiency").
+  // function and its output array the bench case ran 1–4 % slower; with frontSearch's dispatch,
+  // 3–5 %: DEVELOPERS.md, "Tracer efficiency").
   const zl = zSign * (st[Z] - zOffsetUm);
   const dzl = zSign * st[DZ];
   const zMin = tile.zMinUm;

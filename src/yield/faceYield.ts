@@ -1,6 +1,6 @@
 import type { Face } from "../sky/faceSight.js";
 import { cosIncidence, directionEnu, matrixAzimuthDeg, type ModuleFrame } from "../sky/moduleFrame.js";
-import { faceIrradiance, rowHour, updateRowHour, type RowLight } from "../sky/rowIrradiance.js";
+import { rowHour, updateRowHour, type RowLight } from "../sky/rowIrradiance.js";
 import { emptySkyParts, skyParts, type SkyModel } from "../sky/transposition.js";
 import { RAD } from "../util/math.js";
 import type { AngularGrid } from "./angularGrid.js";
