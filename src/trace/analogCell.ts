@@ -15,8 +15,9 @@ import { FACE_FRONT, FACE_REAR, arriveAtFace, departFace, enterAbsorber, leaveFr
  * interface into the exit medium), light from the front. A ray is either above the
  * front or in the absorber, so one loop with a flag replaces the general loop's medium dispatch
  * (kernel.ts); the physics, the random draws and the tallies are the general loop's, call for call,
- * so both give bit-identical tallies (tests/trace/analogCell.test.ts). About 7 % faster on the
- * bench case (DEVELOPERS.md, "Tracer efficiency").
+ * so both give bit-identical tallies (tests/trace/analogCell.test.ts). On the bench case the general
+ * loop, given the same single call sites, still runs 13–16 % slower (2026-12-05; DEVELOPERS.md,
+ * "Tracer efficiency").
  */
 
 /** Whether analog batches of front light on this stack can take the bare-cell loop. */
