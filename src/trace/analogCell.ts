@@ -2,22 +2,25 @@ import type { RandomStream } from "../random/stream.js";
 import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
 import { SURFACE_LAMBERTIAN, SURFACE_PLANAR } from "../geometry/surfaceTile.js";
 import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
-import { DIED, DZ, EVENTS, FACE, HIT, REFLECT, W, advance } from "./rayState.js";
+import { ANALOG_PATH, BULK, DIED, DZ, ENTERED_W, EVENTS, FACE, FREE_PATH, HIT, MAX_PASS, PASSES, PATH, PENDING, REFLECT, T, TAIL, TAU, W, Z, advance } from "./rayState.js";
 import { frontSearch, planarRearSearch, pyramidSearch } from "./surfaceSearch.js";
-import { absorbAnalog } from "./bulkTransport.js";
+import { depositPoint } from "./depthTally.js";
+import { MAX_PASSES } from "./tallyLayout.js";
 import { analogInterfaceEvent } from "./analogInterfaceEvent.js";
 import { idealRear } from "./idealSurfaces.js";
-import { FACE_FRONT, FACE_REAR, arriveAtFace, departFace, enterAbsorber, leaveFront, rearExitChannel } from "./history.js";
+import { FACE_FRONT, FACE_REAR, leaveFront, rearExitChannel } from "./history.js";
 
 /**
  * The ray loop of an analog batch on a bare cell: the incidence medium straight on the front texture
  * (regular pyramids or planar, films allowed), the absorber, a planar rear (ideal reflector, or an
  * interface into the exit medium), light from the front. A ray is either above the
  * front or in the absorber, so one loop with a flag replaces the general loop's medium dispatch
- * (kernel.ts); the physics, the random draws and the tallies are the general loop's, call for call,
- * so both give bit-identical tallies (tests/trace/analogCell.test.ts). On the bench case the general
- * loop, given the same single call sites, still runs 13–16 % slower (2026-12-05; DEVELOPERS.md,
- * "Tracer efficiency").
+ * (kernel.ts). The physics, the random draws and the tallies are the general loop's: the same
+ * search and event calls, and Beer–Lambert (absorbAnalog) and the pass history (history.ts) written
+ * out with the ray's budget, paths and history in locals instead of its state slots, so both loops
+ * give bit-identical tallies (tests/trace/analogCell.test.ts). On the bench case the general loop,
+ * given the same single call sites, still ran 13–16 % slower before the locals (2026-12-05;
+ * DEVELOPERS.md, "Tracer efficiency").
  */
 
 /** Whether analog batches of front light on this stack can take the bare-cell loop. */
@@ -37,57 +40,150 @@ export const RAY_LOST = -2;
 /**
  * Follows one launched analog ray to its end (its channel, history and events in the state, as
  * traceRay leaves them); returns RAY_LOST when it could not be resolved (event budget, lost in the
- * walk), else 0.
+ * walk), else 0. The ray's budget, paths and history live in locals while it is traced and go back
+ * to the state once at its end (the pass counter at once: the exit channels read it); the
+ * arithmetic and its order are those of absorbAnalog and history.ts, so the tallies are theirs bit
+ * for bit.
  */
 export function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
   const maxEvents = cs.maxEvents;
-  const ABS = 1;
   const mirrorRear = cs.rearKind === REAR_IDEAL_MIRROR || cs.rearKind === REAR_IDEAL_LAMBERTIAN;
-  const absorbingAbove = cs.mediumAlphaPerUm[0] > 0;
+  const alphaAbove = cs.mediumAlphaPerUm[0];
+  const alphaAbs = cs.mediumAlphaPerUm[1];
   // Regular pyramids are searched directly (frontSearch's dispatch cost 2–4 % on the bench case).
   const tile = cs.frontTile;
   const pyramids = tile.kind !== SURFACE_PLANAR;
+  // An analog ray keeps its weight from launch to end.
+  const w = st[W];
+  let tau = st[TAU];
+  let path = st[PATH];
+  let analogPath = st[ANALOG_PATH];
+  let freePath = st[FREE_PATH];
+  let passes = st[PASSES];
+  let face = st[FACE];
+  let pending = st[PENDING] !== 0;
+  let tail = st[TAIL];
+  let maxPass = st[MAX_PASS];
+  let entered = st[ENTERED_W];
+  let events = 0;
   let inAbsorber = false;
-  st[EVENTS] = 0;
+  let result = 0;
   for (;;) {
-    if (st[EVENTS] >= maxEvents) return RAY_LOST;
+    if (events >= maxEvents) {
+      result = RAY_LOST;
+      break;
+    }
     // Where the ray meets a surface next: the front from above or below, or the rear.
     let atRear = false;
     if (!inAbsorber) {
       const found = pyramids ? pyramidSearch(tile, st, false, 1, 0) : frontSearch(cs, st, false);
-      if (found === LOST) return RAY_LOST;
-      if (found === NO_HIT) return leaveAbove(cs, st);
+      if (found === LOST) {
+        result = RAY_LOST;
+        break;
+      }
+      if (found === NO_HIT) {
+        result = leaveAbove(cs, st);
+        break;
+      }
     } else {
-      if (st[DZ] > 0 && st[FACE] === FACE_REAR) departFace(cs, st);
       const found = pyramids ? pyramidSearch(tile, st, true, 1, 0) : frontSearch(cs, st, true);
-      if (found === LOST) return RAY_LOST;
+      // Leaving the face that ended a pass (history.ts, departFace): up from the rear, or down from
+      // the front towards the rear.
+      if (pending && (face === FACE_REAR ? st[DZ] > 0 : found !== HIT && found !== LOST)) {
+        pending = false;
+        const k = passes - 1;
+        if (k > MAX_PASSES) tail += w;
+        else {
+          cs.rayPasses[k - 1] += w;
+          if (k > maxPass) maxPass = k;
+        }
+      }
+      if (found === LOST) {
+        result = RAY_LOST;
+        break;
+      }
       if (found !== HIT) {
-        if (st[FACE] === FACE_FRONT) departFace(cs, st);
         // No front hit and no rear ahead: the ray runs parallel to the faces (dz = 0 or NaN).
-        if (planarRearSearch(cs, st) === NO_HIT) return RAY_LOST;
+        if (planarRearSearch(cs, st) === NO_HIT) {
+          result = RAY_LOST;
+          break;
+        }
         atRear = true;
       }
     }
-    // Beer–Lambert on the way there (one call site each, so the loop inlines them), then the event.
-    if ((inAbsorber || absorbingAbove) && absorbAnalog(cs, st, inAbsorber ? ABS : 0)) return 0;
+    // Beer–Lambert on the way there (absorbAnalog's arithmetic), then the event.
+    const lenUm = st[T];
+    if (inAbsorber) {
+      if (alphaAbs > 0) {
+        const od = alphaAbs * lenUm;
+        if (od >= tau) {
+          const s = tau / alphaAbs;
+          path += w * s;
+          analogPath += s;
+          if (cs.depthEdgesUm !== null) depositPoint(cs, w, st[Z], s, st[DZ]);
+          cs.contrib[cs.mediumChan[1]] += w;
+          break;
+        }
+        tau -= od;
+        path += w * lenUm;
+        analogPath += lenUm;
+      } else {
+        freePath += (w / st[BULK]) * lenUm;
+        path += w * lenUm;
+      }
+    } else if (alphaAbove > 0) {
+      const od = alphaAbove * lenUm;
+      if (od >= tau) {
+        cs.contrib[cs.mediumChan[0]] += w;
+        break;
+      }
+      tau -= od;
+    }
     advance(st);
-    st[EVENTS]++;
-    if (inAbsorber) arriveAtFace(st, atRear ? FACE_REAR : FACE_FRONT);
+    events++;
+    if (inAbsorber) {
+      const f = atRear ? FACE_REAR : FACE_FRONT;
+      if (face !== f) {
+        face = f;
+        passes += 1;
+        st[PASSES] = passes;
+        pending = true;
+      }
+    }
     if (atRear && mirrorRear) {
-      if (idealRear(cs, st, rng)) return 0;
+      if (idealRear(cs, st, rng)) break;
       continue;
     }
     const out = analogInterfaceEvent(cs, st, atRear ? (cs.rear as CompiledInterface) : cs.front, rng);
-    if (out === DIED) return 0;
+    if (out === DIED) break;
     if (out === REFLECT) continue;
     if (atRear) {
       // Transmitted into the exit medium without a sink there: it leaves through the rear.
-      cs.contrib[rearExitChannel(cs, st)] += st[W];
-      return 0;
+      cs.contrib[rearExitChannel(cs, st)] += w;
+      break;
     }
-    if (!inAbsorber) enterAbsorber(st, FACE_FRONT);
+    if (!inAbsorber) {
+      // Into the absorber through the front (history.ts, enterAbsorber).
+      if (passes === 0) {
+        passes = 1;
+        st[PASSES] = 1;
+        entered += w;
+      }
+      face = FACE_FRONT;
+    }
     inAbsorber = !inAbsorber;
   }
+  st[EVENTS] = events;
+  st[TAU] = tau;
+  st[PATH] = path;
+  st[ANALOG_PATH] = analogPath;
+  st[FREE_PATH] = freePath;
+  st[FACE] = face;
+  st[PENDING] = pending ? 1 : 0;
+  st[TAIL] = tail;
+  st[MAX_PASS] = maxPass;
+  st[ENTERED_W] = entered;
+  return result;
 }
 
 /** No front hit from above: the ray leaves upward (0), or runs parallel to the front (RAY_LOST). */

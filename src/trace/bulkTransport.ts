@@ -50,8 +50,9 @@ function expectedStretch(cs: CompiledStack, st: Float64Array, m: number, rng: Ra
 /**
  * The stretch for a ray in analog mode (or through a medium that does not absorb): no exponential;
  * the absorber path feeds the α → 0 path when the branch ends (endAnalogPath). Returns true when the
- * ray was absorbed. Its common case is kept small (the rest in two helpers), so the bare-cell loop
- * (analogCell.ts) inlines it within V8's inlining budget.
+ * ray was absorbed. Its common case is kept small (the rest in two helpers), so callers inline it
+ * within V8's inlining budget. The bare-cell loop (analogCell.ts) writes the same arithmetic out
+ * with the ray's budget and paths in locals.
  */
 export function absorbAnalog(cs: CompiledStack, st: Float64Array, m: number): boolean {
   const alpha = cs.mediumAlphaPerUm[m];
