@@ -2,13 +2,17 @@ import type { RandomStream } from "../random/stream.js";
 import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
 import { SURFACE_LAMBERTIAN, SURFACE_PLANAR } from "../geometry/surfaceTile.js";
 import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
-import { ANALOG_PATH, BULK, DIED, DZ, ENTERED_W, EVENTS, FACE, FREE_PATH, HIT, MAX_PASS, PASSES, PATH, PENDING, REFLECT, T, TAIL, TAU, W, Z, advance } from "./rayState.js";
+import { ANALOG_PATH, BULK, DIED, DZ, ENTERED_W, ESCAPED, EVENTS, FACE, FREE_PATH, HIT, INCIDENT, L_COS_P, L_SIN_P, MAX_PASS, PASSES, PATH, PENDING, RAY_INDEX, REFLECT, T, TAIL, TAU, W, Z, advance } from "./rayState.js";
 import { frontSearch, planarRearSearch, pyramidSearch } from "./surfaceSearch.js";
 import { depositPoint } from "./depthTally.js";
 import { MAX_PASSES } from "./tallyLayout.js";
 import { analogInterfaceEvent } from "./analogInterfaceEvent.js";
 import { idealRear } from "./idealSurfaces.js";
-import { FACE_FRONT, FACE_REAR, leaveFront, rearExitChannel } from "./history.js";
+import { FACE_FRONT, FACE_NONE, FACE_REAR, leaveFront, rearExitChannel } from "./history.js";
+import { launchRay } from "./launch.js";
+import type { LaunchPoints } from "./launchPoints.js";
+import { cosSinOfTurn } from "./turnTrig.js";
+import { foldRay } from "./rayFold.js";
 
 /**
  * The ray loop of an analog batch on a bare cell: the incidence medium straight on the front texture
@@ -35,7 +39,29 @@ export function analogCellEligible(cs: CompiledStack): boolean {
   );
 }
 
-export const RAY_LOST = -2;
+const RAY_LOST = -2;
+
+/**
+ * Traces nRays analog rays of front light through the bare cell and folds them into the tally as
+ * traceBatch does (kernel.ts, the caller, has checked the arguments and set the batch's direction);
+ * sums gets [events, Σp, Σp²]. The history the general loop resets per ray (resetHistory) is the
+ * ray loop's locals; only the incidence face and the survival factor are the batch's.
+ */
+export function traceAnalogCellRays(cs: CompiledStack, nRays: number, rng: RandomStream, tally: Float64Array, polMode: number, launch: LaunchPoints | null, randomAzimuth: boolean, sums: Float64Array): void {
+  const st = cs.state;
+  const u = launch === null ? null : launch.u;
+  st[INCIDENT] = FACE_FRONT;
+  st[BULK] = 1;
+  for (let r = 0; r < nRays; r++) {
+    rng.startSubstream(r);
+    st[RAY_INDEX] = r;
+    if (launch !== null) launch.load(r);
+    if (randomAzimuth) cosSinOfTurn(st, u === null ? rng.next() : u[3], L_COS_P, L_SIN_P);
+    launchRay(cs, polMode, rng, false, u);
+    if (traceAnalogCellRay(cs, st, rng) === RAY_LOST) cs.contrib[cs.chUnresolved] += st[W];
+    foldRay(cs, tally, sums);
+  }
+}
 
 /**
  * Follows one launched analog ray to its end (its channel, history and events in the state, as
@@ -45,7 +71,7 @@ export const RAY_LOST = -2;
  * arithmetic and its order are those of absorbAnalog and history.ts, so the tallies are theirs bit
  * for bit.
  */
-export function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
+function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
   const maxEvents = cs.maxEvents;
   const mirrorRear = cs.rearKind === REAR_IDEAL_MIRROR || cs.rearKind === REAR_IDEAL_LAMBERTIAN;
   const alphaAbove = cs.mediumAlphaPerUm[0];
@@ -57,14 +83,17 @@ export function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: Ran
   const w = st[W];
   let tau = st[TAU];
   let path = st[PATH];
-  let analogPath = st[ANALOG_PATH];
-  let freePath = st[FREE_PATH];
-  let passes = st[PASSES];
-  let face = st[FACE];
-  let pending = st[PENDING] !== 0;
-  let tail = st[TAIL];
-  let maxPass = st[MAX_PASS];
-  let entered = st[ENTERED_W];
+  // A new ray's history (history.ts, resetHistory): no pass, no face, nothing entered.
+  let analogPath = 0;
+  let freePath = 0;
+  let passes = 0;
+  st[PASSES] = 0;
+  st[ESCAPED] = 0;
+  let face = FACE_NONE;
+  let pending = false;
+  let tail = 0;
+  let maxPass = 0;
+  let entered = 0;
   let events = 0;
   let inAbsorber = false;
   let result = 0;
@@ -128,7 +157,8 @@ export function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: Ran
         path += w * lenUm;
         analogPath += lenUm;
       } else {
-        freePath += (w / st[BULK]) * lenUm;
+        // α = 0 (bulkTransport.ts, clearStretch; w / BULK is w).
+        freePath += w * lenUm;
         path += w * lenUm;
       }
     } else if (alphaAbove > 0) {
@@ -173,10 +203,13 @@ export function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: Ran
     }
     inAbsorber = !inAbsorber;
   }
+  // The α → 0 path of the analog path (bulkTransport.ts, endAnalogPath; no expected-value
+  // stretch here, so the survival factor BULK is 1 and w / BULK is w).
+  if (analogPath !== 0) freePath += w * (Math.expm1(alphaAbs * analogPath) / alphaAbs);
   st[EVENTS] = events;
   st[TAU] = tau;
   st[PATH] = path;
-  st[ANALOG_PATH] = analogPath;
+  st[ANALOG_PATH] = 0;
   st[FREE_PATH] = freePath;
   st[FACE] = face;
   st[PENDING] = pending ? 1 : 0;

@@ -3,7 +3,7 @@ import type { RandomStream } from "../random/stream.js";
 import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
 import { SURFACE_LAMBERTIAN, SURFACE_MESH } from "../geometry/surfaceTile.js";
 import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack, type Estimator } from "./compiledStack.js";
-import { BATCH_ANALOG, BRANCH_SERIAL, BRANCHES, DIED, DZ, ENTERED, EVENTS, FACE, HIT, L_COS_P, L_SIN_P, PATH, RAY_INDEX, SPLIT, T, TRANSMIT, W, Z, advance, setNormal } from "./rayState.js";
+import { BATCH_ANALOG, BRANCH_SERIAL, BRANCHES, DIED, DZ, ENTERED, EVENTS, FACE, HIT, L_COS_P, L_SIN_P, RAY_INDEX, SPLIT, T, TRANSMIT, W, Z, advance, setNormal } from "./rayState.js";
 import { popBranch, setBranchMedium } from "./branches.js";
 import { cosSinOfTurn } from "./turnTrig.js";
 import { launchRay, polarizationMode, setLaunchAngles, setLaunchAzimuth, type Polarization } from "./launch.js";
@@ -12,7 +12,7 @@ import { frontSearch, outerSearch, planarRearSearch, rearSearch, rearSearchFromB
 import { absorbAlong, endAnalogPath } from "./bulkTransport.js";
 import { interfaceEvent } from "./interfaceEvent.js";
 import { backsheetEvent, idealRear, lambertianDirection, lambertianFrontFromBelow, randomPolarization } from "./idealSurfaces.js";
-import { foldBatchTotals, foldRayContributions, tallyLengthOf } from "./tally.js";
+import { foldBatchTotals, tallyLengthOf } from "./tally.js";
 import { DIAG_LENGTH, diagOffset } from "./tallyLayout.js";
 import {
   FACE_FRONT,
@@ -20,13 +20,12 @@ import {
   arriveAtFace,
   departFace,
   enterAbsorber,
-  foldHistory,
   leaveFront,
   rearExitChannel,
   resetHistory,
 } from "./history.js";
-import { foldDepth } from "./depthTally.js";
-import { RAY_LOST as RAY_LOST_CELL, traceAnalogCellRay } from "./analogCell.js";
+import { traceAnalogCellRays } from "./analogCell.js";
+import { foldRay } from "./rayFold.js";
 
 export type { Polarization } from "./launch.js";
 
@@ -75,8 +74,6 @@ export function traceBatch(
   if (tally.length < need) throw new RangeError(`tally has ${tally.length} entries, needs ${need}`);
   const diagAt = diagOffset(nC);
   cs.diag = tally.subarray(diagAt, diagAt + DIAG_LENGTH);
-  const depthAt = diagAt + DIAG_LENGTH;
-  const withDepth = cs.depthEdgesUm !== null;
   const fromRear = side === "rear";
   if (fromRear && cs.rearOpaque) {
     throw new InputError(`illumination: light from the rear needs a transparent rear; this stack ends in a reflector, a metal or a back-sheet`, 'trace from the front, or give the stack a transparent rear ("rearOuter": "air")');
@@ -84,36 +81,26 @@ export function traceBatch(
   const startMedium = fromRear ? cs.outerMedium : 0;
   const polMode = polarizationMode(polarization);
   const st = cs.state;
-  const invW = 1 / cs.thicknessUm;
-  // Batch sums [events, Σp, Σp²] in a typed array: doubles carried from ray to ray in locals across
-  // the calls below were boxed (two numbers allocated per ray).
+  // Batch sums [events, Σp, Σp²] (rayFold.ts).
   const sums = new Float64Array(3);
   st[BATCH_ANALOG] = estimatorAt(cs, thetaDeg) === "analog" ? 1 : 0;
   setLaunchAngles(st, Math.sin(thetaDeg * DEG), Math.cos(thetaDeg * DEG));
   if (phiDeg !== null) setLaunchAzimuth(st, phiDeg * DEG);
-  const u = launch === null ? null : launch.u;
-  const cellLoop = st[BATCH_ANALOG] !== 0 && !fromRear && cs.analogCellLoop;
-  for (let r = 0; r < nRays; r++) {
-    // One substream per ray: rays stay paired across stacks traced with the same stream (CRN).
-    rng.startSubstream(r);
-    st[RAY_INDEX] = r;
-    if (launch !== null) launch.load(r);
-    if (phiDeg === null) cosSinOfTurn(st, u === null ? rng.next() : u[3], L_COS_P, L_SIN_P);
-    launchRay(cs, polMode, rng, fromRear, u);
-    resetHistory(st, fromRear ? FACE_REAR : FACE_FRONT);
-    if (cellLoop) {
-      if (traceAnalogCellRay(cs, st, rng) === RAY_LOST_CELL) cs.contrib[cs.chUnresolved] += st[W];
-      endAnalogPath(cs, st);
-    } else {
+  if (st[BATCH_ANALOG] !== 0 && !fromRear && cs.analogCellLoop) {
+    traceAnalogCellRays(cs, nRays, rng, tally, polMode, launch, phiDeg === null, sums);
+  } else {
+    const u = launch === null ? null : launch.u;
+    for (let r = 0; r < nRays; r++) {
+      // One substream per ray: rays stay paired across stacks traced with the same stream (CRN).
+      rng.startSubstream(r);
+      st[RAY_INDEX] = r;
+      if (launch !== null) launch.load(r);
+      if (phiDeg === null) cosSinOfTurn(st, u === null ? rng.next() : u[3], L_COS_P, L_SIN_P);
+      launchRay(cs, polMode, rng, fromRear, u);
+      resetHistory(st, fromRear ? FACE_REAR : FACE_FRONT);
       traceRay(cs, rng, startMedium);
+      foldRay(cs, tally, sums);
     }
-    sums[0] += st[EVENTS];
-    foldHistory(cs, st);
-    foldRayContributions(cs.contrib, nC, tally);
-    if (withDepth) foldDepth(cs, tally, depthAt);
-    const p = st[PATH] * invW;
-    sums[1] += p;
-    sums[2] += p * p;
   }
   foldBatchTotals(tally, nC, nRays, sums[1], sums[2], sums[0]);
 }

@@ -1,0 +1,23 @@
+import type { CompiledStack } from "./compiledStack.js";
+import { EVENTS, PATH } from "./rayState.js";
+import { foldRayContributions } from "./tally.js";
+import { DIAG_LENGTH, diagOffset } from "./tallyLayout.js";
+import { foldHistory } from "./history.js";
+import { foldDepth } from "./depthTally.js";
+
+/**
+ * A finished ray into the point tally (docs/contracts.md, Tracer): its history (passes, escape
+ * angles, α → 0 path), its channel contributions and their squares, its depth deposits; sums gets
+ * [events, Σp, Σp²] with p its optical path in the absorber over the absorber's thickness (batch
+ * sums kept in a typed array: doubles carried from ray to ray in locals across calls were boxed).
+ */
+export function foldRay(cs: CompiledStack, tally: Float64Array, sums: Float64Array): void {
+  const st = cs.state;
+  sums[0] += st[EVENTS];
+  foldHistory(cs, st);
+  foldRayContributions(cs.contrib, cs.nChannels, tally);
+  if (cs.depthEdgesUm !== null) foldDepth(cs, tally, diagOffset(cs.nChannels) + DIAG_LENGTH);
+  const p = st[PATH] * (1 / cs.thicknessUm);
+  sums[1] += p;
+  sums[2] += p * p;
+}
