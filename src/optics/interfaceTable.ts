@@ -201,16 +201,23 @@ export function lookupInterface(table: InterfaceTable, dirFlag: number, cosTheta
 /**
  * Rs, Rp, Ts, Tp (and the films' absorptances; `count` entries) at cosθ for direction dirFlag into
  * out[off …]: for a plain direction (no films, lossless exit) the Fresnel result itself, which is what
- * the table samples there, else the interpolated row (lookupInterface). Real indices n1 → n2:
- * rs = (n1c1 − n2c2)/(n1c1 + n2c2), rp = (n2c1 − n1c2)/(n2c1 + n1c2), R = r², T = 1 − R (Born & Wolf,
- * Principles of Optics §1.5.2); beyond the critical angle R = 1.
+ * the table samples there (plainPowers), else the interpolated row (lookupInterface).
  */
 export function interfacePowers(table: InterfaceTable, dirFlag: number, cosTheta: number, out: Float64Array, off = 0, count = table.stride): void {
   const up = dirFlag !== 0;
-  if (!(up ? table.plainUp : table.plainDown)) {
-    lookupInterface(table, dirFlag, cosTheta, out, off, count);
-    return;
-  }
+  if (up ? table.plainUp : table.plainDown) plainPowers(table, up, cosTheta, out, off);
+  else lookupInterface(table, dirFlag, cosTheta, out, off, count);
+}
+
+/**
+ * Rs, Rp, Ts, Tp at cosθ of a plain direction (up: from the lower medium) into out[off …]. Real
+ * indices n1 → n2: rs = (n1c1 − n2c2)/(n1c1 + n2c2), rp = (n2c1 − n1c2)/(n2c1 + n1c2), R = r²,
+ * T = 1 − R (Born & Wolf, Principles of Optics §1.5.2); beyond the critical angle R = 1. A function
+ * of its own, calling nothing, so the analog event inlines it whatever else interfacePowers has
+ * been asked for in the process (with the table lookup inlined into it, interfacePowers no longer
+ * fitted the analog event's inlining budget).
+ */
+export function plainPowers(table: InterfaceTable, up: boolean, cosTheta: number, out: Float64Array, off: number): void {
   const n1 = up ? table.nLower : table.nUpper;
   const n2 = up ? table.nUpper : table.nLower;
   const c1 = cosTheta < 0 ? 0 : cosTheta > 1 ? 1 : cosTheta;

@@ -7,7 +7,7 @@ import { frontSearch, planarRearSearch, pyramidSearch } from "./surfaceSearch.js
 import { depositPoint } from "./depthTally.js";
 import { MAX_PASSES } from "./tallyLayout.js";
 import { analogInterfaceEvent } from "./analogInterfaceEvent.js";
-import { idealRear } from "./idealSurfaces.js";
+import { idealRearAnalog } from "./idealSurfaces.js";
 import { FACE_FRONT, FACE_NONE, FACE_REAR, leaveFront, rearExitChannel } from "./history.js";
 import { launchRay } from "./launch.js";
 import type { LaunchPoints } from "./launchPoints.js";
@@ -181,7 +181,7 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
       }
     }
     if (atRear && mirrorRear) {
-      if (idealRear(cs, st, rng)) break;
+      if (idealRearAnalog(cs, st, rng)) break;
       continue;
     }
     const out = analogInterfaceEvent(cs, st, atRear ? (cs.rear as CompiledInterface) : cs.front, rng);

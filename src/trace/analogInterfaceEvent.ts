@@ -1,5 +1,5 @@
 import type { RandomStream } from "../random/stream.js";
-import { interfacePowers, lookupInterface } from "../optics/interfaceTable.js";
+import { lookupInterface, plainPowers } from "../optics/interfaceTable.js";
 import type { CompiledInterface, CompiledStack } from "./compiledStack.js";
 import { DIED, DX, DY, DZ, EX, EY, EZ, NX, NY, NZ, REFLECT, TRANSMIT, W } from "./rayState.js";
 import { rearExitChannel } from "./history.js";
@@ -23,7 +23,9 @@ export function analogInterfaceEvent(cs: CompiledStack, st: Float64Array, iface:
   const up = dn > 0;
   const cosI = up ? dn : -dn;
   const row = cs.scratchRow;
-  interfacePowers(iface.table, up ? 1 : 0, cosI, row, 0, 4);
+  const table = iface.table;
+  if (up ? table.plainUp : table.plainDown) plainPowers(table, up, cosI, row, 0);
+  else lookupInterface(table, up ? 1 : 0, cosI, row, 0, 4);
   // s = d × N (normalised), p_i = s × d.
   let sx = dy * nz - dz * ny;
   let sy = dz * nx - dx * nz;
