@@ -264,6 +264,10 @@ export function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: bo
   const tdu = tanA * du;
   const tdv = tanA * dv;
   const b0 = dz + tdu, b1 = dz - tdu, b2 = dz + tdv, b3 = dz - tdv;
+  // A ray leaving the texture faster than any facet can follow it never meets it: from below every
+  // plane falls along the ray (no b_k > 0, so no footprint has an exit tHi), from above every plane
+  // rises (no entry tLo). The walk would end at tLimit with nothing found; skip it.
+  if (!mustHit && (below ? b0 <= 0 && b1 <= 0 && b2 <= 0 && b3 <= 0 : b0 >= 0 && b1 >= 0 && b2 >= 0 && b3 >= 0)) return NO_HIT;
   const i0 = -1 / b0, i1 = -1 / b1, i2 = -1 / b2, i3 = -1 / b3;
   const zH = oz - tile.pyramidHeightUm;
   let tA = 0;
