@@ -10,6 +10,12 @@ import { cosSinOfTurn } from "./turnTrig.js";
  */
 export function idealRear(cs: CompiledStack, st: Float64Array, rng: RandomStream): boolean {
   if (absorbAtReflector(cs, st, rng, false)) return true;
+  leaveIdealRear(cs, st, rng);
+  return false;
+}
+
+/** The reflected ray's way back from the ideal rear: specular (mirror) or Lambertian. */
+function leaveIdealRear(cs: CompiledStack, st: Float64Array, rng: RandomStream): void {
   if (cs.rearKind === REAR_IDEAL_MIRROR) {
     // Specular at a horizontal plane: z flips; the polarisation keeps its line (r_s = r_p).
     st[DZ] = -st[DZ];
@@ -18,7 +24,6 @@ export function idealRear(cs: CompiledStack, st: Float64Array, rng: RandomStream
     lambertianDirection(st, 1, rng);
     randomPolarization(st, rng);
   }
-  return false;
 }
 
 /**
@@ -33,13 +38,7 @@ export function idealRearAnalog(cs: CompiledStack, st: Float64Array, rng: Random
     cs.contrib[cs.chRear] += st[W];
     return true;
   }
-  if (cs.rearKind === REAR_IDEAL_MIRROR) {
-    st[DZ] = -st[DZ];
-    st[EZ] = -st[EZ];
-  } else {
-    lambertianDirection(st, 1, rng);
-    randomPolarization(st, rng);
-  }
+  leaveIdealRear(cs, st, rng);
   return false;
 }
 
