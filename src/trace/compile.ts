@@ -184,6 +184,7 @@ export function compileStack(
     rearTile,
     rearReflectance,
     thicknessUm,
+    invThicknessUm: 1 / thicknessUm,
     chRFirst: ch(CH_R_FIRST),
     chREscape: ch(CH_R_ESCAPE),
     chTFirst: ch(CH_T_FIRST),

@@ -59,6 +59,8 @@ export interface CompiledStack {
   rearTile: SurfaceTile;
   rearReflectance: number;
   thicknessUm: number;
+  /** 1 / thicknessUm: the per-ray folds scale paths by it (no division per ray). */
+  invThicknessUm: number;
   /** Rear layers, their bottom planes (z, µm) and the planar interfaces there (the last one null for a back-sheet). */
   nRear: number;
   rearBottomZUm: Float64Array;

@@ -126,8 +126,8 @@ export function leaveFront(cs: CompiledStack, st: Float64Array): void {
  * before its channel contributions are folded (it reads the R and T totals from them).
  */
 export function foldHistory(cs: CompiledStack, st: Float64Array): void {
-  // The thickness's inverse here, not as an argument: a double passed to code that is not inlined is boxed.
-  const invThicknessUm = 1 / cs.thicknessUm;
+  // The thickness's inverse from the stack, not as an argument: a double passed to code that is not inlined is boxed.
+  const invThicknessUm = cs.invThicknessUm;
   const d = cs.diag;
   const c = cs.contrib;
   const r = c[cs.chRFirst] + c[cs.chREscape];

@@ -17,7 +17,7 @@ export function foldRay(cs: CompiledStack, tally: Float64Array, sums: Float64Arr
   foldHistory(cs, st);
   foldRayContributions(cs.contrib, cs.nChannels, tally);
   if (cs.depthEdgesUm !== null) foldDepth(cs, tally, diagOffset(cs.nChannels) + DIAG_LENGTH);
-  const p = st[PATH] * (1 / cs.thicknessUm);
+  const p = st[PATH] * cs.invThicknessUm;
   sums[1] += p;
   sums[2] += p * p;
 }
