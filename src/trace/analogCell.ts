@@ -2,7 +2,7 @@ import type { RandomStream } from "../random/stream.js";
 import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
 import { SURFACE_LAMBERTIAN, SURFACE_PLANAR } from "../geometry/surfaceTile.js";
 import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
-import { ANALOG_PATH, BULK, DIED, DZ, ENTERED_W, ESCAPED, EVENTS, FACE, FREE_PATH, HIT, INCIDENT, L_COS_P, L_SIN_P, MAX_PASS, PASSES, PATH, PENDING, RAY_INDEX, REFLECT, T, TAIL, TAU, W, Z, advance } from "./rayState.js";
+import { ANALOG_PATH, BUDGET_U, BULK, DIED, DZ, ENTERED_W, ESCAPED, EVENTS, FACE, FREE_PATH, HIT, INCIDENT, L_COS_P, L_SIN_P, MAX_PASS, PASSES, PATH, PENDING, RAY_INDEX, REFLECT, T, TAIL, TAU, W, Z, advance } from "./rayState.js";
 import { frontSearch, planarRearSearch, pyramidSearch } from "./surfaceSearch.js";
 import { depositPoint } from "./depthTally.js";
 import { MAX_PASSES } from "./tallyLayout.js";
@@ -13,6 +13,7 @@ import { launchRay } from "./launch.js";
 import type { LaunchPoints } from "./launchPoints.js";
 import { cosSinOfTurn } from "./turnTrig.js";
 import { foldRay } from "./rayFold.js";
+import { budgetFreePath } from "./bulkTransport.js";
 
 /**
  * The ray loop of an analog batch on a bare cell: the incidence medium straight on the front texture
@@ -82,6 +83,7 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
   // An analog ray keeps its weight from launch to end.
   const w = st[W];
   let tau = st[TAU];
+  let budgetU = st[BUDGET_U];
   let path = st[PATH];
   // A new ray's history (history.ts, resetHistory): no pass, no face, nothing entered.
   let analogPath = 0;
@@ -96,6 +98,7 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
   let entered = 0;
   let events = 0;
   let inAbsorber = false;
+  let absorbedWhole = false;
   let result = 0;
   for (;;) {
     if (events >= maxEvents) {
@@ -151,6 +154,7 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
           analogPath += s;
           if (cs.depthEdgesUm !== null) depositPoint(cs, w, st[Z], s, st[DZ]);
           cs.contrib[cs.mediumChan[1]] += w;
+          absorbedWhole = budgetU > 0;
           break;
         }
         tau -= od;
@@ -168,6 +172,7 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
         break;
       }
       tau -= od;
+      budgetU = 0;
     }
     advance(st);
     events++;
@@ -203,11 +208,13 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
     }
     inAbsorber = !inAbsorber;
   }
-  // The α → 0 path of the analog path (bulkTransport.ts, endAnalogPath; no expected-value
-  // stretch here, so the survival factor BULK is 1 and w / BULK is w).
-  if (analogPath !== 0) freePath += w * (Math.expm1(alphaAbs * analogPath) / alphaAbs);
+  // The α → 0 path of the analog path (bulkTransport.ts, absorbedInStretch and endAnalogPath; no
+  // expected-value stretch here, so the survival factor BULK is 1 and w / BULK is w).
+  if (absorbedWhole) freePath += w * budgetFreePath(budgetU, alphaAbs);
+  else if (analogPath !== 0) freePath += w * (Math.expm1(alphaAbs * analogPath) / alphaAbs);
   st[EVENTS] = events;
   st[TAU] = tau;
+  st[BUDGET_U] = budgetU;
   st[PATH] = path;
   st[ANALOG_PATH] = 0;
   st[FREE_PATH] = freePath;

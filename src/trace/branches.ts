@@ -1,6 +1,6 @@
 import type { RandomStream } from "../random/stream.js";
 import type { CompiledStack } from "./compiledStack.js";
-import { BULK, FACE, PASSES, PENDING, ANALOG, BRANCH_SERIAL, BRANCHES, DX, ENTERED, DY, DZ, EX, EY, EZ, RAY_INDEX, TAU, W, X, Y, Z } from "./rayState.js";
+import { BUDGET_U, BULK, FACE, PASSES, PENDING, ANALOG, BRANCH_SERIAL, BRANCHES, DX, ENTERED, DY, DZ, EX, EY, EZ, RAY_INDEX, TAU, W, X, Y, Z } from "./rayState.js";
 
 /**
  * Pending branches of the ray in flight. In expected-value mode an interface event may split the
@@ -75,6 +75,8 @@ export function popBranch(cs: CompiledStack, st: Float64Array, rng: RandomStream
   st[W] = b[o + 9];
   st[TAU] = b[o + 10];
   st[ANALOG] = b[o + 11];
+  // A resumed budget may have been spent in part before the split (bulkTransport.ts, budgetFreePath).
+  st[BUDGET_U] = 0;
   st[BRANCHES] = n - 1;
   // the branch resumes the history it had at the split (history.ts)
   st[ENTERED] = b[o + B_HISTORY];

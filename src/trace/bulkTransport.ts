@@ -1,6 +1,6 @@
 import type { RandomStream } from "../random/stream.js";
 import type { CompiledStack } from "./compiledStack.js";
-import { ANALOG, ANALOG_PATH, BULK, DZ, FREE_PATH, PATH, T, TAU, W, Z } from "./rayState.js";
+import { ANALOG, ANALOG_PATH, BUDGET_U, BULK, DZ, FREE_PATH, PATH, T, TAU, W, Z } from "./rayState.js";
 import { depositPoint, depositSegment } from "./depthTally.js";
 
 /**
@@ -28,8 +28,7 @@ function expectedStretch(cs: CompiledStack, st: Float64Array, m: number, rng: Ra
   const w = st[W];
   const att = Math.exp(-alpha * lenUm);
   if (w * att < cs.rouletteWeight) {
-    st[ANALOG] = 1;
-    st[TAU] = -Math.log(rng.next());
+    drawBudget(st, rng);
     return false;
   }
   const dep = w - w * att;
@@ -70,7 +69,7 @@ export function absorbAnalog(cs: CompiledStack, st: Float64Array, m: number): bo
   if (m === cs.nLayers + 1) {
     st[PATH] += st[W] * lenUm;
     st[ANALOG_PATH] += lenUm;
-  }
+  } else st[BUDGET_U] = 0;
   return false;
 }
 
@@ -87,10 +86,16 @@ function clearStretch(cs: CompiledStack, st: Float64Array, m: number): void {
 function absorbedInStretch(cs: CompiledStack, st: Float64Array, m: number): void {
   const w = st[W];
   if (m === cs.nLayers + 1) {
-    const s = st[TAU] / cs.mediumAlphaPerUm[m];
+    const alpha = cs.mediumAlphaPerUm[m];
+    const s = st[TAU] / alpha;
     st[PATH] += w * s;
-    st[ANALOG_PATH] += s;
     if (cs.depthEdgesUm !== null) depositPoint(cs, w, st[Z], s, st[DZ]);
+    const u = st[BUDGET_U];
+    if (u > 0) {
+      // The whole budget went in the absorber: its α → 0 path without an exponential (endAnalogPath).
+      st[FREE_PATH] += (w / st[BULK]) * budgetFreePath(u, alpha);
+      st[ANALOG_PATH] = 0;
+    } else st[ANALOG_PATH] += s;
   }
   cs.contrib[cs.mediumChan[m]] += w;
 }
@@ -111,10 +116,26 @@ export function endAnalogPath(cs: CompiledStack, st: Float64Array): void {
   st[FREE_PATH] += (st[W] / st[BULK]) * (Math.expm1(alpha * lenUm) / alpha);
 }
 
+/**
+ * (e^{αL} − 1)/α for a ray absorbed in the absorber after an analog path L there that used up its
+ * whole budget −ln u (αL = −ln u, so e^{αL} = 1/u): the term endAnalogPath would add, without the
+ * exponential and without the rounding the budget's running difference and the summed path carry.
+ */
+export function budgetFreePath(u: number, alphaPerUm: number): number {
+  return (1 - u) / (u * alphaPerUm);
+}
+
+/** The ray turns analog: a fresh optical-depth budget −ln u. */
+function drawBudget(st: Float64Array, rng: RandomStream): void {
+  const u = rng.next();
+  st[ANALOG] = 1;
+  st[TAU] = -Math.log(u);
+  st[BUDGET_U] = u;
+}
+
 /** Expected-value mode: turn analog once the weight is small (see absorbAlong). */
 export function rouletteCheck(cs: CompiledStack, st: Float64Array, rng: RandomStream): void {
   if (st[ANALOG] === 0 && st[W] < cs.rouletteWeight) {
-    st[ANALOG] = 1;
-    st[TAU] = -Math.log(rng.next());
+    drawBudget(st, rng);
   }
 }

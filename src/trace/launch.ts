@@ -1,6 +1,6 @@
 import type { RandomStream } from "../random/stream.js";
 import type { CompiledStack } from "./compiledStack.js";
-import { BATCH_ANALOG, ANALOG, DX, DY, DZ, EX, EY, EZ, L_COS_P, L_COS_T, L_SIN_P, L_SIN_T, PA, PATH, PB, TAU, W, X, Y, Z } from "./rayState.js";
+import { BATCH_ANALOG, ANALOG, BUDGET_U, DX, DY, DZ, EX, EY, EZ, L_COS_P, L_COS_T, L_SIN_P, L_SIN_T, PA, PATH, PB, TAU, W, X, Y, Z } from "./rayState.js";
 import { cosSinOfTurn } from "./turnTrig.js";
 
 /** Polarisation of the incident light: s/p relative to the macroscopic plane of incidence (z, d). */
@@ -74,5 +74,6 @@ export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream,
   const uTau = draws[3];
   const analog = st[BATCH_ANALOG] !== 0;
   st[TAU] = analog ? -Math.log(uTau) : 0;
+  st[BUDGET_U] = analog ? uTau : 0;
   st[ANALOG] = analog ? 1 : 0;
 }

@@ -30,8 +30,14 @@ export const PASSES = 33, FACE = 34, ENTERED_W = 35, FREE_PATH = 36, BULK = 37, 
 export const BATCH_ANALOG = 43;
 /** Absorber path travelled in analog mode whose α → 0 share is not yet in FREE_PATH (bulkTransport.ts, endAnalogPath). */
 export const ANALOG_PATH = 44;
+/**
+ * The uniform u of the ray's optical-depth budget −ln u while none of it has been spent outside the
+ * absorber since it was drawn (bulkTransport.ts, budgetFreePath); 0 when it has, or for a budget a
+ * branch resumed.
+ */
+export const BUDGET_U = 45;
 /** Number of state slots. */
-export const STATE_LENGTH = 45;
+export const STATE_LENGTH = 46;
 
 /** Search result: a hit, its distance in st[T] (NO_HIT and LOST come from the geometry). */
 export const HIT = 0;
