@@ -12,7 +12,7 @@ import { FACE_FRONT, FACE_NONE, FACE_REAR, leaveFront, rearExitChannel } from ".
 import { launchRay } from "./launch.js";
 import type { LaunchPoints } from "./launchPoints.js";
 import { cosSinOfTurn } from "./turnTrig.js";
-import { foldRay } from "./rayFold.js";
+import { flushAnalogCellCounts, foldAnalogCellRay } from "./cellFold.js";
 import { budgetFreePath } from "./bulkTransport.js";
 
 /**
@@ -46,13 +46,17 @@ const RAY_LOST = -2;
  * Traces nRays analog rays of front light through the bare cell and folds them into the tally as
  * traceBatch does (kernel.ts, the caller, has checked the arguments and set the batch's direction);
  * sums gets [events, Σp, Σp²]. The history the general loop resets per ray (resetHistory) is the
- * ray loop's locals; only the incidence face and the survival factor are the batch's.
+ * ray loop's locals; only the incidence face and the survival factor are the batch's. The rays'
+ * whole counts go into the tally at the batch's end (cellFold.ts).
  */
 export function traceAnalogCellRays(cs: CompiledStack, nRays: number, rng: RandomStream, tally: Float64Array, polMode: number, launch: LaunchPoints | null, randomAzimuth: boolean, sums: Float64Array): void {
   const st = cs.state;
   const u = launch === null ? null : launch.u;
   st[INCIDENT] = FACE_FRONT;
   st[BULK] = 1;
+  // Rays that entered the absorber, and the highest pass any ray ended (small integers, not boxed).
+  let entered = 0;
+  let maxPass = 0;
   for (let r = 0; r < nRays; r++) {
     rng.startSubstream(r);
     st[RAY_INDEX] = r;
@@ -60,8 +64,12 @@ export function traceAnalogCellRays(cs: CompiledStack, nRays: number, rng: Rando
     if (randomAzimuth) cosSinOfTurn(st, u === null ? rng.next() : u[3], L_COS_P, L_SIN_P);
     launchRay(cs, polMode, rng, false, u);
     if (traceAnalogCellRay(cs, st, rng) === RAY_LOST) cs.contrib[cs.chUnresolved] += st[W];
-    foldRay(cs, tally, sums);
+    foldAnalogCellRay(cs, st, tally, sums);
+    entered += st[ENTERED_W] | 0;
+    const mp = st[MAX_PASS] | 0;
+    if (mp > maxPass) maxPass = mp;
   }
+  flushAnalogCellCounts(cs, tally, entered, maxPass);
 }
 
 /**

@@ -55,6 +55,20 @@ describe("bare-cell analog loop", () => {
     });
   }
 
+  // The loop adds its rays' whole counts (channels, passes, escape angles) to the tally once per
+  // batch (cellFold.ts): several batches into one tally, and a depth grid, still give the general
+  // loop's tally to the last bit.
+  it("several batches into one tally, with a depth grid: bit-identical to the general loop", () => {
+    const run = (cellLoop: boolean, wl: number): Buffer => {
+      const cs = compileStack(cells["upright pyramids, ARC, ideal mirror"], registry, wl, { estimator: "analog", depthEdgesUm: [0, 1, 3, 10, 30, 180] });
+      cs.analogCellLoop = cellLoop;
+      const tally = createTally(cs);
+      for (let b = 0; b < 4; b++) traceBatch(cs, 10 * b, b === 2 ? null : 0, 700, new RandomStream(streamKey(5, wl, b)), tally);
+      return Buffer.from(tally.buffer);
+    };
+    for (const wl of [600, 1150]) expect(run(true, wl).equals(run(false, wl))).toBe(true);
+  });
+
   it("is not taken for modules, meshes, randomisers, rear textures or the expected-value estimator", () => {
     const module = stackOf({
       layers: [{ name: "glass", material: "glass", thicknessUm: 3200, topFilms: [] }],
