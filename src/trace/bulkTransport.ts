@@ -1,5 +1,5 @@
 import type { RandomStream } from "../random/stream.js";
-import type { CompiledStack } from "./compiledStack.js";
+import { ROULETTE_WEIGHT, type CompiledStack } from "./compiledStack.js";
 import { ANALOG, ANALOG_PATH, BUDGET_U, BULK, DZ, FREE_PATH, PATH, T, TAU, W, Z } from "./rayState.js";
 import { depositPoint, depositSegment } from "./depthTally.js";
 
@@ -27,7 +27,7 @@ function expectedStretch(cs: CompiledStack, st: Float64Array, m: number, rng: Ra
   const alpha = cs.mediumAlphaPerUm[m];
   const w = st[W];
   const att = Math.exp(-alpha * lenUm);
-  if (w * att < cs.rouletteWeight) {
+  if (w * att < cs.estimatorSettings[ROULETTE_WEIGHT]) {
     drawBudget(st, rng);
     return false;
   }
@@ -135,7 +135,7 @@ function drawBudget(st: Float64Array, rng: RandomStream): void {
 
 /** Expected-value mode: turn analog once the weight is small (see absorbAlong). */
 export function rouletteCheck(cs: CompiledStack, st: Float64Array, rng: RandomStream): void {
-  if (st[ANALOG] === 0 && st[W] < cs.rouletteWeight) {
+  if (st[ANALOG] === 0 && st[W] < cs.estimatorSettings[ROULETTE_WEIGHT]) {
     drawBudget(st, rng);
   }
 }

@@ -23,6 +23,22 @@ export interface CompiledInterface {
 }
 
 /**
+ * Slots of CompiledStack.estimatorSettings. A typed array, not four number fields: these numbers
+ * change from wavelength to wavelength of one stack (estimatorChoice.ts), and a field that first
+ * held only whole numbers (0, 70) becomes a double field when a later stack stores 0.001 or
+ * Infinity; V8 then drops the optimised code of every function that reads a compiled stack (a
+ * bench run's analog rays at 1150 nm ran 8 % slower after it, 2026-12-05).
+ */
+/** From this polar angle of incidence on, an expected-value stack's default traces analog (estimatorChoice.ts); Infinity = never. */
+export const ANALOG_FROM_THETA_DEG = 0;
+/** Expected-value mode: below this weight a ray continues with analog absorption. */
+export const ROULETTE_WEIGHT = 1;
+/** Expected-value mode: least weight of both parts for an interface event to split the ray on its way in (0 = never). */
+export const SPLIT_MIN_WEIGHT = 2;
+/** The same for the escape split at the incidence face from inside. */
+export const ESCAPE_SPLIT_MIN_WEIGHT = 3;
+
+/**
  * A stack ready for tracing at one wavelength. Media are numbered from the incidence side:
  * 0 = incidence medium, 1..nLayers = thick layers, nLayers + 1 = absorber, then the rear layers
  * (nLayers + 2 …) and last the medium behind the rear (`outerMedium`: the rear exit medium, or what
@@ -83,14 +99,9 @@ export interface CompiledStack {
   chRear: number;
   chUnresolved: number;
   estimator: Estimator;
-  /** From this polar angle of incidence on, an expected-value stack's default traces analog (estimatorChoice.ts); Infinity = never. */
-  analogFromThetaDeg: number;
-  /** Expected-value mode: below this weight a ray continues with analog absorption. */
-  rouletteWeight: number;
+  /** The estimator's numbers, slots ANALOG_FROM_THETA_DEG … ESCAPE_SPLIT_MIN_WEIGHT (see there). */
+  estimatorSettings: Float64Array;
   maxEvents: number;
-  /** Expected-value mode: least weight of both parts for an interface event to split the ray (0 = never). */
-  splitMinWeight: number;
-  escapeSplitMinWeight: number;
   /** Pending branches of the ray in flight (src/trace/branches.ts). */
   branches: Float64Array;
   /** Scratch (not shared between threads): interface row, per-ray contributions, state, hit. */

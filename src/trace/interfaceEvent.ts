@@ -1,6 +1,6 @@
 import type { RandomStream } from "../random/stream.js";
 import { interfacePowers } from "../optics/interfaceTable.js";
-import type { CompiledInterface, CompiledStack } from "./compiledStack.js";
+import { ESCAPE_SPLIT_MIN_WEIGHT, SPLIT_MIN_WEIGHT, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
 import { rouletteCheck } from "./bulkTransport.js";
 import { canBranch, pushBranch } from "./branches.js";
 import { ANALOG, DIED, ENTERED, EP, ES, INCIDENT, SPLIT, DX, DY, DZ, EX, EY, EZ, NX, NY, NZ, PA, PB, REFLECT, SX, SY, SZ, TRANSMIT, W } from "./rayState.js";
@@ -88,7 +88,8 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   // goes on now. The light's first reflection, the largest loss at most wavelengths, is then an
   // expected value instead of a coin toss; later events stay sampled, where splitting would grow
   // trees of little weight.
-  const floor = up === (st[INCIDENT] === FACE_REAR) && st[ENTERED] === 0 ? cs.splitMinWeight : st[ENTERED] !== 0 && (up ? iface === cs.front : iface === cs.rear) ? cs.escapeSplitMinWeight : 0;
+  const settings = cs.estimatorSettings;
+  const floor = up === (st[INCIDENT] === FACE_REAR) && st[ENTERED] === 0 ? settings[SPLIT_MIN_WEIGHT] : st[ENTERED] !== 0 && (up ? iface === cs.front : iface === cs.rear) ? settings[ESCAPE_SPLIT_MIN_WEIGHT] : 0;
   if (floor > 0 && wNew * (pR < 0.5 ? pR : 1 - pR) >= floor && canBranch(st)) {
     reflectInto(st, row);
     st[W] = wNew * pR;

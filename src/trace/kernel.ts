@@ -2,7 +2,7 @@ import { InputError } from "../util/errors.js";
 import type { RandomStream } from "../random/stream.js";
 import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
 import { SURFACE_LAMBERTIAN, SURFACE_MESH } from "../geometry/surfaceTile.js";
-import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack, type Estimator } from "./compiledStack.js";
+import { ANALOG_FROM_THETA_DEG, REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack, type Estimator } from "./compiledStack.js";
 import { BATCH_ANALOG, BRANCH_SERIAL, BRANCHES, DIED, DZ, ENTERED, EVENTS, FACE, HIT, L_COS_P, L_SIN_P, RAY_INDEX, SPLIT, T, TRANSMIT, W, Z, advance, setNormal } from "./rayState.js";
 import { popBranch, setBranchMedium } from "./branches.js";
 import { cosSinOfTurn } from "./turnTrig.js";
@@ -29,9 +29,9 @@ import { foldRay } from "./rayFold.js";
 
 export type { Polarization } from "./launch.js";
 
-/** The estimator a batch at polar angle θ is traced with (the stack's, analog from cs.analogFromThetaDeg on). */
+/** The estimator a batch at polar angle θ is traced with (the stack's, analog from its ANALOG_FROM_THETA_DEG on). */
 export function estimatorAt(cs: CompiledStack, thetaDeg: number): Estimator {
-  return thetaDeg >= cs.analogFromThetaDeg ? "analog" : cs.estimator;
+  return thetaDeg >= cs.estimatorSettings[ANALOG_FROM_THETA_DEG] ? "analog" : cs.estimator;
 }
 
 /** Where the light comes from: the incidence medium (front) or the medium behind the rear. */
