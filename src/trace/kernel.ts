@@ -81,8 +81,8 @@ export function traceBatch(
   const startMedium = fromRear ? cs.outerMedium : 0;
   const polMode = polarizationMode(polarization);
   const st = cs.state;
-  // Batch sums [events, Σp, Σp²] (rayFold.ts).
-  const sums = new Float64Array(3);
+  // Batch sums [events, Σp, Σp²] (rayFold.ts), and two slots of the bare-cell loop's (analogCell.ts).
+  const sums = new Float64Array(5);
   st[BATCH_ANALOG] = estimatorAt(cs, thetaDeg) === "analog" ? 1 : 0;
   setLaunchAngles(st, Math.sin(thetaDeg * DEG), Math.cos(thetaDeg * DEG));
   if (phiDeg !== null) setLaunchAzimuth(st, phiDeg * DEG);
