@@ -1,6 +1,6 @@
 import type { RandomStream } from "../random/stream.js";
 import type { CompiledStack } from "./compiledStack.js";
-import { BUDGET_U, BULK, FACE, PASSES, PENDING, ANALOG, BRANCH_SERIAL, BRANCHES, DX, ENTERED, DY, DZ, EX, EY, EZ, RAY_INDEX, TAU, W, X, Y, Z } from "./rayState.js";
+import { BUDGET_U, BULK, FACE, PASSES, PENDING, ANALOG, BRANCH_SERIAL, BRANCHES, DX, ENTERED, DY, DZ, EX, EY, EZ, L_COS_P, L_SIN_P, RAY_INDEX, TAU, W, X, Y, Z } from "./rayState.js";
 
 /**
  * Pending branches of the ray in flight. In expected-value mode an interface event may split the
@@ -87,4 +87,20 @@ export function popBranch(cs: CompiledStack, st: Float64Array, rng: RandomStream
   st[BRANCH_SERIAL]++;
   rng.startSubstream(st[RAY_INDEX] | 0, st[BRANCH_SERIAL] | 0);
   return b[o + B_MEDIUM] | 0;
+}
+
+/**
+ * Unpolarised light as the incoherent sum of two orthogonal linear polarisations (Born & Wolf,
+ * Principles of Optics, §10.8): the ray just launched polarised p waits as a branch of weight ½ that
+ * starts in medium m, and the ray goes on with the other half polarised s, s = (sin φ, −cos φ, 0) ⊥
+ * the plane of incidence (launch.ts). On a planar front the first reflection is then (R_s + R_p)/2
+ * for every ray, where a random line of polarisation ψ makes it R_s cos²ψ + R_p sin²ψ.
+ */
+export function splitPolarizationHalves(cs: CompiledStack, st: Float64Array, m: number): void {
+  st[W] = 0.5;
+  pushBranch(cs, st);
+  setBranchMedium(cs, st, m);
+  st[EX] = st[L_SIN_P];
+  st[EY] = -st[L_COS_P];
+  st[EZ] = 0;
 }

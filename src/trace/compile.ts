@@ -198,6 +198,7 @@ export function compileStack(
       options.rouletteWeight ?? choice.rouletteWeight,
       options.splitMinWeight ?? choice.splitMinWeight,
       options.escapeSplitMinWeight ?? choice.escapeSplitMinWeight,
+      choice.polarizationSplitFromThetaDeg,
     ),
     maxEvents: options.maxEvents ?? DEFAULT_MAX_EVENTS,
     branches: new Float64Array(MAX_BRANCHES * BRANCH_SLOTS),

@@ -37,6 +37,8 @@ export const ROULETTE_WEIGHT = 1;
 export const SPLIT_MIN_WEIGHT = 2;
 /** The same for the escape split at the incidence face from inside. */
 export const ESCAPE_SPLIT_MIN_WEIGHT = 3;
+/** Expected-value batches of unpolarised front light: from this polar angle on a ray goes as its s and p halves. */
+export const POLARIZATION_SPLIT_FROM_THETA_DEG = 4;
 
 /**
  * A stack ready for tracing at one wavelength. Media are numbered from the incidence side:

@@ -16,6 +16,8 @@ export interface EstimatorChoice {
   analogFromThetaDeg: number;
   /** Expected-value mode: least weight of both parts for a split on the way out (0 = never split). */
   escapeSplitMinWeight: number;
+  /** Expected-value mode, unpolarised light from the front: from this polar angle on each ray is traced as its s and p halves (Infinity = never). */
+  polarizationSplitFromThetaDeg: number;
 }
 
 /** From this αW on one pass takes most of the light; below it lies the light-trapping tail. */
@@ -25,6 +27,11 @@ export const DEEP_TAIL_DEPTH = 0.1;
 export const OPAQUE_ROULETTE_WEIGHT = 0.02;
 export const TAIL_ROULETTE_WEIGHT = 0.2;
 export const DEEP_TAIL_ROULETTE_WEIGHT = 0.5;
+/**
+ * Oblique light on a bare planar front where the absorber is opaque: each expected-value ray goes as
+ * its s and p halves from this polar angle on (the kernel, traceBatch).
+ */
+export const POLARIZATION_SPLIT_DEG = 60;
 /** Grazing incidence on a texture in the trapping tail: traced analog from this polar angle on. */
 export const GRAZING_ANALOG_DEG = 70;
 /** Both parts of a split on the way in weigh at least this much (a first reflection of 0.3 % still splits). */
@@ -90,5 +97,6 @@ export function chooseEstimator(singlePassDepth: number, plainFront: boolean, ha
     splitMinWeight: opaque || plainFront || qmcTail ? DEFAULT_SPLIT_MIN_WEIGHT : deepTail ? 0 : tailSplitMinWeight(singlePassDepth),
     analogFromThetaDeg: !opaque && !plainFront ? GRAZING_ANALOG_DEG : Infinity,
     escapeSplitMinWeight: qmcTail ? DEFAULT_SPLIT_MIN_WEIGHT : 0,
+    polarizationSplitFromThetaDeg: opaque && plainFront && !hasThickLayers ? POLARIZATION_SPLIT_DEG : Infinity,
   };
 }

@@ -2,9 +2,9 @@ import { InputError } from "../util/errors.js";
 import type { RandomStream } from "../random/stream.js";
 import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
 import { SURFACE_LAMBERTIAN, SURFACE_MESH } from "../geometry/surfaceTile.js";
-import { ANALOG_FROM_THETA_DEG, REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack, type Estimator } from "./compiledStack.js";
+import { ANALOG_FROM_THETA_DEG, POLARIZATION_SPLIT_FROM_THETA_DEG, REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack, type Estimator } from "./compiledStack.js";
 import { BATCH_ANALOG, BRANCH_SERIAL, BRANCHES, DIED, DZ, ENTERED, EVENTS, FACE, HIT, L_COS_P, L_SIN_P, RAY_INDEX, SPLIT, T, TRANSMIT, W, Z, advance, setNormal } from "./rayState.js";
-import { popBranch, setBranchMedium } from "./branches.js";
+import { popBranch, setBranchMedium, splitPolarizationHalves } from "./branches.js";
 import { cosSinOfTurn } from "./turnTrig.js";
 import { launchRay, polarizationMode, setLaunchAngles, setLaunchAzimuth, type Polarization } from "./launch.js";
 import type { LaunchPoints } from "./launchPoints.js";
@@ -90,15 +90,19 @@ export function traceBatch(
     traceAnalogCellRays(cs, nRays, rng, tally, polMode, launch, phiDeg === null, sums);
   } else {
     const u = launch === null ? null : launch.u;
+    // Unpolarised expected-value light where the stack says so (estimatorChoice.ts): each ray as its
+    // p half (launched, then waiting as a branch) and its s half (traceRay).
+    const halves = polMode === 0 && !fromRear && st[BATCH_ANALOG] === 0 && thetaDeg >= cs.estimatorSettings[POLARIZATION_SPLIT_FROM_THETA_DEG];
+    const launchPol = halves ? 2 : polMode;
     for (let r = 0; r < nRays; r++) {
       // One substream per ray: rays stay paired across stacks traced with the same stream (CRN).
       rng.startSubstream(r);
       st[RAY_INDEX] = r;
       if (launch !== null) launch.load(r);
       if (phiDeg === null) cosSinOfTurn(st, u === null ? rng.next() : u[3], L_COS_P, L_SIN_P);
-      launchRay(cs, polMode, rng, fromRear, u);
+      launchRay(cs, launchPol, rng, fromRear, u);
       resetHistory(st, fromRear ? FACE_REAR : FACE_FRONT);
-      traceRay(cs, rng, startMedium);
+      traceRay(cs, rng, startMedium, halves);
       foldRay(cs, tally, sums);
     }
   }
@@ -107,9 +111,10 @@ export function traceBatch(
 
 /**
  * Follows the launched ray from medium to medium until it ends, then each of its pending branches
- * (split interface events); its interface events → st[EVENTS].
+ * (split interface events; with `halves`, first its p half, splitPolarizationHalves); its interface
+ * events → st[EVENTS].
  */
-function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number): void {
+function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number, halves: boolean): void {
   const st = cs.state;
   const nL = cs.nLayers;
   const ABS = nL + 1;
@@ -118,6 +123,7 @@ function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number): vo
   st[BRANCHES] = 0;
   st[BRANCH_SERIAL] = 0;
   st[ENTERED] = 0;
+  if (halves) splitPolarizationHalves(cs, st, startMedium);
   let m = startMedium;
   for (;;) {
     let next: number;

@@ -3,23 +3,44 @@ import { join } from "node:path";
 import { loadStudy } from "../../src/study/load.js";
 import { compileStack } from "../../src/trace/compile.js";
 import { ROULETTE_WEIGHT, SPLIT_MIN_WEIGHT } from "../../src/trace/compiledStack.js";
-import { chooseEstimator, QMC_TAIL_ROULETTE_WEIGHT, DEEP_TAIL_ROULETTE_WEIGHT, DEFAULT_SPLIT_MIN_WEIGHT, GRAZING_ANALOG_DEG, OPAQUE_ROULETTE_WEIGHT, TAIL_ROULETTE_WEIGHT, TAIL_SPLIT_MIN_WEIGHT } from "../../src/trace/estimatorChoice.js";
+import { chooseEstimator, POLARIZATION_SPLIT_DEG, QMC_TAIL_ROULETTE_WEIGHT, DEEP_TAIL_ROULETTE_WEIGHT, DEFAULT_SPLIT_MIN_WEIGHT, GRAZING_ANALOG_DEG, OPAQUE_ROULETTE_WEIGHT, TAIL_ROULETTE_WEIGHT, TAIL_SPLIT_MIN_WEIGHT } from "../../src/trace/estimatorChoice.js";
 import { estimatorAt, traceBatch } from "../../src/trace/kernel.js";
 import { RandomStream, streamKey } from "../../src/random/stream.js";
 import { createTally, summarizeTally } from "../../src/trace/tally.js";
-import { expectWithin4Sigma, runTrace } from "./helpers.js";
+import { constantMaterial, expectWithin4Sigma, fresnelRsRp, registryWith, runTrace, stackOf } from "./helpers.js";
 
 // The per-wavelength default (src/trace/estimatorChoice.ts); its merit against the analog estimator
 // at every demo point is measured by `npm run bench` (part "merit"), never asserted in a test.
 describe("default estimator per wavelength", () => {
   it("splits the way in and roulettes late where one pass takes most of the light", () => {
-    expect(chooseEstimator(2, false, true)).toEqual({ estimator: "expected", rouletteWeight: OPAQUE_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: Infinity, escapeSplitMinWeight: 0 });
+    expect(chooseEstimator(2, false, true)).toEqual({ estimator: "expected", rouletteWeight: OPAQUE_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: Infinity, escapeSplitMinWeight: 0, polarizationSplitFromThetaDeg: Infinity });
   });
   it("in the tail: split where αW ≥ 0.1; in the deep tail early roulette, splitting only at a planar front; analog in a module and at grazing incidence on a texture", () => {
-    expect(chooseEstimator(0.15, false, false)).toEqual({ estimator: "expected", rouletteWeight: TAIL_ROULETTE_WEIGHT, splitMinWeight: TAIL_SPLIT_MIN_WEIGHT, analogFromThetaDeg: GRAZING_ANALOG_DEG, escapeSplitMinWeight: 0 });
-    expect(chooseEstimator(0.05, false, false)).toEqual({ estimator: "expected", rouletteWeight: DEEP_TAIL_ROULETTE_WEIGHT, splitMinWeight: 0, analogFromThetaDeg: GRAZING_ANALOG_DEG, escapeSplitMinWeight: 0 });
-    expect(chooseEstimator(0.05, true, false)).toEqual({ estimator: "expected", rouletteWeight: DEEP_TAIL_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: Infinity, escapeSplitMinWeight: 0 });
+    expect(chooseEstimator(0.15, false, false)).toEqual({ estimator: "expected", rouletteWeight: TAIL_ROULETTE_WEIGHT, splitMinWeight: TAIL_SPLIT_MIN_WEIGHT, analogFromThetaDeg: GRAZING_ANALOG_DEG, escapeSplitMinWeight: 0, polarizationSplitFromThetaDeg: Infinity });
+    expect(chooseEstimator(0.05, false, false)).toEqual({ estimator: "expected", rouletteWeight: DEEP_TAIL_ROULETTE_WEIGHT, splitMinWeight: 0, analogFromThetaDeg: GRAZING_ANALOG_DEG, escapeSplitMinWeight: 0, polarizationSplitFromThetaDeg: Infinity });
+    expect(chooseEstimator(0.05, true, false)).toEqual({ estimator: "expected", rouletteWeight: DEEP_TAIL_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: Infinity, escapeSplitMinWeight: 0, polarizationSplitFromThetaDeg: Infinity });
     expect(chooseEstimator(0.05, false, true).estimator).toBe("analog");
+  });
+  it("unpolarised oblique light on an opaque bare planar front goes as its s and p halves: its reflectance is (R_s + R_p)/2 for every ray", () => {
+    expect(chooseEstimator(2, true, false).polarizationSplitFromThetaDeg).toBe(POLARIZATION_SPLIT_DEG);
+    // not on a texture, in a module, or where light reaches the rear
+    for (const c of [chooseEstimator(2, false, false), chooseEstimator(2, true, true), chooseEstimator(0.3, true, false)]) expect(c.polarizationSplitFromThetaDeg).toBe(Infinity);
+    // n = 3.5, k = 0.003 (lossless at the interface, k ≤ 10⁻³ n: the Fresnel formula itself), 1 mm: αW ≈ 38
+    const mat = constantMaterial("opaque-planar", 3.5, 0.003);
+    const registry = registryWith(mat);
+    const stack = stackOf({ absorber: { material: mat.name, thicknessUm: 1000 }, rear: { ideal: { kind: "mirror", reflectance: 0.9 } } });
+    const exact = (thetaDeg: number): number => {
+      const f = fresnelRsRp(1, 3.5, Math.cos((thetaDeg * Math.PI) / 180));
+      return (f.Rs + f.Rp) / 2; // unpolarised light: the mean of the two (Hecht, Optics, ch. 4; from memory)
+    };
+    // From 60° on: every ray reflects (R_s + R_p)/2 of its power (no spread at all).
+    const halves = runTrace(stack, registry, { wavelengthNm: 1000, thetaDeg: 80, nRays: 400 }).total("R");
+    expect(Math.abs(halves.mean - exact(80))).toBeLessThan(1e-12);
+    expect(halves.se).toBeLessThan(1e-12);
+    // Below it each ray keeps a random line of polarisation ψ: R_s cos²ψ + R_p sin²ψ, unbiased, with a spread.
+    const random = runTrace(stack, registry, { wavelengthNm: 1000, thetaDeg: 50, nRays: 4000 }).total("R");
+    expect(random.se).toBeGreaterThan(1e-4);
+    expectWithin4Sigma("50°, random line of polarisation, R", random, exact(50));
   });
   it("on a texture in the tail the split floor is 0.1 up to αW 0.2, then falls log-linearly to the opaque floor at αW 0.5", () => {
     const floor = (aw: number, plain = false): number => chooseEstimator(aw, plain, false).splitMinWeight;
@@ -45,7 +66,7 @@ describe("default estimator per wavelength", () => {
     }
   });
   it("under Sobol' launch points the deep tail of a bare texture splits every way in and out, roulette 0.1", () => {
-    expect(chooseEstimator(0.05, false, false, true)).toEqual({ estimator: "expected", rouletteWeight: QMC_TAIL_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: GRAZING_ANALOG_DEG, escapeSplitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT });
+    expect(chooseEstimator(0.05, false, false, true)).toEqual({ estimator: "expected", rouletteWeight: QMC_TAIL_ROULETTE_WEIGHT, splitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, analogFromThetaDeg: GRAZING_ANALOG_DEG, escapeSplitMinWeight: DEFAULT_SPLIT_MIN_WEIGHT, polarizationSplitFromThetaDeg: Infinity });
     // not for a planar front, a module, or outside the deep tail
     expect(chooseEstimator(0.05, true, false, true).escapeSplitMinWeight).toBe(0);
     expect(chooseEstimator(0.05, false, true, true).estimator).toBe("analog");
