@@ -2,7 +2,7 @@ import type { RandomStream } from "../random/stream.js";
 import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
 import { SURFACE_LAMBERTIAN, SURFACE_PLANAR } from "../geometry/surfaceTile.js";
 import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
-import { ANALOG_PATH, BUDGET_U, BULK, DIED, DZ, ENTERED_W, ESCAPED, EVENTS, FACE, FREE_PATH, HIT, INCIDENT, L_COS_P, L_SIN_P, MAX_PASS, PASSES, PATH, PENDING, RAY_INDEX, REFLECT, T, TAIL, TAU, W, Z, advance } from "./rayState.js";
+import { BUDGET_U, BULK, DIED, DZ, ENTERED_W, EVENTS, FREE_PATH, HIT, INCIDENT, L_COS_P, L_SIN_P, MAX_PASS, PASSES, PATH, REFLECT, T, TAIL, TAU, W, Z, advance } from "./rayState.js";
 import { frontSearch, planarRearSearch, pyramidSearch } from "./surfaceSearch.js";
 import { depositPoint } from "./depthTally.js";
 import { MAX_PASSES } from "./tallyLayout.js";
@@ -82,8 +82,8 @@ function traceCellChunk(cs: CompiledStack, r0: number, r1: number, rng: RandomSt
   let entered = 0;
   let maxPass = sums[4] | 0;
   for (let r = r0; r < r1; r++) {
+    // (No RAY_INDEX: it numbers a ray's branches, and this loop makes none.)
     rng.startSubstream(r);
-    st[RAY_INDEX] = r;
     if (launch !== null) launch.load(r);
     if (randomAzimuth) cosSinOfTurn(st, u === null ? rng.next() : u[3], L_COS_P, L_SIN_P);
     launchRay(cs, polMode, rng, false, u);
@@ -98,12 +98,12 @@ function traceCellChunk(cs: CompiledStack, r0: number, r1: number, rng: RandomSt
 }
 
 /**
- * Follows one launched analog ray to its end (its channel, history and events in the state, as
- * traceRay leaves them); returns RAY_LOST when it could not be resolved (event budget, lost in the
- * walk), else 0. The ray's budget, paths and history live in locals while it is traced and go back
- * to the state once at its end (the pass counter at once: the exit channels read it); the
- * arithmetic and its order are those of absorbAnalog and history.ts, so the tallies are theirs bit
- * for bit.
+ * Follows one launched analog ray to its end (its channel in the scratch contributions, the sums
+ * the fold reads in the state); returns RAY_LOST when it could not be resolved (event budget, lost
+ * in the walk), else 0. The ray's budget, paths and history live in locals while it is traced and
+ * its events, paths, tail, highest pass and entry go to the state once at its end (the pass counter
+ * at once: the exit channels read it); the arithmetic and its order are those of absorbAnalog and
+ * history.ts, so the tallies are theirs bit for bit.
  */
 function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
   const maxEvents = cs.maxEvents;
@@ -123,7 +123,6 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
   let freePath = 0;
   let passes = 0;
   st[PASSES] = 0;
-  st[ESCAPED] = 0;
   let face = FACE_NONE;
   let pending = false;
   let tail = 0;
@@ -245,14 +244,10 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
   // expected-value stretch here, so the survival factor BULK is 1 and w / BULK is w).
   if (absorbedWhole) freePath += w * budgetFreePath(budgetU, alphaAbs);
   else if (analogPath !== 0) freePath += w * (Math.expm1(alphaAbs * analogPath) / alphaAbs);
+  // What the fold reads (cellFold.ts, traceCellChunk); the budget and the face stay local.
   st[EVENTS] = events;
-  st[TAU] = tau;
-  st[BUDGET_U] = budgetU;
   st[PATH] = path;
-  st[ANALOG_PATH] = 0;
   st[FREE_PATH] = freePath;
-  st[FACE] = face;
-  st[PENDING] = pending ? 1 : 0;
   st[TAIL] = tail;
   st[MAX_PASS] = maxPass;
   st[ENTERED_W] = entered;

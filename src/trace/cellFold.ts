@@ -1,7 +1,7 @@
 import type { CompiledStack } from "./compiledStack.js";
-import { EVENTS, FREE_PATH, PATH, TAIL } from "./rayState.js";
-import { DIAG_ENTERED, DIAG_ESCAPE_ANGLE, DIAG_FREE_PATH, DIAG_LENGTH, DIAG_R_TOTAL, DIAG_T_TOTAL, ESCAPE_ANGLE_BINS, MAX_PASSES, diagOffset, diagPassOffset } from "./tallyLayout.js";
-import { foldDepth } from "./depthTally.js";
+import { DIAG_ENTERED, DIAG_ESCAPE_ANGLE, DIAG_R_TOTAL, DIAG_T_TOTAL, ESCAPE_ANGLE_BINS, diagPassOffset } from "./tallyLayout.js";
+import { foldHistoryFractions } from "./history.js";
+import { foldRayTotals } from "./rayFold.js";
 
 /**
  * The fold of an analog batch on a bare cell (analogCell.ts) into the point tally: the same sums as
@@ -20,23 +20,8 @@ import { foldDepth } from "./depthTally.js";
 
 /** A finished ray's fractional sums (see above); its whole counts wait in the scratch arrays. */
 export function foldAnalogCellRay(cs: CompiledStack, st: Float64Array, tally: Float64Array, sums: Float64Array): void {
-  sums[0] += st[EVENTS];
-  const d = cs.diag;
-  const f = st[FREE_PATH] * cs.invThicknessUm;
-  if (f !== 0) {
-    d[DIAG_FREE_PATH] += f;
-    d[DIAG_FREE_PATH + 1] += f * f;
-  }
-  const t = st[TAIL];
-  if (t !== 0) {
-    const o = diagPassOffset(MAX_PASSES + 1);
-    d[o] += t;
-    d[o + 1] += t * t;
-  }
-  if (cs.depthEdgesUm !== null) foldDepth(cs, tally, diagOffset(cs.nChannels) + DIAG_LENGTH);
-  const p = st[PATH] * cs.invThicknessUm;
-  sums[1] += p;
-  sums[2] += p * p;
+  foldHistoryFractions(cs, st);
+  foldRayTotals(cs, st, tally, sums);
 }
 
 /**

@@ -126,8 +126,6 @@ export function leaveFront(cs: CompiledStack, st: Float64Array): void {
  * before its channel contributions are folded (it reads the R and T totals from them).
  */
 export function foldHistory(cs: CompiledStack, st: Float64Array): void {
-  // The thickness's inverse from the stack, not as an argument: a double passed to code that is not inlined is boxed.
-  const invThicknessUm = cs.invThicknessUm;
   const d = cs.diag;
   const c = cs.contrib;
   const r = c[cs.chRFirst] + c[cs.chREscape];
@@ -141,11 +139,7 @@ export function foldHistory(cs: CompiledStack, st: Float64Array): void {
     d[DIAG_ENTERED] += e;
     d[DIAG_ENTERED + 1] += e * e;
   }
-  const f = st[FREE_PATH] * invThicknessUm;
-  if (f !== 0) {
-    d[DIAG_FREE_PATH] += f;
-    d[DIAG_FREE_PATH + 1] += f * f;
-  }
+  foldHistoryFractions(cs, st);
   const p = cs.rayPasses;
   for (let k = 1; k <= st[MAX_PASS]; k++) {
     const v = p[k - 1];
@@ -153,12 +147,6 @@ export function foldHistory(cs: CompiledStack, st: Float64Array): void {
     d[o] += v;
     d[o + 1] += v * v;
     p[k - 1] = 0;
-  }
-  const t = st[TAIL];
-  if (t !== 0) {
-    const o = diagPassOffset(MAX_PASSES + 1);
-    d[o] += t;
-    d[o + 1] += t * t;
   }
   // Only the escape-angle bins the ray touched (a bit each in st[ESCAPED]).
   let touched = st[ESCAPED] | 0;
@@ -173,5 +161,27 @@ export function foldHistory(cs: CompiledStack, st: Float64Array): void {
       d[o + 1] += v * v;
       a[b] = 0;
     }
+  }
+}
+
+/**
+ * The finished ray's history sums that need not be whole numbers: its α → 0 path (over the
+ * absorber's thickness) and its pass tail (a ray may pass the last bin several times). Part of
+ * foldHistory; the bare-cell loop, which adds its whole counts once per batch, folds only these per
+ * ray (cellFold.ts).
+ */
+export function foldHistoryFractions(cs: CompiledStack, st: Float64Array): void {
+  const d = cs.diag;
+  // The thickness's inverse from the stack, not as an argument: a double passed to code that is not inlined is boxed.
+  const f = st[FREE_PATH] * cs.invThicknessUm;
+  if (f !== 0) {
+    d[DIAG_FREE_PATH] += f;
+    d[DIAG_FREE_PATH + 1] += f * f;
+  }
+  const t = st[TAIL];
+  if (t !== 0) {
+    const o = diagPassOffset(MAX_PASSES + 1);
+    d[o] += t;
+    d[o + 1] += t * t;
   }
 }

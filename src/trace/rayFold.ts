@@ -13,9 +13,14 @@ import { foldDepth } from "./depthTally.js";
  */
 export function foldRay(cs: CompiledStack, tally: Float64Array, sums: Float64Array): void {
   const st = cs.state;
-  sums[0] += st[EVENTS];
   foldHistory(cs, st);
   foldRayContributions(cs.contrib, cs.nChannels, tally);
+  foldRayTotals(cs, st, tally, sums);
+}
+
+/** The ray's events and path into sums (above), its depth deposits into the tally. */
+export function foldRayTotals(cs: CompiledStack, st: Float64Array, tally: Float64Array, sums: Float64Array): void {
+  sums[0] += st[EVENTS];
   if (cs.depthEdgesUm !== null) foldDepth(cs, tally, diagOffset(cs.nChannels) + DIAG_LENGTH);
   const p = st[PATH] * cs.invThicknessUm;
   sums[1] += p;
