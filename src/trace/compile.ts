@@ -12,7 +12,7 @@ import { CH_R_ESCAPE, CH_R_FIRST, CH_T_ESCAPE, CH_T_FIRST, channelNamesOfStack }
 import { BRANCH_SLOTS, MAX_BRANCHES } from "./branches.js";
 import { STATE_LENGTH } from "./rayState.js";
 import { analogCellEligible } from "./analogCell.js";
-import { chooseEstimator } from "./estimatorChoice.js";
+import { chooseEstimator, type EstimatorChoice } from "./estimatorChoice.js";
 import type { LaunchSampling } from "../random/sobol.js";
 import {
   REAR_IDEAL_LAMBERTIAN,
@@ -76,20 +76,7 @@ export function compileStack(
   if (!(wavelengthNm > 0) || !Number.isFinite(wavelengthNm)) {
     throw new InputError(`wavelength: expected a positive number of nm, got ${wavelengthNm}`);
   }
-  const nkOf = (name: string, field: string): NK => {
-    try {
-      return registry.get(name).nk(wavelengthNm);
-    } catch (err) {
-      if (err instanceof InputError) throw new InputError(`stack.${field}: ${err.message}`, err.hint);
-      throw err;
-    }
-  };
-  const films = (list: FilmSpec[], field: string): FilmLayer[] =>
-    list.map((f, i) => {
-      const nk = nkOf(f.material, `${field}[${i}].material`);
-      return { n: nk.n, k: nk.k, thicknessNm: f.thicknessNm };
-    });
-
+  const { nkOf, films } = materialLookups(registry, wavelengthNm);
   const channels = channelNamesOfStack(stack);
   const ch = (name: string): number => channels.indexOf(name);
   const nLayers = stack.layers.length;
@@ -99,58 +86,15 @@ export function compileStack(
   const { mediumNK, mediumN, mediumK, mediumAlphaPerUm, mediumChan } = compileMedia(stack, wavelengthNm, nkOf, ch);
   const tableRows = options.nCos ?? 1024;
 
-  // Thick layers: planar top faces, with their coherent films.
-  const topInterfaces: CompiledInterface[] = stack.layers.map((l, j) => {
-    const f = films(l.topFilms, `layers[${j}].topFilms`);
-    return {
-      table: buildInterfaceTable(mediumNK[j], f, mediumNK[j + 1], wavelengthNm, tableRows),
-      nUpper: mediumN[j],
-      nLower: mediumN[j + 1],
-      nFilms: f.length,
-      filmChan0: f.length > 0 ? ch(`A_film:top:${l.name}:0:${l.topFilms[0].material}`) : -1,
-      lowerSinkChan: -1,
-    };
-  });
-
-  // Front interface onto the absorber.
-  const frontFilms = films(stack.front.films, "front.films");
-  const front: CompiledInterface = {
-    table: buildInterfaceTable(mediumNK[nLayers], frontFilms, mediumNK[nLayers + 1], wavelengthNm, tableRows),
-    nUpper: mediumN[nLayers],
-    nLower: mediumN[nLayers + 1],
-    nFilms: frontFilms.length,
-    filmChan0: frontFilms.length > 0 ? ch(`A_film:front:0:${stack.front.films[0].material}`) : -1,
-    lowerSinkChan: -1,
-  };
+  const cx: CompileContext = { stack, wavelengthNm, tableRows, nkOf, films, ch, mediumNK, mediumN, nRear };
+  const { topInterfaces, front } = compileFrontInterfaces(cx);
   const frontTile = surfaceOf(stack.front.texture, stack.boundary, "stack.front.texture");
-
   // Rear: real interface (absorber | films | exit) or an ideal reflector.
-  const cx: RearContext = { stack, wavelengthNm, tableRows, nkOf, films, ch, mediumNK, mediumN, nRear };
   const { rearKind, rear, rearTile, rearReflectance, metalExit } = compileRearInterface(cx);
 
-  // Layer planes: the bottom layer starts at the top of the front texture.
-  const layerTopZUm = new Float64Array(nLayers + 1);
-  let z = frontTile.zMaxUm;
-  for (let j = nLayers; j >= 1; j--) {
-    z += stack.layers[j - 1].thicknessUm;
-    layerTopZUm[j] = z;
-  }
-
-  // Outer layer's top texture (textured glass): points out of the layer from its top plane.
-  const outerSpec = stack.layers[0]?.topTexture;
-  const outerTile = outerSpec ? surfaceOf(outerSpec, stack.boundary, "stack.layers[0].topTexture") : null;
-  if (outerTile !== null && -outerTile.zMinUm >= stack.layers[0]!.thicknessUm) {
-    throw new InputError(`stack.layers[0].topTexture: its pits reach ${-outerTile.zMinUm} µm into a ${stack.layers[0]!.thicknessUm} µm layer`);
-  }
-
+  const { layerTopZUm, outerTile } = compileLayerPlanes(stack, frontTile);
   const thicknessUm = stack.absorber.thicknessUm;
-  const frontDepth = -frontTile.zMinUm;
-  const rearDepth = -rearTile.zMinUm;
-  if (frontDepth + rearDepth >= thicknessUm) {
-    throw new InputError(
-      `stack.absorber.thicknessUm: ${thicknessUm} µm leaves no bulk between the textures (they reach ${frontDepth + rearDepth} µm into it)`,
-    );
-  }
+  checkBulk(thicknessUm, frontTile, rearTile);
 
   const rl = compileRearLayers(cx, thicknessUm, rearTile, outerMedium);
   const rearOpaque = isIdealRear(stack.rear) || (metalExit && nRear === 0) || rl.backsheetReflectance >= 0;
@@ -192,14 +136,7 @@ export function compileStack(
     chAbsorber: ch("A_absorber"),
     chRear: ch("A_rear"),
     chUnresolved: ch("unresolved"),
-    estimator: options.estimator ?? choice.estimator,
-    estimatorSettings: Float64Array.of(
-      options.estimator === undefined ? choice.analogFromThetaDeg : Infinity,
-      options.rouletteWeight ?? choice.rouletteWeight,
-      options.splitMinWeight ?? choice.splitMinWeight,
-      options.escapeSplitMinWeight ?? choice.escapeSplitMinWeight,
-      choice.polarizationSplitFromThetaDeg,
-    ),
+    ...estimatorOf(options, choice),
     maxEvents: options.maxEvents ?? DEFAULT_MAX_EVENTS,
     branches: new Float64Array(MAX_BRANCHES * BRANCH_SLOTS),
     scratchRow: new Float64Array(4 + 2 * 64),
@@ -217,6 +154,102 @@ export function compileStack(
   };
   cs.analogCellLoop = analogCellEligible(cs);
   return cs;
+}
+
+/**
+ * n, k of a named material at the wavelength, and a film list as layers; a material without data
+ * there is refused naming the stack field.
+ */
+function materialLookups(registry: MaterialSource, wavelengthNm: number): Pick<CompileContext, "nkOf" | "films"> {
+  const nkOf = (name: string, field: string): NK => {
+    try {
+      return registry.get(name).nk(wavelengthNm);
+    } catch (err) {
+      if (err instanceof InputError) throw new InputError(`stack.${field}: ${err.message}`, err.hint);
+      throw err;
+    }
+  };
+  const films = (list: FilmSpec[], field: string): FilmLayer[] =>
+    list.map((f, i) => {
+      const nk = nkOf(f.material, `${field}[${i}].material`);
+      return { n: nk.n, k: nk.k, thicknessNm: f.thicknessNm };
+    });
+  return { nkOf, films };
+}
+
+/** The thick layers' planar top faces with their coherent films, and the front interface onto the absorber. */
+function compileFrontInterfaces(cx: CompileContext): { topInterfaces: CompiledInterface[]; front: CompiledInterface } {
+  const { stack, wavelengthNm, tableRows, films, ch, mediumNK, mediumN } = cx;
+  const nLayers = stack.layers.length;
+  const topInterfaces: CompiledInterface[] = stack.layers.map((l, j) => {
+    const f = films(l.topFilms, `layers[${j}].topFilms`);
+    return {
+      table: buildInterfaceTable(mediumNK[j], f, mediumNK[j + 1], wavelengthNm, tableRows),
+      nUpper: mediumN[j],
+      nLower: mediumN[j + 1],
+      nFilms: f.length,
+      filmChan0: f.length > 0 ? ch(`A_film:top:${l.name}:0:${l.topFilms[0].material}`) : -1,
+      lowerSinkChan: -1,
+    };
+  });
+  const frontFilms = films(stack.front.films, "front.films");
+  const front: CompiledInterface = {
+    table: buildInterfaceTable(mediumNK[nLayers], frontFilms, mediumNK[nLayers + 1], wavelengthNm, tableRows),
+    nUpper: mediumN[nLayers],
+    nLower: mediumN[nLayers + 1],
+    nFilms: frontFilms.length,
+    filmChan0: frontFilms.length > 0 ? ch(`A_film:front:0:${stack.front.films[0].material}`) : -1,
+    lowerSinkChan: -1,
+  };
+  return { topInterfaces, front };
+}
+
+/**
+ * The thick layers' top planes (the bottom layer starts at the top of the front texture) and the
+ * outer layer's top texture (textured glass: it points out of the layer from its top plane).
+ */
+function compileLayerPlanes(stack: StackSpec, frontTile: SurfaceTile): { layerTopZUm: Float64Array; outerTile: SurfaceTile | null } {
+  const nLayers = stack.layers.length;
+  const layerTopZUm = new Float64Array(nLayers + 1);
+  let z = frontTile.zMaxUm;
+  for (let j = nLayers; j >= 1; j--) {
+    z += stack.layers[j - 1].thicknessUm;
+    layerTopZUm[j] = z;
+  }
+  const outerSpec = stack.layers[0]?.topTexture;
+  const outerTile = outerSpec ? surfaceOf(outerSpec, stack.boundary, "stack.layers[0].topTexture") : null;
+  if (outerTile !== null && -outerTile.zMinUm >= stack.layers[0]!.thicknessUm) {
+    throw new InputError(`stack.layers[0].topTexture: its pits reach ${-outerTile.zMinUm} µm into a ${stack.layers[0]!.thicknessUm} µm layer`);
+  }
+  return { layerTopZUm, outerTile };
+}
+
+/** Refuses front and rear textures that reach so far into the absorber that no bulk is left between them. */
+function checkBulk(thicknessUm: number, frontTile: SurfaceTile, rearTile: SurfaceTile): void {
+  const frontDepth = -frontTile.zMinUm;
+  const rearDepth = -rearTile.zMinUm;
+  if (frontDepth + rearDepth >= thicknessUm) {
+    throw new InputError(
+      `stack.absorber.thicknessUm: ${thicknessUm} µm leaves no bulk between the textures (they reach ${frontDepth + rearDepth} µm into it)`,
+    );
+  }
+}
+
+/**
+ * The estimator and its settings (slots of CompiledStack.estimatorSettings): what the options name
+ * wins over the point's default; an estimator named explicitly holds at every angle.
+ */
+function estimatorOf(options: CompileOptions, choice: EstimatorChoice): { estimator: Estimator; estimatorSettings: Float64Array } {
+  return {
+    estimator: options.estimator ?? choice.estimator,
+    estimatorSettings: Float64Array.of(
+      options.estimator === undefined ? choice.analogFromThetaDeg : Infinity,
+      options.rouletteWeight ?? choice.rouletteWeight,
+      options.splitMinWeight ?? choice.splitMinWeight,
+      options.escapeSplitMinWeight ?? choice.escapeSplitMinWeight,
+      choice.polarizationSplitFromThetaDeg,
+    ),
+  };
 }
 
 function checkDepthEdges(edges: Float64Array | number[]): Float64Array {
@@ -288,7 +321,8 @@ function launchWindow(tiles: (SurfaceTile | null)[]): { launchLxUm: number; laun
 }
 
 /** What the rear's compilation needs from compileStack. */
-interface RearContext {
+/** What the parts of compileStack share: the stack at one wavelength, its media and channel lookup. */
+interface CompileContext {
   stack: StackSpec;
   wavelengthNm: number;
   tableRows: number;
@@ -301,7 +335,7 @@ interface RearContext {
 }
 
 /** The rear interface (absorber | films | exit) or an ideal reflector, and the rear tile. */
-function compileRearInterface(cx: RearContext): {
+function compileRearInterface(cx: CompileContext): {
   rearKind: number; rear: CompiledInterface | null; rearTile: SurfaceTile; rearReflectance: number; metalExit: boolean;
 } {
   const { stack, wavelengthNm, tableRows, nkOf, films, ch, mediumNK, mediumN, nRear } = cx;
@@ -331,7 +365,7 @@ function compileRearInterface(cx: RearContext): {
 }
 
 /** Rear layers: planar, stacked below the rear texture's outermost points; their outer faces; a back-sheet. */
-function compileRearLayers(cx: RearContext, thicknessUm: number, rearTile: SurfaceTile, outerMedium: number): {
+function compileRearLayers(cx: CompileContext, thicknessUm: number, rearTile: SurfaceTile, outerMedium: number): {
   rearBottomZUm: Float64Array; rearBottomInterfaces: (CompiledInterface | null)[]; backsheetReflectance: number; backsheetHaze: number;
 } {
   const { stack, wavelengthNm, tableRows, films, ch, mediumNK, mediumN, nRear } = cx;
