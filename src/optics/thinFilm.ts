@@ -34,6 +34,13 @@ const GRAZING_COS = 1e-150;
 const TINY_NC = 1e-100;
 const BIG = 1e150;
 
+// The fields [E; H] at the current boundary, s and p (real, imaginary), and the logarithm of the
+// scale factored out of them: slots of `fields`.
+const ESR = 0, ESI = 1, HSR = 2, HSI = 3, EPR = 4, EPI = 5, HPR = 6, HPI = 7, LOG_SCALE = 8;
+const fields = new Float64Array(9);
+// The incidence side's flux normalisations 4η0/|η0 B + C|², s and p.
+const norms = new Float64Array(2);
+
 /**
  * Writes the stack's power fractions for incidence at cosθ0 (angle in the incidence medium)
  * into out[off .. off + 4 + 2F): [Rs, Rp, Ts, Tp, As_0..As_{F-1}, Ap_0..Ap_{F-1}].
@@ -61,144 +68,153 @@ export function filmStackInto(
   const fl = scratch;
   const s2 = n0 * n0 * (1 - c0) * (1 + c0); // (n0 sinθ0)², Snell's invariant squared
   const k0 = (2 * Math.PI) / wavelengthNm;
+  startAtExit(nExit, s2, fl, nF);
+  for (let j = nF - 1; j >= 0; j--) {
+    throughFilm(films[j]!, k0, s2);
+    fl[3 * j] = fields[ESR] * fields[HSR] + fields[ESI] * fields[HSI];
+    fl[3 * j + 1] = fields[EPR] * fields[HPR] + fields[EPI] * fields[HPI];
+    fl[3 * j + 2] = fields[LOG_SCALE];
+  }
+  reflectAtTop(n0 * c0, n0 / c0, out, off);
+  fluxesDown(films, fl, out, off);
+}
 
-  // exit medium: ηs = Nc, ηp = N²/Nc
+/** Exit medium: ηs = Nc, ηp = N²/Nc; the fields there (E = 1: s H = Nc, p H = N²/Nc) and its flux. */
+function startAtExit(nExit: NK, s2: number, fl: Float64Array, nF: number): void {
   const ne = nExit.n;
   const ke = nExit.k;
   const eer = ne * ne - ke * ke;
   const eei = 2 * ne * ke;
   complexSqrtDecaying(eer - s2, eei, sq, 0);
   let ncr = sq[0]!;
-  let nci = sq[1]!;
+  const nci = sq[1]!;
   if (ncr === 0 && nci === 0) ncr = TINY_NC;
-  let d = ncr * ncr + nci * nci;
-  // fields (E = 1): s: H = Nc ; p: H = N²/Nc
-  let esr = 1, esi = 0, hsr = ncr, hsi = nci;
-  let epr = 1, epi = 0;
-  let hpr = (eer * ncr + eei * nci) / d;
-  let hpi = (eei * ncr - eer * nci) / d;
-  let logScale = 0;
-  fl[3 * nF] = hsr; // Re(E H*) with E = 1
-  fl[3 * nF + 1] = hpr;
+  const d = ncr * ncr + nci * nci;
+  fields[ESR] = 1;
+  fields[ESI] = 0;
+  fields[HSR] = ncr;
+  fields[HSI] = nci;
+  fields[EPR] = 1;
+  fields[EPI] = 0;
+  fields[HPR] = (eer * ncr + eei * nci) / d;
+  fields[HPI] = (eei * ncr - eer * nci) / d;
+  fields[LOG_SCALE] = 0;
+  fl[3 * nF] = ncr; // Re(E H*) with E = 1
+  fl[3 * nF + 1] = fields[HPR];
   fl[3 * nF + 2] = 0;
+}
 
-  for (let j = nF - 1; j >= 0; j--) {
-    const f = films[j]!;
-    const n = f.n;
-    const k = f.k;
-    const er = n * n - k * k;
-    const ei = 2 * n * k;
-    complexSqrtDecaying(er - s2, ei, sq, 0);
-    ncr = sq[0]!;
-    nci = sq[1]!;
-    if (ncr === 0 && nci === 0) ncr = TINY_NC;
-    // δ = k0 d Nc = dr + i di (di ≥ 0)
-    const kd = k0 * f.thicknessNm;
-    const dr = kd * ncr;
-    const di = kd * nci;
-    const cr = Math.cos(dr);
-    const sr = Math.sin(dr);
-    let ch: number, sh: number;
-    if (di === 0) {
-      ch = 1;
-      sh = 0;
-    } else if (di < 20) {
-      ch = Math.cosh(di);
-      sh = Math.sinh(di);
-    } else {
-      // factor e^{di} out of the matrix
-      const e = Math.exp(-2 * di);
-      ch = 0.5 * (1 + e);
-      sh = 0.5 * (1 - e);
-      logScale += di;
-    }
-    // cos δ = cos dr cosh di − i sin dr sinh di ; sin δ = sin dr cosh di + i cos dr sinh di
-    const cdr = cr * ch;
-    const cdi = -sr * sh;
-    const sdr = sr * ch;
-    const sdi = cr * sh;
-    // q1 = sin δ / Nc, q2 = Nc sin δ
-    d = ncr * ncr + nci * nci;
-    const q1r = (sdr * ncr + sdi * nci) / d;
-    const q1i = (sdi * ncr - sdr * nci) / d;
-    const q2r = ncr * sdr - nci * sdi;
-    const q2i = ncr * sdi + nci * sdr;
-    // s: sinδ/η = q1, η sinδ = q2 ; p: sinδ/η = q2/N², η sinδ = N² q1
-    const de = er * er + ei * ei;
-    const p1r = (q2r * er + q2i * ei) / de;
-    const p1i = (q2i * er - q2r * ei) / de;
-    const p2r = er * q1r - ei * q1i;
-    const p2i = er * q1i + ei * q1r;
-
-    // s: E' = cosδ E − i q1 H ; H' = −i q2 E + cosδ H   (−i(x + iy) = y − ix)
-    let tr = cdr * esr - cdi * esi;
-    let ti = cdr * esi + cdi * esr;
-    let ur = q1r * hsr - q1i * hsi;
-    let ui = q1r * hsi + q1i * hsr;
-    const nEsr = tr + ui;
-    const nEsi = ti - ur;
-    tr = cdr * hsr - cdi * hsi;
-    ti = cdr * hsi + cdi * hsr;
-    ur = q2r * esr - q2i * esi;
-    ui = q2r * esi + q2i * esr;
-    hsr = tr + ui;
-    hsi = ti - ur;
-    esr = nEsr;
-    esi = nEsi;
-
-    // p: same with p1, p2
-    tr = cdr * epr - cdi * epi;
-    ti = cdr * epi + cdi * epr;
-    ur = p1r * hpr - p1i * hpi;
-    ui = p1r * hpi + p1i * hpr;
-    const nEpr = tr + ui;
-    const nEpi = ti - ur;
-    tr = cdr * hpr - cdi * hpi;
-    ti = cdr * hpi + cdi * hpr;
-    ur = p2r * epr - p2i * epi;
-    ui = p2r * epi + p2i * epr;
-    hpr = tr + ui;
-    hpi = ti - ur;
-    epr = nEpr;
-    epi = nEpi;
-
-    // keep magnitudes bounded (only ever triggers for extreme stacks)
-    const mag = Math.max(Math.abs(esr), Math.abs(esi), Math.abs(hsr), Math.abs(hsi),
-      Math.abs(epr), Math.abs(epi), Math.abs(hpr), Math.abs(hpi));
-    if (mag > BIG) {
-      const inv = 1 / mag;
-      esr *= inv; esi *= inv; hsr *= inv; hsi *= inv;
-      epr *= inv; epi *= inv; hpr *= inv; hpi *= inv;
-      logScale += Math.log(mag);
-    }
-    fl[3 * j] = esr * hsr + esi * hsi;
-    fl[3 * j + 1] = epr * hpr + epi * hpi;
-    fl[3 * j + 2] = logScale;
+/** Carries the fields from a film's bottom to its top through its characteristic matrix. */
+function throughFilm(f: FilmLayer, k0: number, s2: number): void {
+  const n = f.n;
+  const k = f.k;
+  const er = n * n - k * k;
+  const ei = 2 * n * k;
+  complexSqrtDecaying(er - s2, ei, sq, 0);
+  let ncr = sq[0]!;
+  const nci = sq[1]!;
+  if (ncr === 0 && nci === 0) ncr = TINY_NC;
+  // δ = k0 d Nc = dr + i di (di ≥ 0)
+  const kd = k0 * f.thicknessNm;
+  const dr = kd * ncr;
+  const di = kd * nci;
+  const cr = Math.cos(dr);
+  const sr = Math.sin(dr);
+  let ch: number, sh: number;
+  if (di === 0) {
+    ch = 1;
+    sh = 0;
+  } else if (di < 20) {
+    ch = Math.cosh(di);
+    sh = Math.sinh(di);
+  } else {
+    // factor e^{di} out of the matrix
+    const e = Math.exp(-2 * di);
+    ch = 0.5 * (1 + e);
+    sh = 0.5 * (1 - e);
+    fields[LOG_SCALE] += di;
   }
+  // cos δ = cos dr cosh di − i sin dr sinh di ; sin δ = sin dr cosh di + i cos dr sinh di
+  const cdr = cr * ch;
+  const cdi = -sr * sh;
+  const sdr = sr * ch;
+  const sdi = cr * sh;
+  // q1 = sin δ / Nc, q2 = Nc sin δ
+  const d = ncr * ncr + nci * nci;
+  const q1r = (sdr * ncr + sdi * nci) / d;
+  const q1i = (sdi * ncr - sdr * nci) / d;
+  const q2r = ncr * sdr - nci * sdi;
+  const q2i = ncr * sdi + nci * sdr;
+  // s: sinδ/η = q1, η sinδ = q2 ; p: sinδ/η = q2/N², η sinδ = N² q1
+  const de = er * er + ei * ei;
+  const p1r = (q2r * er + q2i * ei) / de;
+  const p1i = (q2i * er - q2r * ei) / de;
+  const p2r = er * q1r - ei * q1i;
+  const p2i = er * q1i + ei * q1r;
+  applyMatrix(cdr, cdi, q1r, q1i, q2r, q2i, ESR);
+  applyMatrix(cdr, cdi, p1r, p1i, p2r, p2i, EPR);
+  rescaleFields();
+}
 
-  // incidence medium: η0s = n0 cosθ0, η0p = n0 / cosθ0
-  const e0s = n0 * c0;
-  const e0p = n0 / c0;
+/**
+ * One polarisation's fields (slots at e: E re, im, H re, im): E' = cosδ E − i a H, H' = −i b E +
+ * cosδ H, with a = sinδ/η and b = η sinδ (−i(x + iy) = y − ix).
+ */
+function applyMatrix(cdr: number, cdi: number, ar: number, ai: number, br: number, bi: number, e: number): void {
+  const er = fields[e], ei = fields[e + 1], hr = fields[e + 2], hi = fields[e + 3];
+  let tr = cdr * er - cdi * ei;
+  let ti = cdr * ei + cdi * er;
+  let ur = ar * hr - ai * hi;
+  let ui = ar * hi + ai * hr;
+  fields[e] = tr + ui;
+  fields[e + 1] = ti - ur;
+  tr = cdr * hr - cdi * hi;
+  ti = cdr * hi + cdi * hr;
+  ur = br * er - bi * ei;
+  ui = br * ei + bi * er;
+  fields[e + 2] = tr + ui;
+  fields[e + 3] = ti - ur;
+}
+
+/** Keeps the fields' magnitudes bounded (only ever triggers for extreme stacks). */
+function rescaleFields(): void {
+  const f = fields;
+  const mag = Math.max(Math.abs(f[ESR]), Math.abs(f[ESI]), Math.abs(f[HSR]), Math.abs(f[HSI]),
+    Math.abs(f[EPR]), Math.abs(f[EPI]), Math.abs(f[HPR]), Math.abs(f[HPI]));
+  if (mag > BIG) {
+    const inv = 1 / mag;
+    for (let i = ESR; i <= HPI; i++) fields[i] *= inv;
+    fields[LOG_SCALE] += Math.log(mag);
+  }
+}
+
+/** At the incidence medium (η0s = n0 cosθ0, η0p = n0 / cosθ0): Rs and Rp into out, the flux norms into `norms`. */
+function reflectAtTop(e0s: number, e0p: number, out: Float64Array, off: number): void {
   // s
-  let ar = e0s * esr + hsr;
-  let ai = e0s * esi + hsi;
-  let br = e0s * esr - hsr;
-  let bi = e0s * esi - hsi;
+  let ar = e0s * fields[ESR] + fields[HSR];
+  let ai = e0s * fields[ESI] + fields[HSI];
+  let br = e0s * fields[ESR] - fields[HSR];
+  let bi = e0s * fields[ESI] - fields[HSI];
   const denS = ar * ar + ai * ai;
-  const Rs = (br * br + bi * bi) / denS;
-  const normS = (4 * e0s) / denS;
+  out[off] = (br * br + bi * bi) / denS;
+  norms[0] = (4 * e0s) / denS;
   // p
-  ar = e0p * epr + hpr;
-  ai = e0p * epi + hpi;
-  br = e0p * epr - hpr;
-  bi = e0p * epi - hpi;
+  ar = e0p * fields[EPR] + fields[HPR];
+  ai = e0p * fields[EPI] + fields[HPI];
+  br = e0p * fields[EPR] - fields[HPR];
+  bi = e0p * fields[EPI] - fields[HPI];
   const denP = ar * ar + ai * ai;
-  const Rp = (br * br + bi * bi) / denP;
-  const normP = (4 * e0p) / denP;
+  out[off + 1] = (br * br + bi * bi) / denP;
+  norms[1] = (4 * e0p) / denP;
+}
 
+/** Normalised net flux at each boundary: film j absorbs what enters it minus what leaves; Ts, Tp what reaches the exit. */
+function fluxesDown(films: readonly FilmLayer[], fl: Float64Array, out: Float64Array, off: number): void {
+  const nF = films.length;
+  const normS = norms[0];
+  const normP = norms[1];
   const lTop = fl[2]!;
-  const scaled = logScale !== 0;
-  // normalised net flux at boundary b
+  const scaled = fields[LOG_SCALE] !== 0;
   let prevS = fl[0]! * normS;
   let prevP = fl[1]! * normP;
   for (let j = 0; j < nF; j++) {
@@ -217,8 +233,6 @@ export function filmStackInto(
     prevS = fS;
     prevP = fP;
   }
-  out[off] = Rs;
-  out[off + 1] = Rp;
   out[off + 2] = prevS;
   out[off + 3] = prevP;
 }
