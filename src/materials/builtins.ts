@@ -63,6 +63,17 @@ export function builtinMaterials(): CatalogMaterial[] {
       100,
       100000,
     ),
+    ...silicon(),
+    ...nitrides(),
+    ...oxides(),
+    ...metals(),
+    ...moduleLayers(),
+  ];
+}
+
+/** Crystalline and amorphous silicon. */
+function silicon(): CatalogMaterial[] {
+  return [
     table(
       {
         name: "Si-Green2008",
@@ -93,6 +104,12 @@ export function builtinMaterials(): CatalogMaterial[] {
       },
       "asi_pierce_spicer1972.csv",
     ),
+  ];
+}
+
+/** Silicon nitrides: PECVD SiNx of three indices and stoichiometric Si3N4. */
+function nitrides(): CatalogMaterial[] {
+  return [
     table(
       {
         name: "SiNx-Vogt2015-n1.91",
@@ -149,6 +166,12 @@ export function builtinMaterials(): CatalogMaterial[] {
       1240,
     ),
     // Malitson 1965 fused silica: B = 0.6961663, 0.4079426, 0.8974794; C = 0.0684043, 0.1162414, 9.896161 µm.
+  ];
+}
+
+/** SiO2 and Al2O3 (films, and sapphire for reference). */
+function oxides(): CatalogMaterial[] {
+  return [
     sellmeier(
       {
         name: "SiO2-Malitson1965",
@@ -220,6 +243,12 @@ export function builtinMaterials(): CatalogMaterial[] {
       200,
       5000,
     ),
+  ];
+}
+
+/** Rear and contact metals. */
+function metals(): CatalogMaterial[] {
+  return [
     table(
       {
         name: "Ag-JohnsonChristy1972",
@@ -260,6 +289,12 @@ export function builtinMaterials(): CatalogMaterial[] {
       },
       "al_rakic1995.csv",
     ),
+  ];
+}
+
+/** Module glass, the transparent conductive oxide and encapsulants. */
+function moduleLayers(): CatalogMaterial[] {
+  return [
     table(
       {
         name: "glass-lowiron-Vogt2016",
