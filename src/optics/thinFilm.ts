@@ -79,16 +79,30 @@ export function filmStackInto(
   fluxesDown(films, fl, out, off);
 }
 
+/** ε = N² = (n² − k²) + i·2nk of a medium. */
+function permittivityRe(m: NK): number {
+  return m.n * m.n - m.k * m.k;
+}
+function permittivityIm(m: NK): number {
+  return 2 * m.n * m.k;
+}
+
+/**
+ * N cosθ = √(ε − (n0 sinθ0)²), the root that decays into the medium, into sq; a vanishing one is
+ * nudged off zero (TINY_NC).
+ */
+function normalIndex(er: number, ei: number, s2: number): void {
+  complexSqrtDecaying(er - s2, ei, sq, 0);
+  if (sq[0] === 0 && sq[1] === 0) sq[0] = TINY_NC;
+}
+
 /** Exit medium: ηs = Nc, ηp = N²/Nc; the fields there (E = 1: s H = Nc, p H = N²/Nc) and its flux. */
 function startAtExit(nExit: NK, s2: number, fl: Float64Array, nF: number): void {
-  const ne = nExit.n;
-  const ke = nExit.k;
-  const eer = ne * ne - ke * ke;
-  const eei = 2 * ne * ke;
-  complexSqrtDecaying(eer - s2, eei, sq, 0);
-  let ncr = sq[0]!;
+  const eer = permittivityRe(nExit);
+  const eei = permittivityIm(nExit);
+  normalIndex(eer, eei, s2);
+  const ncr = sq[0]!;
   const nci = sq[1]!;
-  if (ncr === 0 && nci === 0) ncr = TINY_NC;
   const d = ncr * ncr + nci * nci;
   fields[ESR] = 1;
   fields[ESI] = 0;
@@ -106,14 +120,11 @@ function startAtExit(nExit: NK, s2: number, fl: Float64Array, nF: number): void 
 
 /** Carries the fields from a film's bottom to its top through its characteristic matrix. */
 function throughFilm(f: FilmLayer, k0: number, s2: number): void {
-  const n = f.n;
-  const k = f.k;
-  const er = n * n - k * k;
-  const ei = 2 * n * k;
-  complexSqrtDecaying(er - s2, ei, sq, 0);
-  let ncr = sq[0]!;
+  const er = permittivityRe(f);
+  const ei = permittivityIm(f);
+  normalIndex(er, ei, s2);
+  const ncr = sq[0]!;
   const nci = sq[1]!;
-  if (ncr === 0 && nci === 0) ncr = TINY_NC;
   // δ = k0 d Nc = dr + i di (di ≥ 0)
   const kd = k0 * f.thicknessNm;
   const dr = kd * ncr;
