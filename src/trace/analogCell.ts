@@ -2,7 +2,7 @@ import type { RandomStream } from "../random/stream.js";
 import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
 import { SURFACE_LAMBERTIAN, SURFACE_PLANAR } from "../geometry/surfaceTile.js";
 import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
-import { BUDGET_U, BULK, DIED, DZ, ENTERED_W, EVENTS, FREE_PATH, HIT, INCIDENT, L_COS_P, L_SIN_P, MAX_PASS, PASSES, PATH, REFLECT, T, TAIL, TAU, W, Z, advance } from "./rayState.js";
+import { Ray, Outcome, HIT, advance } from "./rayState.js";
 import { frontSearch, planarRearSearch, pyramidSearch } from "./surfaceSearch.js";
 import { depositPoint } from "./depthTally.js";
 import { MAX_PASSES } from "./tallyLayout.js";
@@ -52,8 +52,8 @@ const RAY_LOST = -2;
  */
 export function traceAnalogCellRays(cs: CompiledStack, nRays: number, rng: RandomStream, tally: Float64Array, polMode: number, launch: LaunchPoints | null, randomAzimuth: boolean, sums: Float64Array): void {
   const st = cs.state;
-  st[INCIDENT] = FACE_FRONT;
-  st[BULK] = 1;
+  st[Ray.INCIDENT] = FACE_FRONT;
+  st[Ray.BULK] = 1;
   sums[3] = 0;
   sums[4] = 0;
   for (let r0 = 0; r0 < nRays; r0 += CELL_CHUNK_RAYS) {
@@ -85,12 +85,12 @@ function traceCellChunk(cs: CompiledStack, r0: number, r1: number, rng: RandomSt
     // (No RAY_INDEX: it numbers a ray's branches, and this loop makes none.)
     rng.startSubstream(r);
     if (launch !== null) launch.load(r);
-    if (randomAzimuth) cosSinOfTurn(st, u === null ? rng.next() : u[3], L_COS_P, L_SIN_P);
+    if (randomAzimuth) cosSinOfTurn(st, u === null ? rng.next() : u[3], Ray.L_COS_P, Ray.L_SIN_P);
     launchRay(cs, polMode, rng, false, u);
-    if (traceAnalogCellRay(cs, st, rng) === RAY_LOST) cs.contrib[cs.chUnresolved] += st[W];
+    if (traceAnalogCellRay(cs, st, rng) === RAY_LOST) cs.contrib[cs.chUnresolved] += st[Ray.W];
     foldAnalogCellRay(cs, st, tally, sums);
-    entered += st[ENTERED_W] | 0;
-    const mp = st[MAX_PASS] | 0;
+    entered += st[Ray.ENTERED_W] | 0;
+    const mp = st[Ray.MAX_PASS] | 0;
     if (mp > maxPass) maxPass = mp;
   }
   sums[3] += entered;
@@ -114,15 +114,15 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
   const tile = cs.frontTile;
   const pyramids = tile.kind !== SURFACE_PLANAR;
   // An analog ray keeps its weight from launch to end.
-  const w = st[W];
-  let tau = st[TAU];
-  let budgetU = st[BUDGET_U];
-  let path = st[PATH];
+  const w = st[Ray.W];
+  let tau = st[Ray.TAU];
+  let budgetU = st[Ray.BUDGET_U];
+  let path = st[Ray.PATH];
   // A new ray's history (history.ts, resetHistory): no pass, no face, nothing entered.
   let analogPath = 0;
   let freePath = 0;
   let passes = 0;
-  st[PASSES] = 0;
+  st[Ray.PASSES] = 0;
   let face = FACE_NONE;
   let pending = false;
   let tail = 0;
@@ -153,7 +153,7 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
       const found = pyramids ? pyramidSearch(tile, st, true, 1, 0) : frontSearch(cs, st, true);
       // Leaving the face that ended a pass (history.ts, departFace): up from the rear, or down from
       // the front towards the rear.
-      if (pending && (face === FACE_REAR ? st[DZ] > 0 : found !== HIT && found !== LOST)) {
+      if (pending && (face === FACE_REAR ? st[Ray.DZ] > 0 : found !== HIT && found !== LOST)) {
         pending = false;
         const k = passes - 1;
         if (k > MAX_PASSES) tail += w;
@@ -176,7 +176,7 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
       }
     }
     // Beer–Lambert on the way there (absorbAnalog's arithmetic), then the event.
-    const lenUm = st[T];
+    const lenUm = st[Ray.T];
     if (inAbsorber) {
       if (alphaAbs > 0) {
         const od = alphaAbs * lenUm;
@@ -184,7 +184,7 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
           const s = tau / alphaAbs;
           path += w * s;
           analogPath += s;
-          if (cs.depthEdgesUm !== null) depositPoint(cs, w, st[Z], s, st[DZ]);
+          if (cs.depthEdgesUm !== null) depositPoint(cs, w, st[Ray.Z], s, st[Ray.DZ]);
           cs.contrib[cs.mediumChan[1]] += w;
           absorbedWhole = budgetU > 0;
           break;
@@ -213,7 +213,7 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
       if (face !== f) {
         face = f;
         passes += 1;
-        st[PASSES] = passes;
+        st[Ray.PASSES] = passes;
         pending = true;
       }
     }
@@ -222,8 +222,8 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
       continue;
     }
     const out = analogInterfaceEvent(cs, st, atRear ? (cs.rear as CompiledInterface) : cs.front, rng);
-    if (out === DIED) break;
-    if (out === REFLECT) continue;
+    if (out === Outcome.DIED) break;
+    if (out === Outcome.REFLECT) continue;
     if (atRear) {
       // Transmitted into the exit medium without a sink there: it leaves through the rear.
       cs.contrib[rearExitChannel(cs, st)] += w;
@@ -233,7 +233,7 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
       // Into the absorber through the front (history.ts, enterAbsorber).
       if (passes === 0) {
         passes = 1;
-        st[PASSES] = 1;
+        st[Ray.PASSES] = 1;
         entered += w;
       }
       face = FACE_FRONT;
@@ -245,18 +245,18 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
   if (absorbedWhole) freePath += w * budgetFreePath(budgetU, alphaAbs);
   else if (analogPath !== 0) freePath += w * (Math.expm1(alphaAbs * analogPath) / alphaAbs);
   // What the fold reads (cellFold.ts, traceCellChunk); the budget and the face stay local.
-  st[EVENTS] = events;
-  st[PATH] = path;
-  st[FREE_PATH] = freePath;
-  st[TAIL] = tail;
-  st[MAX_PASS] = maxPass;
-  st[ENTERED_W] = entered;
+  st[Ray.EVENTS] = events;
+  st[Ray.PATH] = path;
+  st[Ray.FREE_PATH] = freePath;
+  st[Ray.TAIL] = tail;
+  st[Ray.MAX_PASS] = maxPass;
+  st[Ray.ENTERED_W] = entered;
   return result;
 }
 
 /** No front hit from above: the ray leaves upward (0), or runs parallel to the front (RAY_LOST). */
 function leaveAbove(cs: CompiledStack, st: Float64Array): number {
-  if (!(st[DZ] > 0)) return RAY_LOST;
+  if (!(st[Ray.DZ] > 0)) return RAY_LOST;
   leaveFront(cs, st);
   return 0;
 }

@@ -1,7 +1,7 @@
 import type { RandomStream } from "../random/stream.js";
 import { lookupInterface, plainPowers } from "../optics/interfaceTable.js";
 import type { CompiledInterface, CompiledStack } from "./compiledStack.js";
-import { DIED, DX, DY, DZ, EX, EY, EZ, NX, NY, NZ, REFLECT, TRANSMIT, W } from "./rayState.js";
+import { Ray, Outcome } from "./rayState.js";
 import { rearExitChannel } from "./history.js";
 
 /**
@@ -17,8 +17,8 @@ import { rearExitChannel } from "./history.js";
  * 2026-12-04, load 0.4–1.0).
  */
 export function analogInterfaceEvent(cs: CompiledStack, st: Float64Array, iface: CompiledInterface, rng: RandomStream): number {
-  const dx = st[DX], dy = st[DY], dz = st[DZ];
-  const nx = st[NX], ny = st[NY], nz = st[NZ];
+  const dx = st[Ray.DX], dy = st[Ray.DY], dz = st[Ray.DZ];
+  const nx = st[Ray.NX], ny = st[Ray.NY], nz = st[Ray.NZ];
   const dn = dx * nx + dy * ny + dz * nz;
   const up = dn > 0;
   const cosI = up ? dn : -dn;
@@ -31,7 +31,7 @@ export function analogInterfaceEvent(cs: CompiledStack, st: Float64Array, iface:
   let sy = dz * nx - dx * nz;
   let sz = dx * ny - dy * nx;
   const sl = Math.sqrt(sx * sx + sy * sy + sz * sz);
-  const ex = st[EX], ey = st[EY], ez = st[EZ];
+  const ex = st[Ray.EX], ey = st[Ray.EY], ez = st[Ray.EZ];
   if (sl > 1e-12) {
     const inv = 1 / sl;
     sx *= inv;
@@ -57,13 +57,13 @@ export function analogInterfaceEvent(cs: CompiledStack, st: Float64Array, iface:
   if (!reflect) {
     if (u < Rpow + Tpow) {
       if (sink >= 0) {
-        cs.contrib[sink] += st[W];
-        return DIED;
+        cs.contrib[sink] += st[Ray.W];
+        return Outcome.DIED;
       }
     } else {
       const outcome = filmOrRounding(cs, st, iface, up, cosI, fs, fp, Rpow, Tpow, u, sink);
-      if (outcome === DIED) return DIED;
-      reflect = outcome === REFLECT;
+      if (outcome === Outcome.DIED) return Outcome.DIED;
+      reflect = outcome === Outcome.REFLECT;
     }
   }
   // New direction: specular, or Snell with real indices (t = η d + (η cosθi − cosθt) n_i, n_i facing the ray).
@@ -89,9 +89,9 @@ export function analogInterfaceEvent(cs: CompiledStack, st: Float64Array, iface:
     a = Es * Math.sqrt(Ts);
     b = Ep * Math.sqrt(Tp);
   }
-  st[DX] = ox;
-  st[DY] = oy;
-  st[DZ] = oz;
+  st[Ray.DX] = ox;
+  st[Ray.DY] = oy;
+  st[Ray.DZ] = oz;
   // E = a·s + b·(s × d'), normalised; s when both vanish.
   let qx = a * sx + b * (sy * oz - sz * oy);
   let qy = a * sy + b * (sz * ox - sx * oz);
@@ -107,10 +107,10 @@ export function analogInterfaceEvent(cs: CompiledStack, st: Float64Array, iface:
     qy = sy;
     qz = sz;
   }
-  st[EX] = qx;
-  st[EY] = qy;
-  st[EZ] = qz;
-  return reflect ? REFLECT : TRANSMIT;
+  st[Ray.EX] = qx;
+  st[Ray.EY] = qy;
+  st[Ray.EZ] = qz;
+  return reflect ? Outcome.REFLECT : Outcome.TRANSMIT;
 }
 
 /**
@@ -126,13 +126,13 @@ function filmOrRounding(cs: CompiledStack, st: Float64Array, iface: CompiledInte
   for (let i = 0; i < nF; i++) {
     acc += fs * row[4 + i] + fp * row[4 + nF + i];
     if (u < acc || i === nF - 1) {
-      cs.contrib[iface.filmChan0 + i] += st[W];
-      return DIED;
+      cs.contrib[iface.filmChan0 + i] += st[Ray.W];
+      return Outcome.DIED;
     }
   }
   if (Tpow > 0 && sink >= 0) {
-    cs.contrib[sink] += st[W];
-    return DIED;
+    cs.contrib[sink] += st[Ray.W];
+    return Outcome.DIED;
   }
-  return Tpow <= 0 ? REFLECT : TRANSMIT;
+  return Tpow <= 0 ? Outcome.REFLECT : Outcome.TRANSMIT;
 }

@@ -1,6 +1,6 @@
 import type { RandomStream } from "../random/stream.js";
 import type { CompiledStack } from "./compiledStack.js";
-import { BUDGET_U, BULK, FACE, PASSES, PENDING, ANALOG, BRANCH_SERIAL, BRANCHES, DX, ENTERED, DY, DZ, EX, EY, EZ, L_COS_P, L_SIN_P, RAY_INDEX, TAU, W, X, Y, Z } from "./rayState.js";
+import { Ray } from "./rayState.js";
 
 /**
  * Pending branches of the ray in flight. In expected-value mode an interface event may split the
@@ -20,37 +20,37 @@ const B_HISTORY = 13;
 
 /** Whether another branch fits. */
 export function canBranch(st: Float64Array): boolean {
-  return st[BRANCHES] < MAX_BRANCHES;
+  return st[Ray.BRANCHES] < MAX_BRANCHES;
 }
 
 /** Saves the ray's current state as a pending branch (its medium is set by setBranchMedium). */
 export function pushBranch(cs: CompiledStack, st: Float64Array): void {
   const b = cs.branches;
-  const o = st[BRANCHES] * BRANCH_SLOTS;
-  b[o] = st[X];
-  b[o + 1] = st[Y];
-  b[o + 2] = st[Z];
-  b[o + 3] = st[DX];
-  b[o + 4] = st[DY];
-  b[o + 5] = st[DZ];
-  b[o + 6] = st[EX];
-  b[o + 7] = st[EY];
-  b[o + 8] = st[EZ];
-  b[o + 9] = st[W];
-  b[o + 10] = st[TAU];
-  b[o + 11] = st[ANALOG];
+  const o = st[Ray.BRANCHES] * BRANCH_SLOTS;
+  b[o] = st[Ray.X];
+  b[o + 1] = st[Ray.Y];
+  b[o + 2] = st[Ray.Z];
+  b[o + 3] = st[Ray.DX];
+  b[o + 4] = st[Ray.DY];
+  b[o + 5] = st[Ray.DZ];
+  b[o + 6] = st[Ray.EX];
+  b[o + 7] = st[Ray.EY];
+  b[o + 8] = st[Ray.EZ];
+  b[o + 9] = st[Ray.W];
+  b[o + 10] = st[Ray.TAU];
+  b[o + 11] = st[Ray.ANALOG];
   b[o + B_MEDIUM] = -1;
-  b[o + B_HISTORY] = st[ENTERED];
-  b[o + B_HISTORY + 1] = st[PASSES];
-  b[o + B_HISTORY + 2] = st[FACE];
-  b[o + B_HISTORY + 3] = st[BULK];
-  b[o + B_HISTORY + 4] = st[PENDING];
-  st[BRANCHES]++;
+  b[o + B_HISTORY] = st[Ray.ENTERED];
+  b[o + B_HISTORY + 1] = st[Ray.PASSES];
+  b[o + B_HISTORY + 2] = st[Ray.FACE];
+  b[o + B_HISTORY + 3] = st[Ray.BULK];
+  b[o + B_HISTORY + 4] = st[Ray.PENDING];
+  st[Ray.BRANCHES]++;
 }
 
 /** The medium of the branch pushed last. */
 export function setBranchMedium(cs: CompiledStack, st: Float64Array, m: number): void {
-  cs.branches[(st[BRANCHES] - 1) * BRANCH_SLOTS + B_MEDIUM] = m;
+  cs.branches[(st[Ray.BRANCHES] - 1) * BRANCH_SLOTS + B_MEDIUM] = m;
 }
 
 /**
@@ -59,33 +59,33 @@ export function setBranchMedium(cs: CompiledStack, st: Float64Array, m: number):
  * do not depend on how many the branches before it used (common random numbers stay paired).
  */
 export function popBranch(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
-  const n = st[BRANCHES] | 0;
+  const n = st[Ray.BRANCHES] | 0;
   if (n <= 0) return -1;
   const b = cs.branches;
   const o = (n - 1) * BRANCH_SLOTS;
-  st[X] = b[o];
-  st[Y] = b[o + 1];
-  st[Z] = b[o + 2];
-  st[DX] = b[o + 3];
-  st[DY] = b[o + 4];
-  st[DZ] = b[o + 5];
-  st[EX] = b[o + 6];
-  st[EY] = b[o + 7];
-  st[EZ] = b[o + 8];
-  st[W] = b[o + 9];
-  st[TAU] = b[o + 10];
-  st[ANALOG] = b[o + 11];
+  st[Ray.X] = b[o];
+  st[Ray.Y] = b[o + 1];
+  st[Ray.Z] = b[o + 2];
+  st[Ray.DX] = b[o + 3];
+  st[Ray.DY] = b[o + 4];
+  st[Ray.DZ] = b[o + 5];
+  st[Ray.EX] = b[o + 6];
+  st[Ray.EY] = b[o + 7];
+  st[Ray.EZ] = b[o + 8];
+  st[Ray.W] = b[o + 9];
+  st[Ray.TAU] = b[o + 10];
+  st[Ray.ANALOG] = b[o + 11];
   // A resumed budget may have been spent in part before the split (bulkTransport.ts, budgetFreePath).
-  st[BUDGET_U] = 0;
-  st[BRANCHES] = n - 1;
+  st[Ray.BUDGET_U] = 0;
+  st[Ray.BRANCHES] = n - 1;
   // the branch resumes the history it had at the split (history.ts)
-  st[ENTERED] = b[o + B_HISTORY];
-  st[PASSES] = b[o + B_HISTORY + 1];
-  st[FACE] = b[o + B_HISTORY + 2];
-  st[BULK] = b[o + B_HISTORY + 3];
-  st[PENDING] = b[o + B_HISTORY + 4];
-  st[BRANCH_SERIAL]++;
-  rng.startSubstream(st[RAY_INDEX] | 0, st[BRANCH_SERIAL] | 0);
+  st[Ray.ENTERED] = b[o + B_HISTORY];
+  st[Ray.PASSES] = b[o + B_HISTORY + 1];
+  st[Ray.FACE] = b[o + B_HISTORY + 2];
+  st[Ray.BULK] = b[o + B_HISTORY + 3];
+  st[Ray.PENDING] = b[o + B_HISTORY + 4];
+  st[Ray.BRANCH_SERIAL]++;
+  rng.startSubstream(st[Ray.RAY_INDEX] | 0, st[Ray.BRANCH_SERIAL] | 0);
   return b[o + B_MEDIUM] | 0;
 }
 
@@ -97,10 +97,10 @@ export function popBranch(cs: CompiledStack, st: Float64Array, rng: RandomStream
  * for every ray, where a random line of polarisation ψ makes it R_s cos²ψ + R_p sin²ψ.
  */
 export function splitPolarizationHalves(cs: CompiledStack, st: Float64Array, m: number): void {
-  st[W] = 0.5;
+  st[Ray.W] = 0.5;
   pushBranch(cs, st);
   setBranchMedium(cs, st, m);
-  st[EX] = st[L_SIN_P];
-  st[EY] = -st[L_COS_P];
-  st[EZ] = 0;
+  st[Ray.EX] = st[Ray.L_SIN_P];
+  st[Ray.EY] = -st[Ray.L_COS_P];
+  st[Ray.EZ] = 0;
 }

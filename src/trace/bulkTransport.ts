@@ -1,6 +1,6 @@
 import type { RandomStream } from "../random/stream.js";
 import { ROULETTE_WEIGHT, type CompiledStack } from "./compiledStack.js";
-import { ANALOG, ANALOG_PATH, BUDGET_U, BULK, DZ, FREE_PATH, PATH, T, TAU, W, Z } from "./rayState.js";
+import { Ray } from "./rayState.js";
 import { depositPoint, depositSegment } from "./depthTally.js";
 
 /**
@@ -13,7 +13,7 @@ import { depositPoint, depositSegment } from "./depthTally.js";
  * exponential.
  */
 export function absorbAlong(cs: CompiledStack, st: Float64Array, m: number, rng: RandomStream): boolean {
-  if (st[ANALOG] === 0 && cs.mediumAlphaPerUm[m] > 0 && expectedStretch(cs, st, m, rng)) return false;
+  if (st[Ray.ANALOG] === 0 && cs.mediumAlphaPerUm[m] > 0 && expectedStretch(cs, st, m, rng)) return false;
   return absorbAnalog(cs, st, m);
 }
 
@@ -23,9 +23,9 @@ export function absorbAlong(cs: CompiledStack, st: Float64Array, m: number, rng:
  * false is returned for absorbAnalog to take the stretch.
  */
 function expectedStretch(cs: CompiledStack, st: Float64Array, m: number, rng: RandomStream): boolean {
-  const lenUm = st[T];
+  const lenUm = st[Ray.T];
   const alpha = cs.mediumAlphaPerUm[m];
-  const w = st[W];
+  const w = st[Ray.W];
   const att = Math.exp(-alpha * lenUm);
   if (w * att < cs.estimatorSettings[ROULETTE_WEIGHT]) {
     drawBudget(st, rng);
@@ -33,15 +33,15 @@ function expectedStretch(cs: CompiledStack, st: Float64Array, m: number, rng: Ra
   }
   const dep = w - w * att;
   cs.contrib[cs.mediumChan[m]] += dep;
-  st[W] = w - dep;
+  st[Ray.W] = w - dep;
   if (m === cs.nLayers + 1) {
     // Path with the absorber's absorption removed (α → 0): every stretch at the weight the ray
     // would carry without it, w / BULK, BULK the product of the bulk survival factors so far.
-    st[FREE_PATH] += (w / st[BULK]) * lenUm;
-    st[BULK] *= att;
-    if (cs.depthEdgesUm !== null) depositSegment(cs, w, st[Z], lenUm, st[DZ], alpha);
+    st[Ray.FREE_PATH] += (w / st[Ray.BULK]) * lenUm;
+    st[Ray.BULK] *= att;
+    if (cs.depthEdgesUm !== null) depositSegment(cs, w, st[Ray.Z], lenUm, st[Ray.DZ], alpha);
     // Expected path length of the analog ray over this stretch: w(1 − e^−αL)/α.
-    st[PATH] += dep / alpha;
+    st[Ray.PATH] += dep / alpha;
   }
   return true;
 }
@@ -59,43 +59,43 @@ export function absorbAnalog(cs: CompiledStack, st: Float64Array, m: number): bo
     clearStretch(cs, st, m);
     return false;
   }
-  const lenUm = st[T];
+  const lenUm = st[Ray.T];
   const tau = alpha * lenUm;
-  if (tau >= st[TAU]) {
+  if (tau >= st[Ray.TAU]) {
     absorbedInStretch(cs, st, m);
     return true;
   }
-  st[TAU] -= tau;
+  st[Ray.TAU] -= tau;
   if (m === cs.nLayers + 1) {
-    st[PATH] += st[W] * lenUm;
-    st[ANALOG_PATH] += lenUm;
-  } else st[BUDGET_U] = 0;
+    st[Ray.PATH] += st[Ray.W] * lenUm;
+    st[Ray.ANALOG_PATH] += lenUm;
+  } else st[Ray.BUDGET_U] = 0;
   return false;
 }
 
 /** absorbAnalog through a medium that does not absorb: in the absorber (α = 0), its path. */
 function clearStretch(cs: CompiledStack, st: Float64Array, m: number): void {
   if (m !== cs.nLayers + 1) return;
-  const lenUm = st[T];
-  const w = st[W];
-  st[FREE_PATH] += (w / st[BULK]) * lenUm;
-  st[PATH] += w * lenUm;
+  const lenUm = st[Ray.T];
+  const w = st[Ray.W];
+  st[Ray.FREE_PATH] += (w / st[Ray.BULK]) * lenUm;
+  st[Ray.PATH] += w * lenUm;
 }
 
 /** absorbAnalog: the budget ran out in this stretch; the ray is absorbed in medium m there. */
 function absorbedInStretch(cs: CompiledStack, st: Float64Array, m: number): void {
-  const w = st[W];
+  const w = st[Ray.W];
   if (m === cs.nLayers + 1) {
     const alpha = cs.mediumAlphaPerUm[m];
-    const s = st[TAU] / alpha;
-    st[PATH] += w * s;
-    if (cs.depthEdgesUm !== null) depositPoint(cs, w, st[Z], s, st[DZ]);
-    const u = st[BUDGET_U];
+    const s = st[Ray.TAU] / alpha;
+    st[Ray.PATH] += w * s;
+    if (cs.depthEdgesUm !== null) depositPoint(cs, w, st[Ray.Z], s, st[Ray.DZ]);
+    const u = st[Ray.BUDGET_U];
     if (u > 0) {
       // The whole budget went in the absorber: its α → 0 path without an exponential (endAnalogPath).
-      st[FREE_PATH] += (w / st[BULK]) * budgetFreePath(u, alpha);
-      st[ANALOG_PATH] = 0;
-    } else st[ANALOG_PATH] += s;
+      st[Ray.FREE_PATH] += (w / st[Ray.BULK]) * budgetFreePath(u, alpha);
+      st[Ray.ANALOG_PATH] = 0;
+    } else st[Ray.ANALOG_PATH] += s;
   }
   cs.contrib[cs.mediumChan[m]] += w;
 }
@@ -109,11 +109,11 @@ function absorbedInStretch(cs: CompiledStack, st: Float64Array, m: number): void
  * per branch instead of one per stretch. (Absorption in other media acts on both rays alike.)
  */
 export function endAnalogPath(cs: CompiledStack, st: Float64Array): void {
-  const lenUm = st[ANALOG_PATH];
+  const lenUm = st[Ray.ANALOG_PATH];
   if (lenUm === 0) return;
-  st[ANALOG_PATH] = 0;
+  st[Ray.ANALOG_PATH] = 0;
   const alpha = cs.mediumAlphaPerUm[cs.nLayers + 1];
-  st[FREE_PATH] += (st[W] / st[BULK]) * (Math.expm1(alpha * lenUm) / alpha);
+  st[Ray.FREE_PATH] += (st[Ray.W] / st[Ray.BULK]) * (Math.expm1(alpha * lenUm) / alpha);
 }
 
 /**
@@ -128,14 +128,14 @@ export function budgetFreePath(u: number, alphaPerUm: number): number {
 /** The ray turns analog: a fresh optical-depth budget −ln u. */
 function drawBudget(st: Float64Array, rng: RandomStream): void {
   const u = rng.next();
-  st[ANALOG] = 1;
-  st[TAU] = -Math.log(u);
-  st[BUDGET_U] = u;
+  st[Ray.ANALOG] = 1;
+  st[Ray.TAU] = -Math.log(u);
+  st[Ray.BUDGET_U] = u;
 }
 
 /** Expected-value mode: turn analog once the weight is small (see absorbAlong). */
 export function rouletteCheck(cs: CompiledStack, st: Float64Array, rng: RandomStream): void {
-  if (st[ANALOG] === 0 && st[W] < cs.estimatorSettings[ROULETTE_WEIGHT]) {
+  if (st[Ray.ANALOG] === 0 && st[Ray.W] < cs.estimatorSettings[ROULETTE_WEIGHT]) {
     drawBudget(st, rng);
   }
 }

@@ -1,5 +1,5 @@
 import type { CompiledStack } from "./compiledStack.js";
-import { ANALOG_PATH, BULK, DZ, ENTERED_W, ESCAPED, FACE, FREE_PATH, INCIDENT, MAX_PASS, PASSES, PENDING, TAIL, W } from "./rayState.js";
+import { Ray } from "./rayState.js";
 import { DIAG_ENTERED, DIAG_ESCAPE_ANGLE, DIAG_FREE_PATH, DIAG_R_TOTAL, DIAG_T_TOTAL, ESCAPE_ANGLE_BIN_DEG, ESCAPE_ANGLE_BINS, MAX_PASSES, diagPassOffset } from "./tallyLayout.js";
 
 /**
@@ -30,26 +30,26 @@ const EDGE_COS = Float64Array.from({ length: ESCAPE_ANGLE_BINS + 1 }, (_, b) => 
 
 /** A new ray arriving at `incidentFace` (FACE_FRONT or FACE_REAR): no pass, no face, nothing entered. */
 export function resetHistory(st: Float64Array, incidentFace: number): void {
-  st[INCIDENT] = incidentFace;
-  st[ENTERED_W] = 0;
-  st[FREE_PATH] = 0;
-  st[TAIL] = 0;
-  st[MAX_PASS] = 0;
-  st[ESCAPED] = 0;
-  st[PASSES] = 0;
-  st[FACE] = FACE_NONE;
-  st[BULK] = 1;
-  st[ANALOG_PATH] = 0;
-  st[PENDING] = 0;
+  st[Ray.INCIDENT] = incidentFace;
+  st[Ray.ENTERED_W] = 0;
+  st[Ray.FREE_PATH] = 0;
+  st[Ray.TAIL] = 0;
+  st[Ray.MAX_PASS] = 0;
+  st[Ray.ESCAPED] = 0;
+  st[Ray.PASSES] = 0;
+  st[Ray.FACE] = FACE_NONE;
+  st[Ray.BULK] = 1;
+  st[Ray.ANALOG_PATH] = 0;
+  st[Ray.PENDING] = 0;
 }
 
 /** The ray crossed `face` (FACE_FRONT / FACE_REAR) into the absorber (with its weight st[W]). */
 export function enterAbsorber(st: Float64Array, face: number): void {
-  if (st[PASSES] === 0) {
-    st[PASSES] = 1;
-    st[ENTERED_W] += st[W];
+  if (st[Ray.PASSES] === 0) {
+    st[Ray.PASSES] = 1;
+    st[Ray.ENTERED_W] += st[Ray.W];
   }
-  st[FACE] = face;
+  st[Ray.FACE] = face;
 }
 
 /**
@@ -58,7 +58,7 @@ export function enterAbsorber(st: Float64Array, face: number): void {
  * first pass (the pass counter reads 2 there).
  */
 export function leavesFirst(st: Float64Array, face: number): boolean {
-  return face === st[INCIDENT] ? st[PASSES] === 0 : st[PASSES] <= 2;
+  return face === st[Ray.INCIDENT] ? st[Ray.PASSES] === 0 : st[Ray.PASSES] <= 2;
 }
 
 /** Channel of light leaving through the rear now: T_first or T_escape. */
@@ -71,10 +71,10 @@ export function rearExitChannel(cs: CompiledStack, st: Float64Array): number {
  * pass (the other face was touched last), else 0.
  */
 export function arriveAtFace(st: Float64Array, face: number): number {
-  if (st[FACE] === face) return 0;
-  st[FACE] = face;
-  st[PASSES] += 1;
-  st[PENDING] = 1;
+  if (st[Ray.FACE] === face) return 0;
+  st[Ray.FACE] = face;
+  st[Ray.PASSES] += 1;
+  st[Ray.PENDING] = 1;
   return 1;
 }
 
@@ -86,20 +86,20 @@ export function arriveAtFace(st: Float64Array, face: number): number {
  * and light that hits a second facet and leaves does not.
  */
 export function departFace(cs: CompiledStack, st: Float64Array): void {
-  if (st[PENDING] !== 0) endPass(cs, st);
+  if (st[Ray.PENDING] !== 0) endPass(cs, st);
 }
 
 /** departFace when the face ended a pass: the power still inside is that pass's. */
 function endPass(cs: CompiledStack, st: Float64Array): void {
-  st[PENDING] = 0;
-  const w = st[W];
-  const k = st[PASSES] - 1; // passes completed
+  st[Ray.PENDING] = 0;
+  const w = st[Ray.W];
+  const k = st[Ray.PASSES] - 1; // passes completed
   if (k > MAX_PASSES) {
-    st[TAIL] += w;
+    st[Ray.TAIL] += w;
     return;
   }
   cs.rayPasses[k - 1] += w;
-  if (k > st[MAX_PASS]) st[MAX_PASS] = k;
+  if (k > st[Ray.MAX_PASS]) st[Ray.MAX_PASS] = k;
 }
 
 /**
@@ -107,8 +107,8 @@ function endPass(cs: CompiledStack, st: Float64Array): void {
  * R_escape power is also binned by the polar angle of its direction (cosθ = st[DZ]).
  */
 export function leaveFront(cs: CompiledStack, st: Float64Array): void {
-  const w = st[W];
-  const cosTheta = st[DZ];
+  const w = st[Ray.W];
+  const cosTheta = st[Ray.DZ];
   if (leavesFirst(st, FACE_FRONT)) {
     cs.contrib[cs.chRFirst] += w;
     return;
@@ -118,7 +118,7 @@ export function leaveFront(cs: CompiledStack, st: Float64Array): void {
   let bin = 0;
   while (bin < ESCAPE_ANGLE_BINS - 1 && cosTheta <= EDGE_COS[bin + 1]) bin++;
   cs.rayEscape[bin] += w;
-  st[ESCAPED] = st[ESCAPED] | (1 << bin);
+  st[Ray.ESCAPED] = st[Ray.ESCAPED] | (1 << bin);
 }
 
 /**
@@ -134,14 +134,14 @@ export function foldHistory(cs: CompiledStack, st: Float64Array): void {
   const tr = c[cs.chTFirst] + c[cs.chTEscape];
   d[DIAG_T_TOTAL] += tr;
   d[DIAG_T_TOTAL + 1] += tr * tr;
-  const e = st[ENTERED_W];
+  const e = st[Ray.ENTERED_W];
   if (e !== 0) {
     d[DIAG_ENTERED] += e;
     d[DIAG_ENTERED + 1] += e * e;
   }
   foldHistoryFractions(cs, st);
   const p = cs.rayPasses;
-  for (let k = 1; k <= st[MAX_PASS]; k++) {
+  for (let k = 1; k <= st[Ray.MAX_PASS]; k++) {
     const v = p[k - 1];
     const o = diagPassOffset(k);
     d[o] += v;
@@ -149,7 +149,7 @@ export function foldHistory(cs: CompiledStack, st: Float64Array): void {
     p[k - 1] = 0;
   }
   // Only the escape-angle bins the ray touched (a bit each in st[ESCAPED]).
-  let touched = st[ESCAPED] | 0;
+  let touched = st[Ray.ESCAPED] | 0;
   if (touched !== 0) {
     const a = cs.rayEscape;
     while (touched !== 0) {
@@ -173,12 +173,12 @@ export function foldHistory(cs: CompiledStack, st: Float64Array): void {
 export function foldHistoryFractions(cs: CompiledStack, st: Float64Array): void {
   const d = cs.diag;
   // The thickness's inverse from the stack, not as an argument: a double passed to code that is not inlined is boxed.
-  const f = st[FREE_PATH] * cs.invThicknessUm;
+  const f = st[Ray.FREE_PATH] * cs.invThicknessUm;
   if (f !== 0) {
     d[DIAG_FREE_PATH] += f;
     d[DIAG_FREE_PATH + 1] += f * f;
   }
-  const t = st[TAIL];
+  const t = st[Ray.TAIL];
   if (t !== 0) {
     const o = diagPassOffset(MAX_PASSES + 1);
     d[o] += t;

@@ -1,7 +1,7 @@
 import type { RandomStream } from "../random/stream.js";
 import { REAR_IDEAL_MIRROR, type CompiledStack } from "./compiledStack.js";
 import { rouletteCheck } from "./bulkTransport.js";
-import { ANALOG, DX, DY, DZ, EX, EY, EZ, PA, PB, W } from "./rayState.js";
+import { Ray } from "./rayState.js";
 import { cosSinOfTurn } from "./turnTrig.js";
 
 /**
@@ -18,8 +18,8 @@ export function idealRear(cs: CompiledStack, st: Float64Array, rng: RandomStream
 function leaveIdealRear(cs: CompiledStack, st: Float64Array, rng: RandomStream): void {
   if (cs.rearKind === REAR_IDEAL_MIRROR) {
     // Specular at a horizontal plane: z flips; the polarisation keeps its line (r_s = r_p).
-    st[DZ] = -st[DZ];
-    st[EZ] = -st[EZ];
+    st[Ray.DZ] = -st[Ray.DZ];
+    st[Ray.EZ] = -st[Ray.EZ];
   } else {
     lambertianDirection(st, 1, rng);
     randomPolarization(st, rng);
@@ -35,7 +35,7 @@ function leaveIdealRear(cs: CompiledStack, st: Float64Array, rng: RandomStream):
  */
 export function idealRearAnalog(cs: CompiledStack, st: Float64Array, rng: RandomStream): boolean {
   if (rng.next() >= cs.rearReflectance) {
-    cs.contrib[cs.chRear] += st[W];
+    cs.contrib[cs.chRear] += st[Ray.W];
     return true;
   }
   leaveIdealRear(cs, st, rng);
@@ -53,8 +53,8 @@ export function backsheetEvent(cs: CompiledStack, st: Float64Array, rng: RandomS
     lambertianDirection(st, 1, rng);
     randomPolarization(st, rng);
   } else {
-    st[DZ] = -st[DZ];
-    st[EZ] = -st[EZ];
+    st[Ray.DZ] = -st[Ray.DZ];
+    st[Ray.EZ] = -st[Ray.EZ];
   }
   return false;
 }
@@ -68,17 +68,17 @@ function absorbAtReflector(cs: CompiledStack, st: Float64Array, rng: RandomStrea
   // The reflectance is read here, not passed: a double passed to code that is not inlined is boxed.
   const r = backsheet ? cs.backsheetReflectance : cs.rearReflectance;
   const u = rng.next();
-  if (st[ANALOG] !== 0) {
+  if (st[Ray.ANALOG] !== 0) {
     if (u >= r) {
-      cs.contrib[cs.chRear] += st[W];
+      cs.contrib[cs.chRear] += st[Ray.W];
       return true;
     }
     return false;
   }
-  const dep = st[W] * (1 - r);
+  const dep = st[Ray.W] * (1 - r);
   cs.contrib[cs.chRear] += dep;
-  st[W] -= dep;
-  if (!(st[W] > 0)) return true;
+  st[Ray.W] -= dep;
+  if (!(st[Ray.W] > 0)) return true;
   rouletteCheck(cs, st, rng);
   return false;
 }
@@ -101,15 +101,15 @@ export function lambertianFrontFromBelow(cs: CompiledStack, st: Float64Array, rn
 export function lambertianDirection(st: Float64Array, zSign: number, rng: RandomStream): void {
   const cosT = Math.sqrt(rng.next());
   const sinT = Math.sqrt(1 - cosT * cosT);
-  cosSinOfTurn(st, rng.next(), DX, DY);
-  st[DX] *= sinT;
-  st[DY] *= sinT;
-  st[DZ] = zSign * cosT;
+  cosSinOfTurn(st, rng.next(), Ray.DX, Ray.DY);
+  st[Ray.DX] *= sinT;
+  st[Ray.DY] *= sinT;
+  st[Ray.DZ] = zSign * cosT;
 }
 
 /** Uniformly random line of polarisation ⊥ d. */
 export function randomPolarization(st: Float64Array, rng: RandomStream): void {
-  const dx = st[DX], dy = st[DY], dz = st[DZ];
+  const dx = st[Ray.DX], dy = st[Ray.DY], dz = st[Ray.DZ];
   // e1 = normalise(a × d) with a the axis least aligned with d; e2 = d × e1.
   let e1x: number, e1y: number, e1z: number;
   if (Math.abs(dx) < 0.9) {
@@ -126,9 +126,9 @@ export function randomPolarization(st: Float64Array, rng: RandomStream): void {
   e1y /= l;
   e1z /= l;
   const e2x = dy * e1z - dz * e1y, e2y = dz * e1x - dx * e1z, e2z = dx * e1y - dy * e1x;
-  cosSinOfTurn(st, rng.next(), PA, PB);
-  const c = st[PA], s = st[PB];
-  st[EX] = c * e1x + s * e2x;
-  st[EY] = c * e1y + s * e2y;
-  st[EZ] = c * e1z + s * e2z;
+  cosSinOfTurn(st, rng.next(), Ray.PA, Ray.PB);
+  const c = st[Ray.PA], s = st[Ray.PB];
+  st[Ray.EX] = c * e1x + s * e2x;
+  st[Ray.EY] = c * e1y + s * e2y;
+  st[Ray.EZ] = c * e1z + s * e2z;
 }

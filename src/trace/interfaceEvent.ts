@@ -3,7 +3,7 @@ import { interfacePowers } from "../optics/interfaceTable.js";
 import { ESCAPE_SPLIT_MIN_WEIGHT, SPLIT_MIN_WEIGHT, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
 import { rouletteCheck } from "./bulkTransport.js";
 import { canBranch, pushBranch } from "./branches.js";
-import { ANALOG, DIED, ENTERED, EP, ES, INCIDENT, SPLIT, DX, DY, DZ, EX, EY, EZ, NX, NY, NZ, PA, PB, REFLECT, SX, SY, SZ, TRANSMIT, W } from "./rayState.js";
+import { Ray, Outcome } from "./rayState.js";
 import { FACE_REAR, rearExitChannel } from "./history.js";
 import { analogInterfaceEvent } from "./analogInterfaceEvent.js";
 
@@ -15,9 +15,9 @@ import { analogInterfaceEvent } from "./analogInterfaceEvent.js";
  * (√R, √T of each part; phase and ellipticity neglected).
  */
 export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: CompiledInterface, rng: RandomStream): number {
-  if (st[ANALOG] !== 0) return analogInterfaceEvent(cs, st, iface, rng);
-  const dx = st[DX], dy = st[DY], dz = st[DZ];
-  const nx = st[NX], ny = st[NY], nz = st[NZ];
+  if (st[Ray.ANALOG] !== 0) return analogInterfaceEvent(cs, st, iface, rng);
+  const dx = st[Ray.DX], dy = st[Ray.DY], dz = st[Ray.DZ];
+  const nx = st[Ray.NX], ny = st[Ray.NY], nz = st[Ray.NZ];
   const dn = dx * nx + dy * ny + dz * nz;
   const up = dn > 0;
   const cosI = up ? dn : -dn;
@@ -29,7 +29,7 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   let sy = dz * nx - dx * nz;
   let sz = dx * ny - dy * nx;
   const sl = Math.sqrt(sx * sx + sy * sy + sz * sz);
-  const ex = st[EX], ey = st[EY], ez = st[EZ];
+  const ex = st[Ray.EX], ey = st[Ray.EY], ez = st[Ray.EZ];
   if (sl > 1e-12) {
     const inv = 1 / sl;
     sx *= inv;
@@ -44,11 +44,11 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   const Es = ex * sx + ey * sy + ez * sz;
   const Ep = ex * (sy * dz - sz * dy) + ey * (sz * dx - sx * dz) + ez * (sx * dy - sy * dx);
   // The outcome helpers read s and the amplitudes from the state (no doubles as call arguments).
-  st[SX] = sx;
-  st[SY] = sy;
-  st[SZ] = sz;
-  st[ES] = Es;
-  st[EP] = Ep;
+  st[Ray.SX] = sx;
+  st[Ray.SY] = sy;
+  st[Ray.SZ] = sz;
+  st[Ray.ES] = Es;
+  st[Ray.EP] = Ep;
   const e2 = Es * Es + Ep * Ep;
   const fs = e2 > 0 ? (Es * Es) / e2 : 1;
   const fp = 1 - fs;
@@ -63,7 +63,7 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   // Total reflection (Rpow = 1) needs no random number: u = 0 reflects (as in the analog event).
   const u = Rpow < 1 ? rng.next() : 0;
   // Expected value: absorption in films (and in a sink below) is tallied as weight.
-  const w = st[W];
+  const w = st[Ray.W];
   let dep = 0;
   for (let i = 0; i < nF; i++) {
     const d = w * (fs * row[4 + i] + fp * row[4 + nF + i]);
@@ -80,7 +80,7 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   const wNew = w - dep;
   if (!(wNew > 0) || Rpow + pT <= 0) {
     if (wNew > 0) contrib[sink >= 0 ? sink : iface.filmChan0 >= 0 ? iface.filmChan0 : cs.chUnresolved] += wNew;
-    return DIED;
+    return Outcome.DIED;
   }
   const pR = Rpow / (Rpow + pT);
   // Split on the way in (events met travelling away from the side the light came from, before the
@@ -89,31 +89,31 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   // expected value instead of a coin toss; later events stay sampled, where splitting would grow
   // trees of little weight.
   const settings = cs.estimatorSettings;
-  const floor = up === (st[INCIDENT] === FACE_REAR) && st[ENTERED] === 0 ? settings[SPLIT_MIN_WEIGHT] : st[ENTERED] !== 0 && (up ? iface === cs.front : iface === cs.rear) ? settings[ESCAPE_SPLIT_MIN_WEIGHT] : 0;
+  const floor = up === (st[Ray.INCIDENT] === FACE_REAR) && st[Ray.ENTERED] === 0 ? settings[SPLIT_MIN_WEIGHT] : st[Ray.ENTERED] !== 0 && (up ? iface === cs.front : iface === cs.rear) ? settings[ESCAPE_SPLIT_MIN_WEIGHT] : 0;
   if (floor > 0 && wNew * (pR < 0.5 ? pR : 1 - pR) >= floor && canBranch(st)) {
     reflectInto(st, row);
-    st[W] = wNew * pR;
+    st[Ray.W] = wNew * pR;
     pushBranch(cs, st);
     // Back to the incoming direction for the transmitted part.
-    st[DX] = dx;
-    st[DY] = dy;
-    st[DZ] = dz;
-    st[W] = wNew * (1 - pR);
+    st[Ray.DX] = dx;
+    st[Ray.DY] = dy;
+    st[Ray.DZ] = dz;
+    st[Ray.W] = wNew * (1 - pR);
     transmitInto(st, row, iface, up);
-    return SPLIT;
+    return Outcome.SPLIT;
   }
-  st[W] = wNew;
+  st[Ray.W] = wNew;
   const reflect = u * (Rpow + pT) < Rpow;
   // Roulette is for the bulk: before the absorber, small branches stay expected-value (the split
   // weight floor bounds their number) so that later events of the first pass are split too.
-  if (st[ENTERED] !== 0) rouletteCheck(cs, st, rng);
+  if (st[Ray.ENTERED] !== 0) rouletteCheck(cs, st, rng);
 
   if (reflect) {
     reflectInto(st, row);
-    return REFLECT;
+    return Outcome.REFLECT;
   }
   transmitInto(st, row, iface, up);
-  return TRANSMIT;
+  return Outcome.TRANSMIT;
 }
 
 /**
@@ -121,20 +121,20 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
  * it from s and the amplitudes in the state and Rs, Rp from the interface row.
  */
 function reflectInto(st: Float64Array, row: Float64Array): void {
-  const dx = st[DX], dy = st[DY], dz = st[DZ], nx = st[NX], ny = st[NY], nz = st[NZ];
+  const dx = st[Ray.DX], dy = st[Ray.DY], dz = st[Ray.DZ], nx = st[Ray.NX], ny = st[Ray.NY], nz = st[Ray.NZ];
   const dn = dx * nx + dy * ny + dz * nz;
-  st[DX] = dx - 2 * dn * nx;
-  st[DY] = dy - 2 * dn * ny;
-  st[DZ] = dz - 2 * dn * nz;
+  st[Ray.DX] = dx - 2 * dn * nx;
+  st[Ray.DY] = dy - 2 * dn * ny;
+  st[Ray.DZ] = dz - 2 * dn * nz;
   // E' = √Rs·Es·s − √Rp·Ep·p_r (keeps the line of polarisation at normal incidence).
-  st[PA] = st[ES] * Math.sqrt(row[0]);
-  st[PB] = -st[EP] * Math.sqrt(row[1]);
+  st[Ray.PA] = st[Ray.ES] * Math.sqrt(row[0]);
+  st[Ray.PB] = -st[Ray.EP] * Math.sqrt(row[1]);
   setPolarization(st);
 }
 
 /** Refraction of the direction d (state) at the normal n (state), Snell, with the polarisation after it (Ts, Tp from the row). */
 function transmitInto(st: Float64Array, row: Float64Array, iface: CompiledInterface, up: boolean): void {
-  const dx = st[DX], dy = st[DY], dz = st[DZ], nx = st[NX], ny = st[NY], nz = st[NZ];
+  const dx = st[Ray.DX], dy = st[Ray.DY], dz = st[Ray.DZ], nx = st[Ray.NX], ny = st[Ray.NY], nz = st[Ray.NZ];
   const dn = dx * nx + dy * ny + dz * nz;
   const cosI = dn > 0 ? dn : -dn;
   // Snell (real indices): t = η d + (η cosθi − cosθt) n_i, n_i the normal facing the incoming ray.
@@ -146,17 +146,17 @@ function transmitInto(st: Float64Array, row: Float64Array, iface: CompiledInterf
   const k = (eta * cosI - cosTr) * (up ? -1 : 1);
   const tx = eta * dx + k * nx, ty = eta * dy + k * ny, tz = eta * dz + k * nz;
   const inv = 1 / Math.sqrt(tx * tx + ty * ty + tz * tz);
-  st[DX] = tx * inv;
-  st[DY] = ty * inv;
-  st[DZ] = tz * inv;
-  st[PA] = st[ES] * Math.sqrt(row[2]);
-  st[PB] = st[EP] * Math.sqrt(row[3]);
+  st[Ray.DX] = tx * inv;
+  st[Ray.DY] = ty * inv;
+  st[Ray.DZ] = tz * inv;
+  st[Ray.PA] = st[Ray.ES] * Math.sqrt(row[2]);
+  st[Ray.PB] = st[Ray.EP] * Math.sqrt(row[3]);
   setPolarization(st);
 }
 
 /** E = a·s + b·(s × d) from the state slots (d = the new direction), normalised; s when both vanish. */
 function setPolarization(st: Float64Array): void {
-  const sx = st[SX], sy = st[SY], sz = st[SZ], dx = st[DX], dy = st[DY], dz = st[DZ], a = st[PA], b = st[PB];
+  const sx = st[Ray.SX], sy = st[Ray.SY], sz = st[Ray.SZ], dx = st[Ray.DX], dy = st[Ray.DY], dz = st[Ray.DZ], a = st[Ray.PA], b = st[Ray.PB];
   let ex = a * sx + b * (sy * dz - sz * dy);
   let ey = a * sy + b * (sz * dx - sx * dz);
   let ez = a * sz + b * (sx * dy - sy * dx);
@@ -171,7 +171,7 @@ function setPolarization(st: Float64Array): void {
     ey = sy;
     ez = sz;
   }
-  st[EX] = ex;
-  st[EY] = ey;
-  st[EZ] = ez;
+  st[Ray.EX] = ex;
+  st[Ray.EY] = ey;
+  st[Ray.EZ] = ez;
 }

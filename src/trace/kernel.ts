@@ -3,7 +3,7 @@ import type { RandomStream } from "../random/stream.js";
 import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
 import { SURFACE_LAMBERTIAN, SURFACE_MESH } from "../geometry/surfaceTile.js";
 import { ANALOG_FROM_THETA_DEG, POLARIZATION_SPLIT_FROM_THETA_DEG, REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack, type Estimator } from "./compiledStack.js";
-import { BATCH_ANALOG, BRANCH_SERIAL, BRANCHES, DIED, DZ, ENTERED, EVENTS, FACE, HIT, L_COS_P, L_SIN_P, RAY_INDEX, SPLIT, T, TRANSMIT, W, Z, advance, setNormal } from "./rayState.js";
+import { Ray, Outcome, HIT, advance, setNormal } from "./rayState.js";
 import { popBranch, setBranchMedium, splitPolarizationHalves } from "./branches.js";
 import { cosSinOfTurn } from "./turnTrig.js";
 import { launchRay, polarizationMode, setLaunchAngles, setLaunchAzimuth, type Polarization } from "./launch.js";
@@ -83,23 +83,23 @@ export function traceBatch(
   const st = cs.state;
   // Batch sums [events, Σp, Σp²] (rayFold.ts), and two slots of the bare-cell loop's (analogCell.ts).
   const sums = new Float64Array(5);
-  st[BATCH_ANALOG] = estimatorAt(cs, thetaDeg) === "analog" ? 1 : 0;
+  st[Ray.BATCH_ANALOG] = estimatorAt(cs, thetaDeg) === "analog" ? 1 : 0;
   setLaunchAngles(st, Math.sin(thetaDeg * DEG), Math.cos(thetaDeg * DEG));
   if (phiDeg !== null) setLaunchAzimuth(st, phiDeg * DEG);
-  if (st[BATCH_ANALOG] !== 0 && !fromRear && cs.analogCellLoop) {
+  if (st[Ray.BATCH_ANALOG] !== 0 && !fromRear && cs.analogCellLoop) {
     traceAnalogCellRays(cs, nRays, rng, tally, polMode, launch, phiDeg === null, sums);
   } else {
     const u = launch === null ? null : launch.u;
     // Unpolarised expected-value light where the stack says so (estimatorChoice.ts): each ray as its
     // p half (launched, then waiting as a branch) and its s half (traceRay).
-    const halves = polMode === 0 && !fromRear && st[BATCH_ANALOG] === 0 && thetaDeg >= cs.estimatorSettings[POLARIZATION_SPLIT_FROM_THETA_DEG];
+    const halves = polMode === 0 && !fromRear && st[Ray.BATCH_ANALOG] === 0 && thetaDeg >= cs.estimatorSettings[POLARIZATION_SPLIT_FROM_THETA_DEG];
     const launchPol = halves ? 2 : polMode;
     for (let r = 0; r < nRays; r++) {
       // One substream per ray: rays stay paired across stacks traced with the same stream (CRN).
       rng.startSubstream(r);
-      st[RAY_INDEX] = r;
+      st[Ray.RAY_INDEX] = r;
       if (launch !== null) launch.load(r);
-      if (phiDeg === null) cosSinOfTurn(st, u === null ? rng.next() : u[3], L_COS_P, L_SIN_P);
+      if (phiDeg === null) cosSinOfTurn(st, u === null ? rng.next() : u[3], Ray.L_COS_P, Ray.L_SIN_P);
       launchRay(cs, launchPol, rng, fromRear, u);
       resetHistory(st, fromRear ? FACE_REAR : FACE_FRONT);
       traceRay(cs, rng, startMedium, halves);
@@ -119,23 +119,23 @@ function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number, hal
   const nL = cs.nLayers;
   const ABS = nL + 1;
   const maxEvents = cs.maxEvents;
-  st[EVENTS] = 0;
-  st[BRANCHES] = 0;
-  st[BRANCH_SERIAL] = 0;
-  st[ENTERED] = 0;
+  st[Ray.EVENTS] = 0;
+  st[Ray.BRANCHES] = 0;
+  st[Ray.BRANCH_SERIAL] = 0;
+  st[Ray.ENTERED] = 0;
   if (halves) splitPolarizationHalves(cs, st, startMedium);
   let m = startMedium;
   for (;;) {
     let next: number;
-    if (st[EVENTS] >= maxEvents) {
+    if (st[Ray.EVENTS] >= maxEvents) {
       next = RAY_LOST;
     } else if (m === ABS) {
       // Inside the absorber the ray usually stays for several events (reflections at both faces):
       // stay in this loop while it does (as the outer loop would: entered, event budget checked there).
       for (;;) {
         next = stepInAbsorber(cs, st, rng);
-        if (next !== ABS || st[EVENTS] >= maxEvents) break;
-        st[ENTERED] = 1;
+        if (next !== ABS || st[Ray.EVENTS] >= maxEvents) break;
+        st[Ray.ENTERED] = 1;
       }
     } else if (m > ABS) {
       next = m === ABS + 1 ? stepOntoRear(cs, st, m, rng) : NOT_AT_TEXTURE;
@@ -143,21 +143,21 @@ function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number, hal
     } else {
       next = NOT_AT_TEXTURE;
       // the outer glass texture: from above, from the glass going up, or inside its slab
-      if (cs.outerTile !== null && m <= 1 && (m === 0 || st[DZ] > 0 || st[Z] > cs.layerTopZUm[1] + cs.outerTile.zMinUm)) {
+      if (cs.outerTile !== null && m <= 1 && (m === 0 || st[Ray.DZ] > 0 || st[Ray.Z] > cs.layerTopZUm[1] + cs.outerTile.zMinUm)) {
         next = stepAtOuterTexture(cs, st, m, rng);
       }
       if (next === NOT_AT_TEXTURE && m === nL) next = stepOntoFront(cs, st, rng);
       if (next === NOT_AT_TEXTURE) next = stepInPlanarLayer(cs, st, m, rng);
     }
     if (next >= 0) {
-      if (next === ABS) st[ENTERED] = 1;
+      if (next === ABS) st[Ray.ENTERED] = 1;
       m = next;
       continue;
     }
     // This branch ended: a lost one reports its weight; then the next pending branch, if any.
-    if (next === RAY_LOST) cs.contrib[cs.chUnresolved] += st[W];
+    if (next === RAY_LOST) cs.contrib[cs.chUnresolved] += st[Ray.W];
     endAnalogPath(cs, st);
-    if (st[BRANCHES] === 0) return;
+    if (st[Ray.BRANCHES] === 0) return;
     m = popBranch(cs, st, rng);
   }
 }
@@ -172,9 +172,9 @@ function stepInAbsorber(cs: CompiledStack, st: Float64Array, rng: RandomStream):
   const ABS = cs.nLayers + 1;
   const rearMesh = cs.rearTile.kind === SURFACE_MESH;
   // Going up after the rear: the next pass has begun (history.ts).
-  if (st[DZ] > 0 && st[FACE] === FACE_REAR) departFace(cs, st);
+  if (st[Ray.DZ] > 0 && st[Ray.FACE] === FACE_REAR) departFace(cs, st);
   let atRear = false;
-  if (st[DZ] > 0 && rearMesh && st[Z] < -cs.thicknessUm - cs.rearTile.zMinUm) {
+  if (st[Ray.DZ] > 0 && rearMesh && st[Ray.Z] < -cs.thicknessUm - cs.rearTile.zMinUm) {
     const inRear = rearSearch(cs, st);
     if (inRear === LOST) return RAY_LOST;
     atRear = inRear === HIT;
@@ -184,7 +184,7 @@ function stepInAbsorber(cs: CompiledStack, st: Float64Array, rng: RandomStream):
     if (found === LOST) return RAY_LOST;
     if (found !== HIT) {
       // Heading for the rear, clear of the front texture: the next pass has begun.
-      if (st[FACE] === FACE_FRONT) departFace(cs, st);
+      if (st[Ray.FACE] === FACE_FRONT) departFace(cs, st);
       const toRear = rearMesh ? rearSearch(cs, st) : planarRearSearch(cs, st);
       if (toRear === LOST) return RAY_LOST;
       // Left the rear texture's slab upward; with a planar rear, a ray parallel to the faces.
@@ -194,7 +194,7 @@ function stepInAbsorber(cs: CompiledStack, st: Float64Array, rng: RandomStream):
   }
   if (absorbAlong(cs, st, ABS, rng)) return RAY_ENDED;
   advance(st);
-  st[EVENTS]++;
+  st[Ray.EVENTS]++;
   arriveAtFace(st, atRear ? FACE_REAR : FACE_FRONT);
   if (atRear) return rearEvent(cs, st, rng);
   if (cs.frontTile.kind === SURFACE_LAMBERTIAN) return lambertianFrontFromBelow(cs, st, rng) ? cs.nLayers : ABS;
@@ -219,7 +219,7 @@ function stepOntoRear(cs: CompiledStack, st: Float64Array, m: number, rng: Rando
   if (found !== HIT) return NOT_AT_TEXTURE;
   if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
   advance(st);
-  st[EVENTS]++;
+  st[Ray.EVENTS]++;
   const next = afterInterface(cs, st, interfaceEvent(cs, st, cs.rear as CompiledInterface, rng), m, m - 1);
   if (next === m - 1) enterAbsorber(st, FACE_REAR);
   return next;
@@ -230,11 +230,11 @@ function stepOntoRear(cs: CompiledStack, st: Float64Array, m: number, rng: Rando
  * layer above) or the medium behind the rear (down: escape into T; up: onto the last rear layer).
  */
 function stepBehindAbsorber(cs: CompiledStack, st: Float64Array, m: number, rng: RandomStream): number {
-  const vz = st[DZ];
+  const vz = st[Ray.DZ];
   const j = m - cs.nLayers - 2; // rear layer index; cs.nRear for the outer medium
   if (vz < 0) {
     if (m === cs.outerMedium) {
-      cs.contrib[rearExitChannel(cs, st)] += st[W];
+      cs.contrib[rearExitChannel(cs, st)] += st[Ray.W];
       return RAY_ENDED;
     }
     if (reachPlane(cs, st, m, cs.rearBottomZUm[j], rng)) return RAY_ENDED;
@@ -257,7 +257,7 @@ function stepAtOuterTexture(cs: CompiledStack, st: Float64Array, m: number, rng:
   if (found !== HIT) return NOT_AT_TEXTURE;
   if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
   advance(st);
-  st[EVENTS]++;
+  st[Ray.EVENTS]++;
   return afterInterface(cs, st, interfaceEvent(cs, st, cs.topInterfaces[0], rng), m, 1 - m);
 }
 
@@ -270,7 +270,7 @@ function stepOntoFront(cs: CompiledStack, st: Float64Array, rng: RandomStream): 
   if (found !== HIT) return NOT_AT_TEXTURE;
   if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
   advance(st);
-  st[EVENTS]++;
+  st[Ray.EVENTS]++;
   if (cs.frontTile.kind === SURFACE_LAMBERTIAN) {
     // Ideal randomiser: everything enters the absorber, in a Lambertian direction.
     lambertianDirection(st, -1, rng);
@@ -288,18 +288,18 @@ function stepOntoFront(cs: CompiledStack, st: Float64Array, rng: RandomStream): 
  * on it with the plane's normal +z. Returns true when the ray was absorbed on the way.
  */
 function reachPlane(cs: CompiledStack, st: Float64Array, m: number, zUm: number, rng: RandomStream): boolean {
-  st[T] = (zUm - st[Z]) / st[DZ];
+  st[Ray.T] = (zUm - st[Ray.Z]) / st[Ray.DZ];
   if (absorbAlong(cs, st, m, rng)) return true;
   advance(st);
-  st[Z] = zUm;
-  st[EVENTS]++;
+  st[Ray.Z] = zUm;
+  st[Ray.EVENTS]++;
   setNormal(st, 0, 0, 1);
   return false;
 }
 
 /** Planar thick layer m (or the incidence medium, m = 0): straight to its top or bottom plane. */
 function stepInPlanarLayer(cs: CompiledStack, st: Float64Array, m: number, rng: RandomStream): number {
-  const vz = st[DZ];
+  const vz = st[Ray.DZ];
   if (vz > 0) {
     if (m === 0) {
       leaveFront(cs, st);
@@ -317,10 +317,10 @@ function stepInPlanarLayer(cs: CompiledStack, st: Float64Array, m: number, rng: 
 
 /** The medium after an interface event: stays on reflection, crosses on transmission (a split's reflected branch stays). */
 function afterInterface(cs: CompiledStack, st: Float64Array, outcome: number, here: number, across: number): number {
-  if (outcome === DIED) return RAY_ENDED;
-  if (outcome === SPLIT) {
+  if (outcome === Outcome.DIED) return RAY_ENDED;
+  if (outcome === Outcome.SPLIT) {
     setBranchMedium(cs, st, here);
     return across;
   }
-  return outcome === TRANSMIT ? across : here;
+  return outcome === Outcome.TRANSMIT ? across : here;
 }

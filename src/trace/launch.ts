@@ -1,6 +1,6 @@
 import type { RandomStream } from "../random/stream.js";
 import type { CompiledStack } from "./compiledStack.js";
-import { BATCH_ANALOG, ANALOG, BUDGET_U, DX, DY, DZ, EX, EY, EZ, L_COS_P, L_COS_T, L_SIN_P, L_SIN_T, PA, PATH, PB, TAU, W, X, Y, Z } from "./rayState.js";
+import { Ray } from "./rayState.js";
 import { cosSinOfTurn } from "./turnTrig.js";
 
 /** Polarisation of the incident light: s/p relative to the macroscopic plane of incidence (z, d). */
@@ -13,14 +13,14 @@ export function polarizationMode(polarization: Polarization): number {
 
 /** Sets the batch's launch direction (θ; φ unless it is drawn per ray) in the state. */
 export function setLaunchAngles(st: Float64Array, sinT: number, cosT: number): void {
-  st[L_SIN_T] = sinT;
-  st[L_COS_T] = cosT;
+  st[Ray.L_SIN_T] = sinT;
+  st[Ray.L_COS_T] = cosT;
 }
 
 /** Sets the launch azimuth (cos φ, sin φ) in the state. */
 export function setLaunchAzimuth(st: Float64Array, phiRad: number): void {
-  st[L_COS_P] = Math.cos(phiRad);
-  st[L_SIN_P] = Math.sin(phiRad);
+  st[Ray.L_COS_P] = Math.cos(phiRad);
+  st[Ray.L_SIN_P] = Math.sin(phiRad);
 }
 
 /** The launch's random numbers (launchRay). */
@@ -35,13 +35,13 @@ const draws = new Float64Array(4);
  */
 export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream, fromRear: boolean, u: Float64Array | null = null): void {
   const st = cs.state;
-  const sinT = st[L_SIN_T], cosT = st[L_COS_T];
-  const cp = st[L_COS_P];
-  const sp = st[L_SIN_P];
+  const sinT = st[Ray.L_SIN_T], cosT = st[Ray.L_COS_T];
+  const cp = st[Ray.L_COS_P];
+  const sp = st[Ray.L_SIN_P];
   const dx = sinT * cp, dy = sinT * sp, dz = fromRear ? cosT : -cosT;
-  st[DX] = dx;
-  st[DY] = dy;
-  st[DZ] = dz;
+  st[Ray.DX] = dx;
+  st[Ray.DY] = dy;
+  st[Ray.DZ] = dz;
   // s = (sinφ, −cosφ, 0) ⊥ plane of incidence; p = s × d.
   const sx = sp, sy = -cp;
   const px = sy * dz, py = -sx * dz, pz = sx * dy - sy * dx;
@@ -51,29 +51,29 @@ export function launchRay(cs: CompiledStack, polMode: number, rng: RandomStream,
   else draws[3] = rng.next();
   // ψ as a fraction of a turn; cos ψ, sin ψ through the state's scratch slots PA, PB.
   const psiTurn = u === null ? draws[0] : u[2];
-  if (polMode === 0) cosSinOfTurn(st, psiTurn, PA, PB);
-  const a = polMode === 1 ? 1 : polMode === 2 ? 0 : st[PA];
-  const b = polMode === 1 ? 0 : polMode === 2 ? 1 : st[PB];
-  st[EX] = a * sx + b * px;
-  st[EY] = a * sy + b * py;
-  st[EZ] = b * pz;
+  if (polMode === 0) cosSinOfTurn(st, psiTurn, Ray.PA, Ray.PB);
+  const a = polMode === 1 ? 1 : polMode === 2 ? 0 : st[Ray.PA];
+  const b = polMode === 1 ? 0 : polMode === 2 ? 1 : st[Ray.PB];
+  st[Ray.EX] = a * sx + b * px;
+  st[Ray.EY] = a * sy + b * py;
+  st[Ray.EZ] = b * pz;
   // Uniform over the launch window (compile: the one textured tile's cell, or a large multiple of
   // the largest cell when several textures with their own periods are met).
-  st[X] = (u === null ? draws[1] : u[0]) * cs.launchLxUm;
-  st[Y] = (u === null ? draws[2] : u[1]) * cs.launchLyUm;
+  st[Ray.X] = (u === null ? draws[1] : u[0]) * cs.launchLxUm;
+  st[Ray.Y] = (u === null ? draws[2] : u[1]) * cs.launchLyUm;
   // Without layers: start 1 µm above the texture (the incidence medium does not absorb); from the
   // rear: on the last rear layer's outer plane, or 1 µm below the rear texture.
-  st[Z] = fromRear ? cs.rearLaunchZUm
+  st[Ray.Z] = fromRear ? cs.rearLaunchZUm
     : cs.nLayers === 0 ? cs.frontTile.zMaxUm + 1
     : cs.outerTile !== null ? cs.layerTopZUm[1] + cs.outerTile.zMaxUm + 1
     : cs.layerTopZUm[1];
-  st[W] = 1;
-  st[PATH] = 0;
+  st[Ray.W] = 1;
+  st[Ray.PATH] = 0;
   // The optical-depth budget is drawn for every ray (same random stream in both estimators) but
   // only the analog one reads it: expected-value rays draw a fresh one when they turn analog.
   const uTau = draws[3];
-  const analog = st[BATCH_ANALOG] !== 0;
-  st[TAU] = analog ? -Math.log(uTau) : 0;
-  st[BUDGET_U] = analog ? uTau : 0;
-  st[ANALOG] = analog ? 1 : 0;
+  const analog = st[Ray.BATCH_ANALOG] !== 0;
+  st[Ray.TAU] = analog ? -Math.log(uTau) : 0;
+  st[Ray.BUDGET_U] = analog ? uTau : 0;
+  st[Ray.ANALOG] = analog ? 1 : 0;
 }

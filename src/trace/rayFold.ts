@@ -1,5 +1,5 @@
 import type { CompiledStack } from "./compiledStack.js";
-import { EVENTS, PATH } from "./rayState.js";
+import { Ray } from "./rayState.js";
 import { foldRayContributions } from "./tally.js";
 import { DIAG_LENGTH, diagOffset } from "./tallyLayout.js";
 import { foldHistory } from "./history.js";
@@ -20,9 +20,9 @@ export function foldRay(cs: CompiledStack, tally: Float64Array, sums: Float64Arr
 
 /** The ray's events and path into sums (above), its depth deposits into the tally. */
 export function foldRayTotals(cs: CompiledStack, st: Float64Array, tally: Float64Array, sums: Float64Array): void {
-  sums[0] += st[EVENTS];
+  sums[0] += st[Ray.EVENTS];
   if (cs.depthEdgesUm !== null) foldDepth(cs, tally, diagOffset(cs.nChannels) + DIAG_LENGTH);
-  const p = st[PATH] * cs.invThicknessUm;
+  const p = st[Ray.PATH] * cs.invThicknessUm;
   sums[1] += p;
   sums[2] += p * p;
 }

@@ -6,7 +6,7 @@ import type { CompiledStack } from "./compiledStack.js";
 const PYRAMID_MAX_STEPS = 1 << 20;
 const PYRAMID_EDGE_TOL_REL = 1e-10;
 
-import { DX, DY, DZ, HIT, NX, NY, NZ, T, X, Y, Z, setNormal } from "./rayState.js";
+import { Ray, HIT, setNormal } from "./rayState.js";
 
 /**
  * Front texture search in world coordinates (front tile frame: z is the height). Sets the hit's
@@ -14,13 +14,13 @@ import { DX, DY, DZ, HIT, NX, NY, NZ, T, X, Y, Z, setNormal } from "./rayState.j
  */
 export function frontSearch(cs: CompiledStack, st: Float64Array, fromBelow: boolean): number {
   const tile = cs.frontTile;
-  const z = st[Z];
-  const dz = st[DZ];
+  const z = st[Ray.Z];
+  const dz = st[Ray.DZ];
   if (tile.kind !== SURFACE_MESH) {
     if (fromBelow ? dz > 0 : dz < 0) {
       setNormal(st, 0, 0, 1);
       const t = -z / dz;
-      st[T] = t > 0 ? t : 0;
+      st[Ray.T] = t > 0 ? t : 0;
       return HIT;
     }
     return NO_HIT;
@@ -61,14 +61,14 @@ export function rearSearchFromBehind(cs: CompiledStack, st: Float64Array): numbe
  * used up their inlining budget.
  */
 export function planarRearSearch(cs: CompiledStack, st: Float64Array): number {
-  return st[DZ] < 0 ? planarRearHit(cs, st) : NO_HIT;
+  return st[Ray.DZ] < 0 ? planarRearHit(cs, st) : NO_HIT;
 }
 
 /** The ray meets the planar rear (z = −W, normal +z into the absorber) heading to it. */
 function planarRearHit(cs: CompiledStack, st: Float64Array): number {
   setNormal(st, 0, 0, 1);
-  const t = (-cs.thicknessUm - st[Z]) / st[DZ];
-  st[T] = t > 0 ? t : 0;
+  const t = (-cs.thicknessUm - st[Ray.Z]) / st[Ray.DZ];
+  st[Ray.T] = t > 0 ? t : 0;
   return HIT;
 }
 
@@ -80,12 +80,12 @@ function planarRearHit(cs: CompiledStack, st: Float64Array): number {
 function rearTileSearch(cs: CompiledStack, st: Float64Array, inAbsorber: boolean): number {
   const tile = cs.rearTile;
   const W_ = cs.thicknessUm;
-  const dz = st[DZ];
+  const dz = st[Ray.DZ];
   if (tile.kind !== SURFACE_MESH) return (inAbsorber ? dz < 0 : dz > 0) ? planarRearHit(cs, st) : NO_HIT;
   const found = tile.pyramidSign !== 0 ? pyramidSearch(tile, st, inAbsorber, -1, -W_) : tileSearch(tile, st, cs.query, inAbsorber, -1, -W_);
   if (found === HIT) {
-    st[NX] = -st[NX];
-    st[NY] = -st[NY];
+    st[Ray.NX] = -st[Ray.NX];
+    st[Ray.NY] = -st[Ray.NY];
   }
   return found;
 }
@@ -105,12 +105,12 @@ function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBe
   const dzl = slab[3];
   const c = tile.cosRot;
   const s = tile.sinRot;
-  const dxl = c * st[DX] + s * st[DY];
-  const dyl = -s * st[DX] + c * st[DY];
+  const dxl = c * st[Ray.DX] + s * st[Ray.DY];
+  const dyl = -s * st[Ray.DX] + c * st[Ray.DY];
   const lx = tile.lxUm;
   const ly = tile.lyUm;
-  let px = c * st[X] + s * st[Y] + t0 * dxl;
-  let py = -s * st[X] + c * st[Y] + t0 * dyl;
+  let px = c * st[Ray.X] + s * st[Ray.Y] + t0 * dxl;
+  let py = -s * st[Ray.X] + c * st[Ray.Y] + t0 * dyl;
   px -= lx * Math.floor(px / lx);
   py -= ly * Math.floor(py / ly);
   q[Q_OX] = px;
@@ -125,10 +125,10 @@ function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBe
   const o = tri * TRI_STRIDE;
   const nxl = tile.tri[o];
   const nyl = tile.tri[o + 1];
-  st[NX] = c * nxl - s * nyl;
-  st[NY] = s * nxl + c * nyl;
-  st[NZ] = tile.tri[o + 2];
-  st[T] = t0 + q[Q_T];
+  st[Ray.NX] = c * nxl - s * nyl;
+  st[Ray.NY] = s * nxl + c * nyl;
+  st[Ray.NZ] = tile.tri[o + 2];
+  st[Ray.T] = t0 + q[Q_T];
   return HIT;
 }
 
@@ -145,8 +145,8 @@ const slab = new Float64Array(4);
  * pyramidSearch repeats these lines with the ray in locals: change both alike.
  */
 function slabEntry(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, zSign: number, zOffsetUm: number): number {
-  const zl = zSign * (st[Z] - zOffsetUm);
-  const dzl = zSign * st[DZ];
+  const zl = zSign * (st[Ray.Z] - zOffsetUm);
+  const dzl = zSign * st[Ray.DZ];
   const zMin = tile.zMinUm;
   const zMax = tile.zMaxUm;
   let t0 = 0;
@@ -197,8 +197,8 @@ export function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: bo
   // The slab entry of slabEntry, written out here with the ray in locals (through the shared
   // function and its output array the bench case ran 1–4 % slower; with frontSearch's dispatch,
   // 3–5 %: DEVELOPERS.md, "Tracer efficiency").
-  const zl = zSign * (st[Z] - zOffsetUm);
-  const dzl = zSign * st[DZ];
+  const zl = zSign * (st[Ray.Z] - zOffsetUm);
+  const dzl = zSign * st[Ray.DZ];
   const zMin = tile.zMinUm;
   const zMax = tile.zMaxUm;
   let t0 = 0;
@@ -224,8 +224,8 @@ export function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: bo
   }
   if (mustHit) tLimit = tLimit * (1 + 1e-9) + 1e-9 * (zMax - zMin);
   const ozl = zl + t0 * dzl;
-  const dx = st[DX];
-  const dy = st[DY];
+  const dx = st[Ray.DX];
+  const dy = st[Ray.DY];
   const c = tile.cosRot;
   const s = tile.sinRot;
   const du = c * dx + s * dy;
@@ -235,8 +235,8 @@ export function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: bo
   const a = tile.pyramidPeriodUm;
   const invA = tile.pyramidInvPeriod;
   const half = 0.5 * a;
-  const px = c * st[X] + s * st[Y] + t0 * du;
-  const py = -s * st[X] + c * st[Y] + t0 * dv;
+  const px = c * st[Ray.X] + s * st[Ray.Y] + t0 * du;
+  const py = -s * st[Ray.X] + c * st[Ray.Y] + t0 * dv;
   let u0 = px - a * Math.floor(px * invA) - half;
   let v0 = py - a * Math.floor(py * invA) - half;
   // The walk: inverted pyramids are upright ones with z reversed.
@@ -318,9 +318,9 @@ export function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: bo
   const nrm = tile.pyramidNormals;
   const nxl = nrm[3 * k];
   const nyl = nrm[3 * k + 1];
-  st[NX] = c * nxl - s * nyl;
-  st[NY] = s * nxl + c * nyl;
-  st[NZ] = nrm[3 * k + 2];
-  st[T] = t0 + tHit;
+  st[Ray.NX] = c * nxl - s * nyl;
+  st[Ray.NY] = s * nxl + c * nyl;
+  st[Ray.NZ] = nrm[3 * k + 2];
+  st[Ray.T] = t0 + tHit;
   return HIT;
 }

@@ -5,7 +5,7 @@ import { LOST, meshHit, NO_HIT, Q_DX, Q_DY, Q_DZ, Q_LENGTH, Q_LIMIT, Q_OX, Q_OY,
 import { TRI_STRIDE } from "../../src/geometry/surfaceTile.js";
 import { buildSurface } from "../../src/geometry/textures.js";
 import { compileStack } from "../../src/trace/compile.js";
-import { DX, DY, DZ, HIT, NX, NY, NZ, T, X, Y, Z } from "../../src/trace/rayState.js";
+import { Ray, HIT } from "../../src/trace/rayState.js";
 import { frontSearch } from "../../src/trace/surfaceSearch.js";
 import type { StackSpec } from "../../src/study/stackTypes.js";
 
@@ -48,9 +48,9 @@ describe("analytic pyramid search agrees with the triangle mesh", () => {
         set();
         const tri = meshHit(tile, q, fromBelow);
         const tMesh = q[Q_T];
-        st[X] = x; st[Y] = y; st[Z] = z; st[DX] = dx; st[DY] = dy; st[DZ] = dz;
+        st[Ray.X] = x; st[Ray.Y] = y; st[Ray.Z] = z; st[Ray.DX] = dx; st[Ray.DY] = dy; st[Ray.DZ] = dz;
         const found = frontSearch(cs, st, fromBelow);
-        const tPyr = st[T];
+        const tPyr = st[Ray.T];
         if (tri === LOST || Math.abs(h - z) < 1e-6) continue; // grazing start: either answer is fair
         compared++;
         expect(found === HIT).toBe(tri >= 0);
@@ -58,7 +58,7 @@ describe("analytic pyramid search agrees with the triangle mesh", () => {
         hits++;
         expect(Math.abs(tPyr - tMesh)).toBeLessThan(1e-9);
         const o = tri * TRI_STRIDE;
-        const normal = [st[NX], st[NY], st[NZ]];
+        const normal = [st[Ray.NX], st[Ray.NY], st[Ray.NZ]];
         for (let j = 0; j < 3; j++) expect(Math.abs(normal[j] - tile.tri[o + j])).toBeLessThan(1e-12);
       }
       expect(compared).toBeGreaterThan(9500);

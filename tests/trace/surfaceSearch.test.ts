@@ -3,7 +3,7 @@ import { MaterialRegistry } from "../../src/materials/registry.js";
 import { RandomStream, streamKey } from "../../src/random/stream.js";
 import type { StackSpec } from "../../src/study/stackTypes.js";
 import { compileStack } from "../../src/trace/compile.js";
-import { DX, DY, DZ, HIT, NX, NY, NZ, T, X, Y, Z } from "../../src/trace/rayState.js";
+import { Ray, HIT } from "../../src/trace/rayState.js";
 import { frontSearch, rearSearch } from "../../src/trace/surfaceSearch.js";
 
 // The tracer searches regular pyramids analytically in one step (slab entry, wrap into the tile,
@@ -33,9 +33,9 @@ describe("analytic pyramid search in world coordinates agrees with the triangle 
         for (const tiles of [analytic, mesh]) {
           cs.frontTile = tiles.front;
           cs.rearTile = tiles.rear;
-          st[X] = x; st[Y] = y; st[Z] = z; st[DX] = sz * Math.cos(ph); st[DY] = sz * Math.sin(ph); st[DZ] = cz;
+          st[Ray.X] = x; st[Ray.Y] = y; st[Ray.Z] = z; st[Ray.DX] = sz * Math.cos(ph); st[Ray.DY] = sz * Math.sin(ph); st[Ray.DZ] = cz;
           const found = rear ? rearSearch(cs, st) : frontSearch(cs, st, fromBelow);
-          results.push([found, st[T], st[NX], st[NY], st[NZ]]);
+          results.push([found, st[Ray.T], st[Ray.NX], st[Ray.NY], st[Ray.NZ]]);
         }
         const [a, m] = results;
         expect(a[0]).toBe(m[0]);
