@@ -1,13 +1,22 @@
-import { TRI_STRIDE, type SurfaceTile } from "./surfaceTile.js";
+import { Tri, type SurfaceTile } from "./surfaceTile.js";
 
-/** Returned when the ray leaves the search range without a hit. */
-export const NO_HIT = -1;
-/** Returned when the grid walk exceeds its step budget (a ray running parallel to the base plane). */
-export const LOST = -2;
+/**
+ * Search results: a hit (its distance in the state's T slot, src/trace/rayState.ts), none in the
+ * search range, or lost (the walk exceeded its step budget: a ray running parallel to the base
+ * plane). Const enums (this one, Query, SurfaceKind, Ray, ...) are written into the code as numbers
+ * by the compiler; imported constants cost V8's optimised code a binding check at every use (DEVELOPERS.md,
+ * "Tracer efficiency").
+ */
+export const enum Hit {
+  HIT = 0,
+  NO_HIT = -1,
+  LOST = -2,
+}
 
-/** Slots of a hit query (see meshHit). */
-export const Q_OX = 0, Q_OY = 1, Q_OZ = 2, Q_DX = 3, Q_DY = 4, Q_DZ = 5, Q_LIMIT = 6, Q_T = 7;
-export const Q_LENGTH = 8;
+/** Slots of a hit query (see meshHit); LENGTH is their number. */
+export const enum Query {
+  OX = 0, OY = 1, OZ = 2, DX = 3, DY = 4, DZ = 5, LIMIT = 6, T = 7, LENGTH = 8,
+}
 
 const MAX_STEPS = 1 << 20;
 /** Edge tolerance relative to the tile size: rays through shared edges must not slip between triangles. */
@@ -26,13 +35,13 @@ const EDGE_TOL_REL = 1e-10;
  * or NO_HIT / LOST.
  */
 export function meshHit(s: SurfaceTile, q: Float64Array, fromBelow: boolean): number {
-  const ox = q[Q_OX];
-  const oy = q[Q_OY];
-  const oz = q[Q_OZ];
-  const dx = q[Q_DX];
-  const dy = q[Q_DY];
-  const dz = q[Q_DZ];
-  const tLimit = q[Q_LIMIT];
+  const ox = q[Query.OX];
+  const oy = q[Query.OY];
+  const oz = q[Query.OZ];
+  const dx = q[Query.DX];
+  const dy = q[Query.DY];
+  const dz = q[Query.DZ];
+  const tLimit = q[Query.LIMIT];
   const gx = s.gx;
   const gy = s.gy;
   const lx = s.lxUm;
@@ -86,7 +95,7 @@ export function meshHit(s: SurfaceTile, q: Float64Array, fromBelow: boolean): nu
     const kStop = clear ? 0 : cellStart[c + 1];
     for (let k = kStart; k < kStop; k++) {
       const t0 = cellTri[k];
-      const o = t0 * TRI_STRIDE;
+      const o = t0 * Tri.STRIDE;
       const nx = tri[o];
       const ny = tri[o + 1];
       const nz = tri[o + 2];
@@ -103,10 +112,10 @@ export function meshHit(s: SurfaceTile, q: Float64Array, fromBelow: boolean): nu
       bestTri = t0;
     }
     if (bestTri >= 0) {
-      q[Q_T] = best;
+      q[Query.T] = best;
       return bestTri;
     }
-    if (tCellEnd >= tLimit) return NO_HIT;
+    if (tCellEnd >= tLimit) return Hit.NO_HIT;
     tCellStart = tCellEnd;
     // Step to the next cell, wrapping into the neighbouring tile copy.
     if (tNextX < tNextY) {
@@ -131,5 +140,5 @@ export function meshHit(s: SurfaceTile, q: Float64Array, fromBelow: boolean): nu
       tNextY += tDeltaY;
     }
   }
-  return LOST;
+  return Hit.LOST;
 }

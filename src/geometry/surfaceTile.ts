@@ -3,16 +3,20 @@
  * measured outward from the absorber (base plane z = 0). Flat surfaces are analytic; everything else
  * is a set of triangles with a uniform grid over the tile for the hit test (surfaceHit.ts).
  *
- * Triangle record (TRI_STRIDE numbers): unit normal (nx, ny, nz) with nz > 0 (pointing outward,
+ * Triangle record (Tri.STRIDE numbers): unit normal (nx, ny, nz) with nz > 0 (pointing outward,
  * away from the absorber), plane offset d = n·v0, then three edge functions (a, b, c) of the
  * triangle's xy projection, each normalised so that a·x + b·y + c is the signed distance (≥ 0 inside).
  */
-export const TRI_STRIDE = 13;
+export const enum Tri {
+  STRIDE = 13,
+}
 
-export const SURFACE_PLANAR = 0;
-export const SURFACE_MESH = 1;
-/** Ideal Lambertian randomiser (reference case, front only): flat, scatters every ray diffusely. */
-export const SURFACE_LAMBERTIAN = 2;
+/** What a tile is: flat, a triangle mesh, or the ideal Lambertian randomiser (reference case, front only: flat, scatters every ray diffusely). */
+export const enum SurfaceKind {
+  PLANAR = 0,
+  MESH = 1,
+  LAMBERTIAN = 2,
+}
 
 export interface SurfaceTile {
   kind: number;
@@ -65,7 +69,7 @@ export interface PyramidShape {
 }
 
 /** A flat interface; `periodUm` only sets the launch cell when it is the front. */
-export function planarTile(periodUm = 1, kind = SURFACE_PLANAR): SurfaceTile {
+export function planarTile(periodUm = 1, kind = SurfaceKind.PLANAR): SurfaceTile {
   return {
     kind,
     lxUm: periodUm,
@@ -92,7 +96,7 @@ export function planarTile(periodUm = 1, kind = SURFACE_PLANAR): SurfaceTile {
     pyramidTan: 0,
     pyramidHeightUm: 0,
     pyramidNormals: new Float64Array(12),
-    label: kind === SURFACE_LAMBERTIAN ? "ideal Lambertian randomiser" : "planar",
+    label: kind === SurfaceKind.LAMBERTIAN ? "ideal Lambertian randomiser" : "planar",
   };
 }
 
@@ -113,7 +117,7 @@ export function meshTile(
   pyramid: PyramidShape | null = null,
 ): SurfaceTile {
   const nIn = Math.floor(verts.length / 9);
-  const tri = new Float64Array(nIn * TRI_STRIDE);
+  const tri = new Float64Array(nIn * Tri.STRIDE);
   const keep: number[] = [];
   const triZ: number[] = [];
   let zMin = Infinity;
@@ -140,7 +144,7 @@ export function meshTile(
     nx /= len;
     ny /= len;
     nz /= len;
-    const o = nTri * TRI_STRIDE;
+    const o = nTri * Tri.STRIDE;
     tri[o] = nx;
     tri[o + 1] = ny;
     tri[o + 2] = nz;
@@ -189,13 +193,13 @@ export function meshTile(
     pyramidNormals.set([g, 0, inv, -g, 0, inv, 0, g, inv, 0, -g, inv]);
   }
   return {
-    kind: SURFACE_MESH,
+    kind: SurfaceKind.MESH,
     lxUm,
     lyUm,
     zMinUm: zMin,
     zMaxUm: zMax,
     nTri,
-    tri: tri.slice(0, nTri * TRI_STRIDE),
+    tri: tri.slice(0, nTri * Tri.STRIDE),
     gx,
     gy,
     cellXUm: csx,

@@ -2,7 +2,7 @@ import { InputError } from "../util/errors.js";
 import { RandomStream, streamKey } from "../random/stream.js";
 import type { BoundaryKind, TextureSpec } from "../study/stackTypes.js";
 import { heightGridVerts } from "./heightField.js";
-import { meshTile, mirroredVerts, planarTile, SURFACE_LAMBERTIAN, type PyramidShape, type SurfaceTile } from "./surfaceTile.js";
+import { SurfaceKind, meshTile, mirroredVerts, planarTile, type PyramidShape, type SurfaceTile } from "./surfaceTile.js";
 
 const DEG = Math.PI / 180;
 
@@ -23,7 +23,7 @@ export function buildSurface(spec: TextureSpec, boundary: BoundaryKind, fieldPat
     case "planar":
       return planarTile(1);
     case "lambertian":
-      return planarTile(1, SURFACE_LAMBERTIAN);
+      return planarTile(1, SurfaceKind.LAMBERTIAN);
     case "upright-pyramids":
     case "inverted-pyramids": {
       const a = spec.baseUm;

@@ -1,14 +1,14 @@
 import type { RandomStream } from "../random/stream.js";
-import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
-import { SURFACE_LAMBERTIAN, SURFACE_PLANAR } from "../geometry/surfaceTile.js";
-import { REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
-import { Ray, Outcome, HIT, advance } from "./rayState.js";
+import { Hit } from "../geometry/surfaceHit.js";
+import { SurfaceKind } from "../geometry/surfaceTile.js";
+import { RearKind, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
+import { Ray, Outcome, advance } from "./rayState.js";
 import { frontSearch, planarRearSearch, pyramidSearch } from "./surfaceSearch.js";
 import { depositPoint } from "./depthTally.js";
 import { MAX_PASSES } from "./tallyLayout.js";
 import { analogInterfaceEvent } from "./analogInterfaceEvent.js";
 import { idealRearAnalog } from "./idealSurfaces.js";
-import { FACE_FRONT, FACE_NONE, FACE_REAR, leaveFront, rearExitChannel } from "./history.js";
+import { Face, leaveFront, rearExitChannel } from "./history.js";
 import { launchRay } from "./launch.js";
 import type { LaunchPoints } from "./launchPoints.js";
 import { cosSinOfTurn } from "./turnTrig.js";
@@ -34,9 +34,9 @@ export function analogCellEligible(cs: CompiledStack): boolean {
     cs.nLayers === 0 &&
     cs.outerTile === null &&
     cs.nRear === 0 &&
-    cs.frontTile.kind !== SURFACE_LAMBERTIAN &&
-    (cs.frontTile.kind === SURFACE_PLANAR || cs.frontTile.pyramidSign !== 0) &&
-    cs.rearTile.kind === SURFACE_PLANAR
+    cs.frontTile.kind !== SurfaceKind.LAMBERTIAN &&
+    (cs.frontTile.kind === SurfaceKind.PLANAR || cs.frontTile.pyramidSign !== 0) &&
+    cs.rearTile.kind === SurfaceKind.PLANAR
   );
 }
 
@@ -52,7 +52,7 @@ const RAY_LOST = -2;
  */
 export function traceAnalogCellRays(cs: CompiledStack, nRays: number, rng: RandomStream, tally: Float64Array, polMode: number, launch: LaunchPoints | null, randomAzimuth: boolean, sums: Float64Array): void {
   const st = cs.state;
-  st[Ray.INCIDENT] = FACE_FRONT;
+  st[Ray.INCIDENT] = Face.FRONT;
   st[Ray.BULK] = 1;
   sums[3] = 0;
   sums[4] = 0;
@@ -107,12 +107,12 @@ function traceCellChunk(cs: CompiledStack, r0: number, r1: number, rng: RandomSt
  */
 function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
   const maxEvents = cs.maxEvents;
-  const mirrorRear = cs.rearKind === REAR_IDEAL_MIRROR || cs.rearKind === REAR_IDEAL_LAMBERTIAN;
+  const mirrorRear = cs.rearKind === RearKind.IDEAL_MIRROR || cs.rearKind === RearKind.IDEAL_LAMBERTIAN;
   const alphaAbove = cs.mediumAlphaPerUm[0];
   const alphaAbs = cs.mediumAlphaPerUm[1];
   // Regular pyramids are searched directly (frontSearch's dispatch cost 2–4 % on the bench case).
   const tile = cs.frontTile;
-  const pyramids = tile.kind !== SURFACE_PLANAR;
+  const pyramids = tile.kind !== SurfaceKind.PLANAR;
   // An analog ray keeps its weight from launch to end.
   const w = st[Ray.W];
   let tau = st[Ray.TAU];
@@ -123,7 +123,7 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
   let freePath = 0;
   let passes = 0;
   st[Ray.PASSES] = 0;
-  let face = FACE_NONE;
+  let face = Face.NONE;
   let pending = false;
   let tail = 0;
   let maxPass = 0;
@@ -141,11 +141,11 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
     let atRear = false;
     if (!inAbsorber) {
       const found = pyramids ? pyramidSearch(tile, st, false, 1, 0) : frontSearch(cs, st, false);
-      if (found === LOST) {
+      if (found === Hit.LOST) {
         result = RAY_LOST;
         break;
       }
-      if (found === NO_HIT) {
+      if (found === Hit.NO_HIT) {
         result = leaveAbove(cs, st);
         break;
       }
@@ -153,7 +153,7 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
       const found = pyramids ? pyramidSearch(tile, st, true, 1, 0) : frontSearch(cs, st, true);
       // Leaving the face that ended a pass (history.ts, departFace): up from the rear, or down from
       // the front towards the rear.
-      if (pending && (face === FACE_REAR ? st[Ray.DZ] > 0 : found !== HIT && found !== LOST)) {
+      if (pending && (face === Face.REAR ? st[Ray.DZ] > 0 : found !== Hit.HIT && found !== Hit.LOST)) {
         pending = false;
         const k = passes - 1;
         if (k > MAX_PASSES) tail += w;
@@ -162,13 +162,13 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
           if (k > maxPass) maxPass = k;
         }
       }
-      if (found === LOST) {
+      if (found === Hit.LOST) {
         result = RAY_LOST;
         break;
       }
-      if (found !== HIT) {
+      if (found !== Hit.HIT) {
         // No front hit and no rear ahead: the ray runs parallel to the faces (dz = 0 or NaN).
-        if (planarRearSearch(cs, st) === NO_HIT) {
+        if (planarRearSearch(cs, st) === Hit.NO_HIT) {
           result = RAY_LOST;
           break;
         }
@@ -209,7 +209,7 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
     advance(st);
     events++;
     if (inAbsorber) {
-      const f = atRear ? FACE_REAR : FACE_FRONT;
+      const f = atRear ? Face.REAR : Face.FRONT;
       if (face !== f) {
         face = f;
         passes += 1;
@@ -236,7 +236,7 @@ function traceAnalogCellRay(cs: CompiledStack, st: Float64Array, rng: RandomStre
         st[Ray.PASSES] = 1;
         entered += w;
       }
-      face = FACE_FRONT;
+      face = Face.FRONT;
     }
     inAbsorber = !inAbsorber;
   }

@@ -1,5 +1,5 @@
 import type { RandomStream } from "../random/stream.js";
-import { ROULETTE_WEIGHT, type CompiledStack } from "./compiledStack.js";
+import { Setting, type CompiledStack } from "./compiledStack.js";
 import { Ray } from "./rayState.js";
 import { depositPoint, depositSegment } from "./depthTally.js";
 
@@ -27,7 +27,7 @@ function expectedStretch(cs: CompiledStack, st: Float64Array, m: number, rng: Ra
   const alpha = cs.mediumAlphaPerUm[m];
   const w = st[Ray.W];
   const att = Math.exp(-alpha * lenUm);
-  if (w * att < cs.estimatorSettings[ROULETTE_WEIGHT]) {
+  if (w * att < cs.estimatorSettings[Setting.ROULETTE_WEIGHT]) {
     drawBudget(st, rng);
     return false;
   }
@@ -135,7 +135,7 @@ function drawBudget(st: Float64Array, rng: RandomStream): void {
 
 /** Expected-value mode: turn analog once the weight is small (see absorbAlong). */
 export function rouletteCheck(cs: CompiledStack, st: Float64Array, rng: RandomStream): void {
-  if (st[Ray.ANALOG] === 0 && st[Ray.W] < cs.estimatorSettings[ROULETTE_WEIGHT]) {
+  if (st[Ray.ANALOG] === 0 && st[Ray.W] < cs.estimatorSettings[Setting.ROULETTE_WEIGHT]) {
     drawBudget(st, rng);
   }
 }

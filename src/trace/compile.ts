@@ -3,8 +3,8 @@ import { buildInterfaceTable } from "../optics/interfaceTable.js";
 import type { FilmLayer, NK } from "../optics/types.js";
 import type { Material } from "../materials/types.js";
 import { buildSurface } from "../geometry/textures.js";
-import { Q_LENGTH } from "../geometry/surfaceHit.js";
-import { planarTile, SURFACE_LAMBERTIAN, SURFACE_MESH, SURFACE_PLANAR, type SurfaceTile } from "../geometry/surfaceTile.js";
+import { Query } from "../geometry/surfaceHit.js";
+import { SurfaceKind, planarTile, type SurfaceTile } from "../geometry/surfaceTile.js";
 import { isBacksheet, isIdealRear, type BacksheetSpec, type BoundaryKind, type FilmSpec, type StackSpec, type TextureSpec } from "../study/stackTypes.js";
 import { reflectanceAt } from "../study/reflectanceCsv.js";
 import { DIAG_LENGTH, ESCAPE_ANGLE_BINS, MAX_PASSES } from "./tallyLayout.js";
@@ -14,14 +14,7 @@ import { STATE_LENGTH } from "./rayState.js";
 import { analogCellEligible } from "./analogCell.js";
 import { chooseEstimator, type EstimatorChoice } from "./estimatorChoice.js";
 import type { LaunchSampling } from "../random/sobol.js";
-import {
-  REAR_IDEAL_LAMBERTIAN,
-  REAR_IDEAL_MIRROR,
-  REAR_INTERFACE,
-  type CompiledInterface,
-  type CompiledStack,
-  type Estimator,
-} from "./compiledStack.js";
+import { RearKind, type CompiledInterface, type CompiledStack, type Estimator } from "./compiledStack.js";
 
 /** Anything that returns a Material by name (MaterialRegistry). */
 export interface MaterialSource {
@@ -101,7 +94,7 @@ export function compileStack(
 
   const depthEdges = options.depthEdgesUm === undefined ? null : checkDepthEdges(options.depthEdgesUm);
   const sampling = options.launchSampling ?? ("stack" in studyOrStack ? studyOrStack.rays?.sampling : undefined);
-  const choice = chooseEstimator(mediumAlphaPerUm[ABS] * thicknessUm, frontTile.kind === SURFACE_PLANAR && outerTile === null, nLayers > 0 || nRear > 0, sampling === "sobol");
+  const choice = chooseEstimator(mediumAlphaPerUm[ABS] * thicknessUm, frontTile.kind === SurfaceKind.PLANAR && outerTile === null, nLayers > 0 || nRear > 0, sampling === "sobol");
   const cs: CompiledStack = {
     stack,
     wavelengthNm,
@@ -142,7 +135,7 @@ export function compileStack(
     scratchRow: new Float64Array(4 + 2 * 64),
     contrib: new Float64Array(channels.length),
     state: new Float64Array(STATE_LENGTH),
-    query: new Float64Array(Q_LENGTH),
+    query: new Float64Array(Query.LENGTH),
     diag: new Float64Array(DIAG_LENGTH),
     depthEdgesUm: depthEdges,
     depthTopZUm: frontTile.zMaxUm,
@@ -272,7 +265,7 @@ function surfaceOf(spec: TextureSpec, boundary: BoundaryKind, fieldPath: string)
   let tile = byBoundary.get(boundary);
   if (tile === undefined) {
     tile = buildSurface(spec, boundary, fieldPath);
-    if (tile.kind === SURFACE_LAMBERTIAN && fieldPath.includes("rear")) {
+    if (tile.kind === SurfaceKind.LAMBERTIAN && fieldPath.includes("rear")) {
       throw new InputError(`${fieldPath}: the ideal Lambertian randomiser is a front texture only`);
     }
     byBoundary.set(boundary, tile);
@@ -309,7 +302,7 @@ export const LAUNCH_WINDOW_CELLS = 4096;
  * largest cells makes each tile's phase uniform to within 1/4096 of its period.
  */
 function launchWindow(tiles: (SurfaceTile | null)[]): { launchLxUm: number; launchLyUm: number } {
-  const textured = tiles.filter((t): t is SurfaceTile => t !== null && t.kind === SURFACE_MESH);
+  const textured = tiles.filter((t): t is SurfaceTile => t !== null && t.kind === SurfaceKind.MESH);
   if (textured.length === 0) {
     const front = tiles[1]!;
     return { launchLxUm: front.lxUm, launchLyUm: front.lyUm };
@@ -342,7 +335,7 @@ function compileRearInterface(cx: CompileContext): {
   const abs = stack.layers.length + 1;
   const rearSpec = stack.rear;
   if (isIdealRear(rearSpec)) {
-    const rearKind = rearSpec.ideal.kind === "mirror" ? REAR_IDEAL_MIRROR : REAR_IDEAL_LAMBERTIAN;
+    const rearKind = rearSpec.ideal.kind === "mirror" ? RearKind.IDEAL_MIRROR : RearKind.IDEAL_LAMBERTIAN;
     return { rearKind, rear: null, rearTile: planarTile(1), rearReflectance: rearSpec.ideal.reflectance, metalExit: false };
   }
   const rearTile = surfaceOf(rearSpec.texture, stack.boundary, "stack.rear.texture");
@@ -359,9 +352,9 @@ function compileRearInterface(cx: CompileContext): {
     filmChan0: rearFilms.length > 0 ? ch(`A_film:rear:0:${rearSpec.films[0].material}`) : -1,
     // A metal takes what enters it. Light entering a transparent exit ends as T at once only
     // behind a planar rear; behind a texture it may meet a neighbouring facet again, so it goes on.
-    lowerSinkChan: metal ? ch("A_rear") : nRear === 0 && rearTile.kind !== SURFACE_MESH ? ch(CH_T_FIRST) : -1,
+    lowerSinkChan: metal ? ch("A_rear") : nRear === 0 && rearTile.kind !== SurfaceKind.MESH ? ch(CH_T_FIRST) : -1,
   };
-  return { rearKind: REAR_INTERFACE, rear, rearTile, rearReflectance: 0, metalExit: metal };
+  return { rearKind: RearKind.INTERFACE, rear, rearTile, rearReflectance: 0, metalExit: metal };
 }
 
 /** Rear layers: planar, stacked below the rear texture's outermost points; their outer faces; a back-sheet. */

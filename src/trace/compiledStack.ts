@@ -5,9 +5,12 @@ import type { StackSpec } from "../study/stackTypes.js";
 /** How bulk absorption is sampled (README "Physics and assumptions"; DEVELOPERS.md "Geometry and tracer"). */
 export type Estimator = "analog" | "expected";
 
-export const REAR_INTERFACE = 0;
-export const REAR_IDEAL_MIRROR = 1;
-export const REAR_IDEAL_LAMBERTIAN = 2;
+/** The rear: a real interface (absorber | films | exit), or an ideal reflector, specular or Lambertian. */
+export const enum RearKind {
+  INTERFACE = 0,
+  IDEAL_MIRROR = 1,
+  IDEAL_LAMBERTIAN = 2,
+}
 
 /** One interface with its tables (films upper → lower) and the channels its films absorb into. */
 export interface CompiledInterface {
@@ -29,16 +32,18 @@ export interface CompiledInterface {
  * Infinity; V8 then drops the optimised code of every function that reads a compiled stack (a
  * bench run's analog rays at 1150 nm ran 8 % slower after it, 2026-12-05).
  */
-/** From this polar angle of incidence on, an expected-value stack's default traces analog (estimatorChoice.ts); Infinity = never. */
-export const ANALOG_FROM_THETA_DEG = 0;
-/** Expected-value mode: below this weight a ray continues with analog absorption. */
-export const ROULETTE_WEIGHT = 1;
-/** Expected-value mode: least weight of both parts for an interface event to split the ray on its way in (0 = never). */
-export const SPLIT_MIN_WEIGHT = 2;
-/** The same for the escape split at the incidence face from inside. */
-export const ESCAPE_SPLIT_MIN_WEIGHT = 3;
-/** Expected-value batches of unpolarised front light: from this polar angle on a ray goes as its s and p halves. */
-export const POLARIZATION_SPLIT_FROM_THETA_DEG = 4;
+export const enum Setting {
+  /** From this polar angle of incidence on, an expected-value stack's default traces analog (estimatorChoice.ts); Infinity = never. */
+  ANALOG_FROM_THETA_DEG = 0,
+  /** Expected-value mode: below this weight a ray continues with analog absorption. */
+  ROULETTE_WEIGHT = 1,
+  /** Expected-value mode: least weight of both parts for an interface event to split the ray on its way in (0 = never). */
+  SPLIT_MIN_WEIGHT = 2,
+  /** The same for the escape split at the incidence face from inside. */
+  ESCAPE_SPLIT_MIN_WEIGHT = 3,
+  /** Expected-value batches of unpolarised front light: from this polar angle on a ray goes as its s and p halves. */
+  POLARIZATION_SPLIT_FROM_THETA_DEG = 4,
+}
 
 /**
  * A stack ready for tracing at one wavelength. Media are numbered from the incidence side:
@@ -110,7 +115,7 @@ export interface CompiledStack {
   scratchRow: Float64Array;
   contrib: Float64Array;
   state: Float64Array;
-  /** Hit query of meshHit (Q_* slots). */
+  /** Hit query of meshHit (Query slots). */
   query: Float64Array;
   /** The diagnostics block of the batch tally being filled (src/trace/tallyLayout.ts); set by traceBatch. */
   diag: Float64Array;

@@ -21,14 +21,17 @@ import { DIAG_ENTERED, DIAG_ESCAPE_ANGLE, DIAG_FREE_PATH, DIAG_R_TOTAL, DIAG_T_T
  * sample per ray (its squares are those of the ray's totals).
  */
 
-export const FACE_NONE = 0;
-export const FACE_FRONT = 1;
-export const FACE_REAR = 2;
+/** The absorber's faces: none yet, the front, the rear. */
+export const enum Face {
+  NONE = 0,
+  FRONT = 1,
+  REAR = 2,
+}
 
 /** cos of the escape-angle bin edges b·ESCAPE_ANGLE_BIN_DEG, b = 0..ESCAPE_ANGLE_BINS (falling). */
 const EDGE_COS = Float64Array.from({ length: ESCAPE_ANGLE_BINS + 1 }, (_, b) => Math.cos(b * ESCAPE_ANGLE_BIN_DEG * (Math.PI / 180)));
 
-/** A new ray arriving at `incidentFace` (FACE_FRONT or FACE_REAR): no pass, no face, nothing entered. */
+/** A new ray arriving at `incidentFace` (Face.FRONT or Face.REAR): no pass, no face, nothing entered. */
 export function resetHistory(st: Float64Array, incidentFace: number): void {
   st[Ray.INCIDENT] = incidentFace;
   st[Ray.ENTERED_W] = 0;
@@ -37,13 +40,13 @@ export function resetHistory(st: Float64Array, incidentFace: number): void {
   st[Ray.MAX_PASS] = 0;
   st[Ray.ESCAPED] = 0;
   st[Ray.PASSES] = 0;
-  st[Ray.FACE] = FACE_NONE;
+  st[Ray.FACE] = Face.NONE;
   st[Ray.BULK] = 1;
   st[Ray.ANALOG_PATH] = 0;
   st[Ray.PENDING] = 0;
 }
 
-/** The ray crossed `face` (FACE_FRONT / FACE_REAR) into the absorber (with its weight st[W]). */
+/** The ray crossed `face` (Face.FRONT / Face.REAR) into the absorber (with its weight st[W]). */
 export function enterAbsorber(st: Float64Array, face: number): void {
   if (st[Ray.PASSES] === 0) {
     st[Ray.PASSES] = 1;
@@ -63,11 +66,11 @@ export function leavesFirst(st: Float64Array, face: number): boolean {
 
 /** Channel of light leaving through the rear now: T_first or T_escape. */
 export function rearExitChannel(cs: CompiledStack, st: Float64Array): number {
-  return leavesFirst(st, FACE_REAR) ? cs.chTFirst : cs.chTEscape;
+  return leavesFirst(st, Face.REAR) ? cs.chTFirst : cs.chTEscape;
 }
 
 /**
- * The ray in the absorber arrives at a face (FACE_FRONT / FACE_REAR). Returns 1 when this ends a
+ * The ray in the absorber arrives at a face (Face.FRONT / Face.REAR). Returns 1 when this ends a
  * pass (the other face was touched last), else 0.
  */
 export function arriveAtFace(st: Float64Array, face: number): number {
@@ -109,7 +112,7 @@ function endPass(cs: CompiledStack, st: Float64Array): void {
 export function leaveFront(cs: CompiledStack, st: Float64Array): void {
   const w = st[Ray.W];
   const cosTheta = st[Ray.DZ];
-  if (leavesFirst(st, FACE_FRONT)) {
+  if (leavesFirst(st, Face.FRONT)) {
     cs.contrib[cs.chRFirst] += w;
     return;
   }

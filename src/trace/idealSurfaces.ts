@@ -1,5 +1,5 @@
 import type { RandomStream } from "../random/stream.js";
-import { REAR_IDEAL_MIRROR, type CompiledStack } from "./compiledStack.js";
+import { RearKind, type CompiledStack } from "./compiledStack.js";
 import { rouletteCheck } from "./bulkTransport.js";
 import { Ray } from "./rayState.js";
 import { cosSinOfTurn } from "./turnTrig.js";
@@ -16,7 +16,7 @@ export function idealRear(cs: CompiledStack, st: Float64Array, rng: RandomStream
 
 /** The reflected ray's way back from the ideal rear: specular (mirror) or Lambertian. */
 function leaveIdealRear(cs: CompiledStack, st: Float64Array, rng: RandomStream): void {
-  if (cs.rearKind === REAR_IDEAL_MIRROR) {
+  if (cs.rearKind === RearKind.IDEAL_MIRROR) {
     // Specular at a horizontal plane: z flips; the polarisation keeps its line (r_s = r_p).
     st[Ray.DZ] = -st[Ray.DZ];
     st[Ray.EZ] = -st[Ray.EZ];

@@ -1,10 +1,10 @@
 import type { RandomStream } from "../random/stream.js";
 import { interfacePowers } from "../optics/interfaceTable.js";
-import { ESCAPE_SPLIT_MIN_WEIGHT, SPLIT_MIN_WEIGHT, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
+import { Setting, type CompiledInterface, type CompiledStack } from "./compiledStack.js";
 import { rouletteCheck } from "./bulkTransport.js";
 import { canBranch, pushBranch } from "./branches.js";
 import { Ray, Outcome } from "./rayState.js";
-import { FACE_REAR, rearExitChannel } from "./history.js";
+import { Face, rearExitChannel } from "./history.js";
 import { analogInterfaceEvent } from "./analogInterfaceEvent.js";
 
 /**
@@ -89,7 +89,7 @@ export function interfaceEvent(cs: CompiledStack, st: Float64Array, iface: Compi
   // expected value instead of a coin toss; later events stay sampled, where splitting would grow
   // trees of little weight.
   const settings = cs.estimatorSettings;
-  const floor = up === (st[Ray.INCIDENT] === FACE_REAR) && st[Ray.ENTERED] === 0 ? settings[SPLIT_MIN_WEIGHT] : st[Ray.ENTERED] !== 0 && (up ? iface === cs.front : iface === cs.rear) ? settings[ESCAPE_SPLIT_MIN_WEIGHT] : 0;
+  const floor = up === (st[Ray.INCIDENT] === Face.REAR) && st[Ray.ENTERED] === 0 ? settings[Setting.SPLIT_MIN_WEIGHT] : st[Ray.ENTERED] !== 0 && (up ? iface === cs.front : iface === cs.rear) ? settings[Setting.ESCAPE_SPLIT_MIN_WEIGHT] : 0;
   if (floor > 0 && wNew * (pR < 0.5 ? pR : 1 - pR) >= floor && canBranch(st)) {
     reflectInto(st, row);
     st[Ray.W] = wNew * pR;

@@ -1,9 +1,9 @@
 import { InputError } from "../util/errors.js";
 import type { RandomStream } from "../random/stream.js";
-import { LOST, NO_HIT } from "../geometry/surfaceHit.js";
-import { SURFACE_LAMBERTIAN, SURFACE_MESH } from "../geometry/surfaceTile.js";
-import { ANALOG_FROM_THETA_DEG, POLARIZATION_SPLIT_FROM_THETA_DEG, REAR_IDEAL_LAMBERTIAN, REAR_IDEAL_MIRROR, type CompiledInterface, type CompiledStack, type Estimator } from "./compiledStack.js";
-import { Ray, Outcome, HIT, advance, setNormal } from "./rayState.js";
+import { Hit } from "../geometry/surfaceHit.js";
+import { SurfaceKind } from "../geometry/surfaceTile.js";
+import { Setting, RearKind, type CompiledInterface, type CompiledStack, type Estimator } from "./compiledStack.js";
+import { Ray, Outcome, advance, setNormal } from "./rayState.js";
 import { popBranch, setBranchMedium, splitPolarizationHalves } from "./branches.js";
 import { cosSinOfTurn } from "./turnTrig.js";
 import { launchRay, polarizationMode, setLaunchAngles, setLaunchAzimuth, type Polarization } from "./launch.js";
@@ -14,16 +14,7 @@ import { interfaceEvent } from "./interfaceEvent.js";
 import { backsheetEvent, idealRear, lambertianDirection, lambertianFrontFromBelow, randomPolarization } from "./idealSurfaces.js";
 import { foldBatchTotals, tallyLengthOf } from "./tally.js";
 import { DIAG_LENGTH, diagOffset } from "./tallyLayout.js";
-import {
-  FACE_FRONT,
-  FACE_REAR,
-  arriveAtFace,
-  departFace,
-  enterAbsorber,
-  leaveFront,
-  rearExitChannel,
-  resetHistory,
-} from "./history.js";
+import { Face, arriveAtFace, departFace, enterAbsorber, leaveFront, rearExitChannel, resetHistory } from "./history.js";
 import { traceAnalogCellRays } from "./analogCell.js";
 import { foldRay } from "./rayFold.js";
 
@@ -31,7 +22,7 @@ export type { Polarization } from "./launch.js";
 
 /** The estimator a batch at polar angle θ is traced with (the stack's, analog from its ANALOG_FROM_THETA_DEG on). */
 export function estimatorAt(cs: CompiledStack, thetaDeg: number): Estimator {
-  return thetaDeg >= cs.estimatorSettings[ANALOG_FROM_THETA_DEG] ? "analog" : cs.estimator;
+  return thetaDeg >= cs.estimatorSettings[Setting.ANALOG_FROM_THETA_DEG] ? "analog" : cs.estimator;
 }
 
 /** Where the light comes from: the incidence medium (front) or the medium behind the rear. */
@@ -92,7 +83,7 @@ export function traceBatch(
     const u = launch === null ? null : launch.u;
     // Unpolarised expected-value light where the stack says so (estimatorChoice.ts): each ray as its
     // p half (launched, then waiting as a branch) and its s half (traceRay).
-    const halves = polMode === 0 && !fromRear && st[Ray.BATCH_ANALOG] === 0 && thetaDeg >= cs.estimatorSettings[POLARIZATION_SPLIT_FROM_THETA_DEG];
+    const halves = polMode === 0 && !fromRear && st[Ray.BATCH_ANALOG] === 0 && thetaDeg >= cs.estimatorSettings[Setting.POLARIZATION_SPLIT_FROM_THETA_DEG];
     const launchPol = halves ? 2 : polMode;
     for (let r = 0; r < nRays; r++) {
       // One substream per ray: rays stay paired across stacks traced with the same stream (CRN).
@@ -101,7 +92,7 @@ export function traceBatch(
       if (launch !== null) launch.load(r);
       if (phiDeg === null) cosSinOfTurn(st, u === null ? rng.next() : u[3], Ray.L_COS_P, Ray.L_SIN_P);
       launchRay(cs, launchPol, rng, fromRear, u);
-      resetHistory(st, fromRear ? FACE_REAR : FACE_FRONT);
+      resetHistory(st, fromRear ? Face.REAR : Face.FRONT);
       traceRay(cs, rng, startMedium, halves);
       foldRay(cs, tally, sums);
     }
@@ -170,41 +161,41 @@ function traceRay(cs: CompiledStack, rng: RandomStream, startMedium: number, hal
  */
 function stepInAbsorber(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
   const ABS = cs.nLayers + 1;
-  const rearMesh = cs.rearTile.kind === SURFACE_MESH;
+  const rearMesh = cs.rearTile.kind === SurfaceKind.MESH;
   // Going up after the rear: the next pass has begun (history.ts).
-  if (st[Ray.DZ] > 0 && st[Ray.FACE] === FACE_REAR) departFace(cs, st);
+  if (st[Ray.DZ] > 0 && st[Ray.FACE] === Face.REAR) departFace(cs, st);
   let atRear = false;
   if (st[Ray.DZ] > 0 && rearMesh && st[Ray.Z] < -cs.thicknessUm - cs.rearTile.zMinUm) {
     const inRear = rearSearch(cs, st);
-    if (inRear === LOST) return RAY_LOST;
-    atRear = inRear === HIT;
+    if (inRear === Hit.LOST) return RAY_LOST;
+    atRear = inRear === Hit.HIT;
   }
   if (!atRear) {
     const found = frontSearch(cs, st, true);
-    if (found === LOST) return RAY_LOST;
-    if (found !== HIT) {
+    if (found === Hit.LOST) return RAY_LOST;
+    if (found !== Hit.HIT) {
       // Heading for the rear, clear of the front texture: the next pass has begun.
-      if (st[Ray.FACE] === FACE_FRONT) departFace(cs, st);
+      if (st[Ray.FACE] === Face.FRONT) departFace(cs, st);
       const toRear = rearMesh ? rearSearch(cs, st) : planarRearSearch(cs, st);
-      if (toRear === LOST) return RAY_LOST;
+      if (toRear === Hit.LOST) return RAY_LOST;
       // Left the rear texture's slab upward; with a planar rear, a ray parallel to the faces.
-      if (toRear === NO_HIT) return rearMesh ? ABS : RAY_LOST;
+      if (toRear === Hit.NO_HIT) return rearMesh ? ABS : RAY_LOST;
       atRear = true;
     }
   }
   if (absorbAlong(cs, st, ABS, rng)) return RAY_ENDED;
   advance(st);
   st[Ray.EVENTS]++;
-  arriveAtFace(st, atRear ? FACE_REAR : FACE_FRONT);
+  arriveAtFace(st, atRear ? Face.REAR : Face.FRONT);
   if (atRear) return rearEvent(cs, st, rng);
-  if (cs.frontTile.kind === SURFACE_LAMBERTIAN) return lambertianFrontFromBelow(cs, st, rng) ? cs.nLayers : ABS;
+  if (cs.frontTile.kind === SurfaceKind.LAMBERTIAN) return lambertianFrontFromBelow(cs, st, rng) ? cs.nLayers : ABS;
   return afterInterface(cs, st, interfaceEvent(cs, st, cs.front, rng), ABS, cs.nLayers);
 }
 
 /** The event at the rear reached from the absorber: an ideal reflector, or the rear interface. */
 function rearEvent(cs: CompiledStack, st: Float64Array, rng: RandomStream): number {
   const ABS = cs.nLayers + 1;
-  if (cs.rearKind === REAR_IDEAL_MIRROR || cs.rearKind === REAR_IDEAL_LAMBERTIAN) return idealRear(cs, st, rng) ? RAY_ENDED : ABS;
+  if (cs.rearKind === RearKind.IDEAL_MIRROR || cs.rearKind === RearKind.IDEAL_LAMBERTIAN) return idealRear(cs, st, rng) ? RAY_ENDED : ABS;
   // into the first rear layer, or (without rear layers) absorbed/escaped in the exit medium's sink
   return afterInterface(cs, st, interfaceEvent(cs, st, cs.rear as CompiledInterface, rng), ABS, ABS + 1);
 }
@@ -215,13 +206,13 @@ function rearEvent(cs: CompiledStack, st: Float64Array, rng: RandomStream): numb
  */
 function stepOntoRear(cs: CompiledStack, st: Float64Array, m: number, rng: RandomStream): number {
   const found = rearSearchFromBehind(cs, st);
-  if (found === LOST) return RAY_LOST;
-  if (found !== HIT) return NOT_AT_TEXTURE;
+  if (found === Hit.LOST) return RAY_LOST;
+  if (found !== Hit.HIT) return NOT_AT_TEXTURE;
   if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
   advance(st);
   st[Ray.EVENTS]++;
   const next = afterInterface(cs, st, interfaceEvent(cs, st, cs.rear as CompiledInterface, rng), m, m - 1);
-  if (next === m - 1) enterAbsorber(st, FACE_REAR);
+  if (next === m - 1) enterAbsorber(st, Face.REAR);
   return next;
 }
 
@@ -253,8 +244,8 @@ function stepBehindAbsorber(cs: CompiledStack, st: Float64Array, m: number, rng:
 /** At the outer layer's top texture: m = 0 (above it) or 1 (in the layer); the top films' interface there. */
 function stepAtOuterTexture(cs: CompiledStack, st: Float64Array, m: number, rng: RandomStream): number {
   const found = outerSearch(cs, st, m === 1);
-  if (found === LOST) return RAY_LOST;
-  if (found !== HIT) return NOT_AT_TEXTURE;
+  if (found === Hit.LOST) return RAY_LOST;
+  if (found !== Hit.HIT) return NOT_AT_TEXTURE;
   if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
   advance(st);
   st[Ray.EVENTS]++;
@@ -266,20 +257,20 @@ function stepOntoFront(cs: CompiledStack, st: Float64Array, rng: RandomStream): 
   const m = cs.nLayers;
   const ABS = m + 1;
   const found = frontSearch(cs, st, false);
-  if (found === LOST) return RAY_LOST;
-  if (found !== HIT) return NOT_AT_TEXTURE;
+  if (found === Hit.LOST) return RAY_LOST;
+  if (found !== Hit.HIT) return NOT_AT_TEXTURE;
   if (absorbAlong(cs, st, m, rng)) return RAY_ENDED;
   advance(st);
   st[Ray.EVENTS]++;
-  if (cs.frontTile.kind === SURFACE_LAMBERTIAN) {
+  if (cs.frontTile.kind === SurfaceKind.LAMBERTIAN) {
     // Ideal randomiser: everything enters the absorber, in a Lambertian direction.
     lambertianDirection(st, -1, rng);
     randomPolarization(st, rng);
-    enterAbsorber(st, FACE_FRONT);
+    enterAbsorber(st, Face.FRONT);
     return ABS;
   }
   const next = afterInterface(cs, st, interfaceEvent(cs, st, cs.front, rng), m, ABS);
-  if (next === ABS) enterAbsorber(st, FACE_FRONT);
+  if (next === ABS) enterAbsorber(st, Face.FRONT);
   return next;
 }
 

@@ -48,9 +48,6 @@ export const enum Ray {
 /** Number of state slots. */
 export const STATE_LENGTH = Ray.BUDGET_U + 1;
 
-/** Search result: a hit, its distance in st[T] (NO_HIT and LOST come from the geometry). */
-export const HIT = 0;
-
 /** Interface outcomes (a const enum, as Ray). SPLIT: the state continues transmitted, the reflected part waits as a branch. */
 export const enum Outcome {
   REFLECT = 0,

@@ -1,12 +1,12 @@
-import { LOST, NO_HIT, Q_DX, Q_DY, Q_DZ, Q_LIMIT, Q_OX, Q_OY, Q_OZ, Q_T, meshHit } from "../geometry/surfaceHit.js";
-import { SURFACE_MESH, TRI_STRIDE, type SurfaceTile } from "../geometry/surfaceTile.js";
+import { Query, Hit, meshHit } from "../geometry/surfaceHit.js";
+import { Tri, SurfaceKind, type SurfaceTile } from "../geometry/surfaceTile.js";
 import type { CompiledStack } from "./compiledStack.js";
 
 /** Limits of the pyramid walk: the step budget and the edge tolerance relative to the tile size. */
 const PYRAMID_MAX_STEPS = 1 << 20;
 const PYRAMID_EDGE_TOL_REL = 1e-10;
 
-import { Ray, HIT, setNormal } from "./rayState.js";
+import { Ray, setNormal } from "./rayState.js";
 
 /**
  * Front texture search in world coordinates (front tile frame: z is the height). Sets the hit's
@@ -16,14 +16,14 @@ export function frontSearch(cs: CompiledStack, st: Float64Array, fromBelow: bool
   const tile = cs.frontTile;
   const z = st[Ray.Z];
   const dz = st[Ray.DZ];
-  if (tile.kind !== SURFACE_MESH) {
+  if (tile.kind !== SurfaceKind.MESH) {
     if (fromBelow ? dz > 0 : dz < 0) {
       setNormal(st, 0, 0, 1);
       const t = -z / dz;
       st[Ray.T] = t > 0 ? t : 0;
-      return HIT;
+      return Hit.HIT;
     }
-    return NO_HIT;
+    return Hit.NO_HIT;
   }
   // Regular pyramids straight to their analytic walk (one call less per search).
   if (tile.pyramidSign !== 0) return pyramidSearch(tile, st, fromBelow, 1, 0);
@@ -61,7 +61,7 @@ export function rearSearchFromBehind(cs: CompiledStack, st: Float64Array): numbe
  * used up their inlining budget.
  */
 export function planarRearSearch(cs: CompiledStack, st: Float64Array): number {
-  return st[Ray.DZ] < 0 ? planarRearHit(cs, st) : NO_HIT;
+  return st[Ray.DZ] < 0 ? planarRearHit(cs, st) : Hit.NO_HIT;
 }
 
 /** The ray meets the planar rear (z = −W, normal +z into the absorber) heading to it. */
@@ -69,7 +69,7 @@ function planarRearHit(cs: CompiledStack, st: Float64Array): number {
   setNormal(st, 0, 0, 1);
   const t = (-cs.thicknessUm - st[Ray.Z]) / st[Ray.DZ];
   st[Ray.T] = t > 0 ? t : 0;
-  return HIT;
+  return Hit.HIT;
 }
 
 /**
@@ -81,9 +81,9 @@ function rearTileSearch(cs: CompiledStack, st: Float64Array, inAbsorber: boolean
   const tile = cs.rearTile;
   const W_ = cs.thicknessUm;
   const dz = st[Ray.DZ];
-  if (tile.kind !== SURFACE_MESH) return (inAbsorber ? dz < 0 : dz > 0) ? planarRearHit(cs, st) : NO_HIT;
+  if (tile.kind !== SurfaceKind.MESH) return (inAbsorber ? dz < 0 : dz > 0) ? planarRearHit(cs, st) : Hit.NO_HIT;
   const found = tile.pyramidSign !== 0 ? pyramidSearch(tile, st, inAbsorber, -1, -W_) : tileSearch(tile, st, cs.query, inAbsorber, -1, -W_);
-  if (found === HIT) {
+  if (found === Hit.HIT) {
     st[Ray.NX] = -st[Ray.NX];
     st[Ray.NY] = -st[Ray.NY];
   }
@@ -94,12 +94,12 @@ function rearTileSearch(cs: CompiledStack, st: Float64Array, inAbsorber: boolean
  * Hit search on a mesh tile in its local frame (z = height, outward positive; xy rotated by the
  * texture orientation and wrapped into the tile) for the ray in the state; distance → st[T]. Writes
  * the outward normal (xy rotated back) to the state. Rays heading into the surface must hit it: a
- * miss there is LOST.
+ * miss there is Hit.LOST.
  */
 function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBelow: boolean, zSign: number, zOffsetUm: number): number {
   if (tile.pyramidSign !== 0) return pyramidSearch(tile, st, fromBelow, zSign, zOffsetUm);
   const entry = slabEntry(tile, st, fromBelow, zSign, zOffsetUm);
-  if (entry === NO_HIT) return NO_HIT;
+  if (entry === Hit.NO_HIT) return Hit.NO_HIT;
   const mustHit = entry === MUST_HIT;
   const t0 = slab[0];
   const dzl = slab[3];
@@ -113,26 +113,26 @@ function tileSearch(tile: SurfaceTile, st: Float64Array, q: Float64Array, fromBe
   let py = -s * st[Ray.X] + c * st[Ray.Y] + t0 * dyl;
   px -= lx * Math.floor(px / lx);
   py -= ly * Math.floor(py / ly);
-  q[Q_OX] = px;
-  q[Q_OY] = py;
-  q[Q_OZ] = slab[2];
-  q[Q_DX] = dxl;
-  q[Q_DY] = dyl;
-  q[Q_DZ] = dzl;
-  q[Q_LIMIT] = slab[1];
+  q[Query.OX] = px;
+  q[Query.OY] = py;
+  q[Query.OZ] = slab[2];
+  q[Query.DX] = dxl;
+  q[Query.DY] = dyl;
+  q[Query.DZ] = dzl;
+  q[Query.LIMIT] = slab[1];
   const tri = meshHit(tile, q, fromBelow);
-  if (tri < 0) return tri === NO_HIT && !mustHit ? NO_HIT : LOST;
-  const o = tri * TRI_STRIDE;
+  if (tri < 0) return tri === Hit.NO_HIT && !mustHit ? Hit.NO_HIT : Hit.LOST;
+  const o = tri * Tri.STRIDE;
   const nxl = tile.tri[o];
   const nyl = tile.tri[o + 1];
   st[Ray.NX] = c * nxl - s * nyl;
   st[Ray.NY] = s * nxl + c * nyl;
   st[Ray.NZ] = tile.tri[o + 2];
-  st[Ray.T] = t0 + q[Q_T];
-  return HIT;
+  st[Ray.T] = t0 + q[Query.T];
+  return Hit.HIT;
 }
 
-/** slabEntry result: the ray heads into the surface and must hit it (a miss is LOST). */
+/** slabEntry result: the ray heads into the surface and must hit it (a miss is Hit.LOST). */
 const MUST_HIT = 1;
 /** slabEntry output: [distance to the entry point, search range from there, local height there, local dz]. */
 const slab = new Float64Array(4);
@@ -140,7 +140,7 @@ const slab = new Float64Array(4);
 /**
  * Where the ray in the state enters the slab zMin..zMax of a tile, in the tile's local height: z −
  * offset (front: offset 0; outer glass texture: the glass's top plane), or for the rear tile,
- * flipped (zSign −1): −(z − (−W)) = −(z + W). Writes slab[0..3] (above). Returns NO_HIT when the ray
+ * flipped (zSign −1): −(z − (−W)) = −(z + W). Writes slab[0..3] (above). Returns Hit.NO_HIT when the ray
  * leaves the slab on the far side of the surface, MUST_HIT when it heads into the surface, else 0.
  * pyramidSearch repeats these lines with the ray in locals: change both alike.
  */
@@ -160,7 +160,7 @@ function slabEntry(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, zSig
       tLimit = (zMax - zl) / dzl - t0;
       mustHit = true;
     } else if (dzl < 0) {
-      if (zl <= zMin) return NO_HIT;
+      if (zl <= zMin) return Hit.NO_HIT;
       tLimit = (zMin - zl) / dzl;
     }
   } else {
@@ -169,7 +169,7 @@ function slabEntry(tile: SurfaceTile, st: Float64Array, fromBelow: boolean, zSig
       tLimit = (zMin - zl) / dzl - t0;
       mustHit = true;
     } else if (dzl > 0) {
-      if (zl >= zMax) return NO_HIT;
+      if (zl >= zMax) return Hit.NO_HIT;
       tLimit = (zMax - zl) / dzl;
     }
   }
@@ -211,7 +211,7 @@ export function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: bo
       tLimit = (zMax - zl) / dzl - t0;
       mustHit = true;
     } else if (dzl < 0) {
-      if (zl <= zMin) return NO_HIT;
+      if (zl <= zMin) return Hit.NO_HIT;
       tLimit = (zMin - zl) / dzl;
     }
   } else if (dzl < 0) {
@@ -219,7 +219,7 @@ export function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: bo
     tLimit = (zMin - zl) / dzl - t0;
     mustHit = true;
   } else if (dzl > 0) {
-    if (zl >= zMax) return NO_HIT;
+    if (zl >= zMax) return Hit.NO_HIT;
     tLimit = (zMax - zl) / dzl;
   }
   if (mustHit) tLimit = tLimit * (1 + 1e-9) + 1e-9 * (zMax - zMin);
@@ -267,11 +267,11 @@ export function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: bo
   // A ray leaving the texture faster than any facet can follow it never meets it: from below every
   // plane falls along the ray (no b_k > 0, so no footprint has an exit tHi), from above every plane
   // rises (no entry tLo). The walk would end at tLimit with nothing found; skip it.
-  if (!mustHit && (below ? b0 <= 0 && b1 <= 0 && b2 <= 0 && b3 <= 0 : b0 >= 0 && b1 >= 0 && b2 >= 0 && b3 >= 0)) return NO_HIT;
+  if (!mustHit && (below ? b0 <= 0 && b1 <= 0 && b2 <= 0 && b3 <= 0 : b0 >= 0 && b1 >= 0 && b2 >= 0 && b3 >= 0)) return Hit.NO_HIT;
   const i0 = -1 / b0, i1 = -1 / b1, i2 = -1 / b2, i3 = -1 / b3;
   const zH = oz - tile.pyramidHeightUm;
   let tA = 0;
-  let k = LOST;
+  let k = Hit.LOST;
   let tHit = 0;
   for (let step = 0; step < PYRAMID_MAX_STEPS; step++) {
     let tB = tNextU < tNextV ? tNextU : tNextV;
@@ -302,7 +302,7 @@ export function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: bo
       }
     }
     if (tB >= tLimit) {
-      k = NO_HIT;
+      k = Hit.NO_HIT;
       break;
     }
     tA = tB;
@@ -314,7 +314,7 @@ export function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: bo
       tNextV += tDeltaV;
     }
   }
-  if (k < 0) return k === NO_HIT && !mustHit ? NO_HIT : LOST;
+  if (k < 0) return k === Hit.NO_HIT && !mustHit ? Hit.NO_HIT : Hit.LOST;
   const nrm = tile.pyramidNormals;
   const nxl = nrm[3 * k];
   const nyl = nrm[3 * k + 1];
@@ -322,5 +322,5 @@ export function pyramidSearch(tile: SurfaceTile, st: Float64Array, fromBelow: bo
   st[Ray.NY] = s * nxl + c * nyl;
   st[Ray.NZ] = nrm[3 * k + 2];
   st[Ray.T] = t0 + tHit;
-  return HIT;
+  return Hit.HIT;
 }

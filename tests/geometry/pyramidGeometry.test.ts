@@ -1,29 +1,29 @@
 import { describe, expect, it } from "vitest";
 import { RandomStream, streamKey } from "../../src/random/stream.js";
-import { meshHit, Q_DX, Q_DY, Q_DZ, Q_LIMIT, Q_LENGTH, Q_OX, Q_OY, Q_OZ, Q_T } from "../../src/geometry/surfaceHit.js";
-import { TRI_STRIDE, type SurfaceTile } from "../../src/geometry/surfaceTile.js";
+import { Query, meshHit } from "../../src/geometry/surfaceHit.js";
+import { Tri, type SurfaceTile } from "../../src/geometry/surfaceTile.js";
 import { buildSurface } from "../../src/geometry/textures.js";
 
 const FACET_111_DEG = (Math.atan(Math.SQRT2) * 180) / Math.PI; // 54.7356°, (111) facets on (100)
 
 /** Follows a vertically incident ray over the texture with specular reflections only. */
 function bounceSequence(tile: SurfaceTile, x0: number, y0: number): number[] {
-  const q = new Float64Array(Q_LENGTH);
+  const q = new Float64Array(Query.LENGTH);
   let x = x0, y = y0, z = tile.zMaxUm, dx = 0, dy = 0, dz = -1;
   const anglesDeg: number[] = [];
   for (let k = 0; k < 10; k++) {
     x -= tile.lxUm * Math.floor(x / tile.lxUm);
     y -= tile.lyUm * Math.floor(y / tile.lyUm);
-    q[Q_OX] = x; q[Q_OY] = y; q[Q_OZ] = z; q[Q_DX] = dx; q[Q_DY] = dy; q[Q_DZ] = dz;
-    q[Q_LIMIT] = dz < 0 ? ((tile.zMinUm - z) / dz) * 1.000001 : (tile.zMaxUm - z) / dz;
+    q[Query.OX] = x; q[Query.OY] = y; q[Query.OZ] = z; q[Query.DX] = dx; q[Query.DY] = dy; q[Query.DZ] = dz;
+    q[Query.LIMIT] = dz < 0 ? ((tile.zMinUm - z) / dz) * 1.000001 : (tile.zMaxUm - z) / dz;
     const tri = meshHit(tile, q, false);
     if (tri < 0) {
       if (dz < 0) throw new Error("ray went through the surface");
       break;
     }
-    const t = q[Q_T];
+    const t = q[Query.T];
     x += t * dx; y += t * dy; z += t * dz;
-    const o = tri * TRI_STRIDE;
+    const o = tri * Tri.STRIDE;
     const [nx, ny, nz] = [tile.tri[o], tile.tri[o + 1], tile.tri[o + 2]];
     const dn = dx * nx + dy * ny + dz * nz;
     anglesDeg.push((Math.acos(-dn) * 180) / Math.PI);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { TRI_STRIDE, type SurfaceTile } from "../../src/geometry/surfaceTile.js";
+import { Tri, type SurfaceTile } from "../../src/geometry/surfaceTile.js";
 import { buildSurface } from "../../src/geometry/textures.js";
 import { heightGridVerts } from "../../src/geometry/heightField.js";
 import { parseHeightMapCsv } from "../../src/geometry/heightMapCsv.js";
@@ -7,7 +7,7 @@ import { parseHeightMapCsv } from "../../src/geometry/heightMapCsv.js";
 /** Facet tilts (degrees) of a tile's triangles. */
 function tilts(tile: SurfaceTile): number[] {
   const out: number[] = [];
-  for (let t = 0; t < tile.nTri; t++) out.push((Math.acos(tile.tri[t * TRI_STRIDE + 2]) * 180) / Math.PI);
+  for (let t = 0; t < tile.nTri; t++) out.push((Math.acos(tile.tri[t * Tri.STRIDE + 2]) * 180) / Math.PI);
   return out;
 }
 

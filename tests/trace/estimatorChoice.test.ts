@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { join } from "node:path";
 import { loadStudy } from "../../src/study/load.js";
 import { compileStack } from "../../src/trace/compile.js";
-import { ROULETTE_WEIGHT, SPLIT_MIN_WEIGHT } from "../../src/trace/compiledStack.js";
+import { Setting } from "../../src/trace/compiledStack.js";
 import { chooseEstimator, POLARIZATION_SPLIT_DEG, QMC_TAIL_ROULETTE_WEIGHT, DEEP_TAIL_ROULETTE_WEIGHT, DEFAULT_SPLIT_MIN_WEIGHT, GRAZING_ANALOG_DEG, OPAQUE_ROULETTE_WEIGHT, TAIL_ROULETTE_WEIGHT, TAIL_SPLIT_MIN_WEIGHT } from "../../src/trace/estimatorChoice.js";
 import { estimatorAt, traceBatch } from "../../src/trace/kernel.js";
 import { RandomStream, streamKey } from "../../src/random/stream.js";
@@ -78,10 +78,10 @@ describe("default estimator per wavelength", () => {
     expect(compileStack(gg.combos[0]!.study, gg.registry, 800).estimator).toBe("expected");
     const rp = loadStudy(join(import.meta.dirname, "../../configs/demo-random-pyramids.study.json"));
     const tail = compileStack(rp.combos[0]!.study, rp.registry, 1150);
-    expect([tail.estimator, tail.estimatorSettings[ROULETTE_WEIGHT], tail.estimatorSettings[SPLIT_MIN_WEIGHT]]).toEqual(["expected", DEEP_TAIL_ROULETTE_WEIGHT, 0]);
+    expect([tail.estimator, tail.estimatorSettings[Setting.ROULETTE_WEIGHT], tail.estimatorSettings[Setting.SPLIT_MIN_WEIGHT]]).toEqual(["expected", DEEP_TAIL_ROULETTE_WEIGHT, 0]);
     // 1075 nm: αW ≈ 0.13 in 180 µm Si, the first facet's reflection splits, the weaker ones after it are sampled
     const trap = compileStack(rp.combos[0]!.study, rp.registry, 1075);
-    expect([trap.estimator, trap.estimatorSettings[ROULETTE_WEIGHT], trap.estimatorSettings[SPLIT_MIN_WEIGHT]]).toEqual(["expected", TAIL_ROULETTE_WEIGHT, TAIL_SPLIT_MIN_WEIGHT]);
+    expect([trap.estimator, trap.estimatorSettings[Setting.ROULETTE_WEIGHT], trap.estimatorSettings[Setting.SPLIT_MIN_WEIGHT]]).toEqual(["expected", TAIL_ROULETTE_WEIGHT, TAIL_SPLIT_MIN_WEIGHT]);
     expect([estimatorAt(tail, 60), estimatorAt(tail, 70), estimatorAt(tail, 80)]).toEqual(["expected", "analog", "analog"]);
     // an explicit choice wins, at every angle
     expect(compileStack(gg.combos[0]!.study, gg.registry, 1150, { estimator: "expected" }).estimator).toBe("expected");

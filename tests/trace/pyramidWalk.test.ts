@@ -1,11 +1,11 @@
 import { describe, expect, it } from "vitest";
 import { MaterialRegistry } from "../../src/materials/registry.js";
 import { RandomStream, streamKey } from "../../src/random/stream.js";
-import { LOST, meshHit, NO_HIT, Q_DX, Q_DY, Q_DZ, Q_LENGTH, Q_LIMIT, Q_OX, Q_OY, Q_OZ, Q_T } from "../../src/geometry/surfaceHit.js";
-import { TRI_STRIDE } from "../../src/geometry/surfaceTile.js";
+import { Query, Hit, meshHit } from "../../src/geometry/surfaceHit.js";
+import { Tri } from "../../src/geometry/surfaceTile.js";
 import { buildSurface } from "../../src/geometry/textures.js";
 import { compileStack } from "../../src/trace/compile.js";
-import { Ray, HIT } from "../../src/trace/rayState.js";
+import { Ray } from "../../src/trace/rayState.js";
 import { frontSearch } from "../../src/trace/surfaceSearch.js";
 import type { StackSpec } from "../../src/study/stackTypes.js";
 
@@ -25,7 +25,7 @@ describe("analytic pyramid search agrees with the triangle mesh", () => {
       const tile = buildSurface({ type, baseUm: 7, facetAngleDeg: angle }, boundary, "t");
       expect(tile.pyramidSign).toBe(type === "upright-pyramids" ? 1 : -1);
       const rng = new RandomStream(streamKey(7, "pyramid-hit", type, boundary));
-      const q = new Float64Array(Q_LENGTH);
+      const q = new Float64Array(Query.LENGTH);
       const cs = compileStack(pyramidStack(type), MaterialRegistry.withBuiltins(), 1000);
       cs.frontTile = tile;
       const st = cs.state;
@@ -43,21 +43,21 @@ describe("analytic pyramid search agrees with the triangle mesh", () => {
         const dx = sz * Math.cos(ph), dy = sz * Math.sin(ph), dz = cz;
         const limit = dz > 0 ? (tile.zMaxUm - z) / dz : dz < 0 ? (tile.zMinUm - z) / dz : 50;
         const set = (): void => {
-          q[Q_OX] = x; q[Q_OY] = y; q[Q_OZ] = z; q[Q_DX] = dx; q[Q_DY] = dy; q[Q_DZ] = dz; q[Q_LIMIT] = limit;
+          q[Query.OX] = x; q[Query.OY] = y; q[Query.OZ] = z; q[Query.DX] = dx; q[Query.DY] = dy; q[Query.DZ] = dz; q[Query.LIMIT] = limit;
         };
         set();
         const tri = meshHit(tile, q, fromBelow);
-        const tMesh = q[Q_T];
+        const tMesh = q[Query.T];
         st[Ray.X] = x; st[Ray.Y] = y; st[Ray.Z] = z; st[Ray.DX] = dx; st[Ray.DY] = dy; st[Ray.DZ] = dz;
         const found = frontSearch(cs, st, fromBelow);
         const tPyr = st[Ray.T];
-        if (tri === LOST || Math.abs(h - z) < 1e-6) continue; // grazing start: either answer is fair
+        if (tri === Hit.LOST || Math.abs(h - z) < 1e-6) continue; // grazing start: either answer is fair
         compared++;
-        expect(found === HIT).toBe(tri >= 0);
-        if (tri === NO_HIT) continue;
+        expect(found === Hit.HIT).toBe(tri >= 0);
+        if (tri === Hit.NO_HIT) continue;
         hits++;
         expect(Math.abs(tPyr - tMesh)).toBeLessThan(1e-9);
-        const o = tri * TRI_STRIDE;
+        const o = tri * Tri.STRIDE;
         const normal = [st[Ray.NX], st[Ray.NY], st[Ray.NZ]];
         for (let j = 0; j < 3; j++) expect(Math.abs(normal[j] - tile.tri[o + j])).toBeLessThan(1e-12);
       }

@@ -3,7 +3,8 @@ import { MaterialRegistry } from "../../src/materials/registry.js";
 import { RandomStream, streamKey } from "../../src/random/stream.js";
 import type { StackSpec } from "../../src/study/stackTypes.js";
 import { compileStack } from "../../src/trace/compile.js";
-import { Ray, HIT } from "../../src/trace/rayState.js";
+import { Hit } from "../../src/geometry/surfaceHit.js";
+import { Ray } from "../../src/trace/rayState.js";
 import { frontSearch, rearSearch } from "../../src/trace/surfaceSearch.js";
 
 // The tracer searches regular pyramids analytically in one step (slab entry, wrap into the tile,
@@ -39,7 +40,7 @@ describe("analytic pyramid search in world coordinates agrees with the triangle 
         }
         const [a, m] = results;
         expect(a[0]).toBe(m[0]);
-        if (a[0] !== HIT) continue;
+        if (a[0] !== Hit.HIT) continue;
         hits++;
         expect(Math.abs(a[1] - m[1])).toBeLessThan(1e-9 * (1 + m[1]));
         for (let j = 2; j < 5; j++) expect(Math.abs(a[j] - m[j])).toBeLessThan(1e-12);
