@@ -32,7 +32,7 @@ export const DEEP_TAIL_ROULETTE_WEIGHT = 0.5;
  * its s and p halves from this polar angle on (the kernel, traceBatch).
  */
 export const POLARIZATION_SPLIT_DEG = 60;
-/** Grazing incidence on a texture in the trapping tail: traced analog from this polar angle on. */
+/** Grazing incidence on a texture in the deep tail: traced analog from this polar angle on. */
 export const GRAZING_ANALOG_DEG = 70;
 /** Both parts of a split on the way in weigh at least this much (a first reflection of 0.3 % still splits). */
 export const DEFAULT_SPLIT_MIN_WEIGHT = 0.001;
@@ -74,9 +74,14 @@ export const QMC_TAIL_ROULETTE_WEIGHT = 0.1;
  *   absorber): light leaving the cell is partly sent back by the glass, the escape stays a long chain
  *   of sampled events, and weighted absorption lost R up to 40 % of its merit at 1050–1150 nm on the
  *   glass–glass demo stack.
- * - Analog at grazing incidence (θ ≥ 70°) on a texture in the trapping tail: much of the light is
- *   reflected before it enters, and the weighted rays' extra events cost more than the variance
- *   they save (random pyramids, 70–80° at 1050–1125 nm: merit 0.89–0.99 of analog at 16 000 rays).
+ * - Analog at grazing incidence (θ ≥ 70°) on a texture in the deep tail: much of the light is
+ *   reflected before it enters, and the weighted rays' extra events cost about what the variance
+ *   they save is worth (random pyramids at 1100 nm, 70° and 80°: merit R 1.00 / 0.90, A 1.06 / 0.95
+ *   of analog; 1125–1150 nm 1.01–1.39; 4 × 20 000 rays, 2026-12-05). Not where 0.1 ≤ αW < 0.5:
+ *   there the split floor makes expected value the better estimator at grazing incidence too
+ *   (random pyramids at 70° / 80°: 1025 nm (αW 0.63, opaque) 14 / 8, 1050 nm (αW 0.29) 3.8 / 3.2,
+ *   1075 nm (αW 0.13) 1.6 / 1.6 for R and A alike; the rule was set before the split floor, when
+ *   1050–1125 nm measured 0.89–0.99).
  * - Under Sobol' launch points (`rays.sampling: "sobol"`), in the deep tail on a textured front (no
  *   module): split every way in and every way out (light in the absorber meeting the face it may
  *   leave through: the escaping part goes on, the returned part waits), roulette at 0.1. With every
@@ -95,7 +100,7 @@ export function chooseEstimator(singlePassDepth: number, plainFront: boolean, ha
     estimator: !opaque && hasThickLayers ? "analog" : "expected",
     rouletteWeight: opaque ? OPAQUE_ROULETTE_WEIGHT : qmcTail ? QMC_TAIL_ROULETTE_WEIGHT : deepTail ? DEEP_TAIL_ROULETTE_WEIGHT : TAIL_ROULETTE_WEIGHT,
     splitMinWeight: opaque || plainFront || qmcTail ? DEFAULT_SPLIT_MIN_WEIGHT : deepTail ? 0 : tailSplitMinWeight(singlePassDepth),
-    analogFromThetaDeg: !opaque && !plainFront ? GRAZING_ANALOG_DEG : Infinity,
+    analogFromThetaDeg: deepTail && !plainFront ? GRAZING_ANALOG_DEG : Infinity,
     escapeSplitMinWeight: qmcTail ? DEFAULT_SPLIT_MIN_WEIGHT : 0,
     polarizationSplitFromThetaDeg: opaque && plainFront && !hasThickLayers ? POLARIZATION_SPLIT_DEG : Infinity,
   };
