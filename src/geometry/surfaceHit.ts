@@ -3,9 +3,8 @@ import { Tri, type SurfaceTile } from "./surfaceTile.js";
 /**
  * Search results: a hit (its distance in the state's T slot, src/trace/rayState.ts), none in the
  * search range, or lost (the walk exceeded its step budget: a ray running parallel to the base
- * plane). Const enums (this one, Query, SurfaceKind, Ray, ...) are written into the code as numbers
- * by the compiler; imported constants cost V8's optimised code a binding check at every use (DEVELOPERS.md,
- * "Tracer efficiency").
+ * plane). A const enum, like Query below, for the reason given at the ray state's slots
+ * (src/trace/rayState.ts, Ray).
  */
 export const enum Hit {
   HIT = 0,

@@ -26,7 +26,7 @@ export interface CompiledInterface {
 }
 
 /**
- * Slots of CompiledStack.estimatorSettings. A typed array, not four number fields: these numbers
+ * Slots of CompiledStack.estimatorSettings. A typed array, not five number fields: these numbers
  * change from wavelength to wavelength of one stack (estimatorChoice.ts), and a field that first
  * held only whole numbers (0, 70) becomes a double field when a later stack stores 0.001 or
  * Infinity; V8 then drops the optimised code of every function that reads a compiled stack (a
@@ -106,7 +106,7 @@ export interface CompiledStack {
   chRear: number;
   chUnresolved: number;
   estimator: Estimator;
-  /** The estimator's numbers, slots ANALOG_FROM_THETA_DEG … ESCAPE_SPLIT_MIN_WEIGHT (see there). */
+  /** The estimator's numbers, at the slots of Setting (see there). */
   estimatorSettings: Float64Array;
   maxEvents: number;
   /** Pending branches of the ray in flight (src/trace/branches.ts). */

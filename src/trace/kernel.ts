@@ -20,7 +20,7 @@ import { foldRay } from "./rayFold.js";
 
 export type { Polarization } from "./launch.js";
 
-/** The estimator a batch at polar angle θ is traced with (the stack's, analog from its ANALOG_FROM_THETA_DEG on). */
+/** The estimator a batch at polar angle θ is traced with (the stack's, analog from its Setting.ANALOG_FROM_THETA_DEG on). */
 export function estimatorAt(cs: CompiledStack, thetaDeg: number): Estimator {
   return thetaDeg >= cs.estimatorSettings[Setting.ANALOG_FROM_THETA_DEG] ? "analog" : cs.estimator;
 }
